@@ -1,0 +1,36 @@
+# parsimetry: multi-stage image on node:20-slim.
+# (No Docker engine runs where this project is built; this file is kept correct
+# by reading it against the README's install steps, not by building it there.)
+
+# --- build stage: compile better-sqlite3's native addon with production deps only
+FROM node:20-slim AS deps
+WORKDIR /app
+RUN apt-get update \
+ && apt-get install -y --no-install-recommends python3 make g++ \
+ && rm -rf /var/lib/apt/lists/*
+COPY package.json package-lock.json ./
+RUN npm ci --omit=dev
+
+# --- runtime stage: no compilers, a non-root user, the audit file on a volume
+FROM node:20-slim
+ENV NODE_ENV=production \
+    HOST=0.0.0.0 \
+    PORT=8080 \
+    AUDIT_DB=/app/data/audit.sqlite
+WORKDIR /app
+COPY --from=deps /app/node_modules ./node_modules
+COPY package.json ./
+COPY src ./src
+COPY openapi ./openapi
+RUN groupadd --system parsimetry \
+ && useradd --system --gid parsimetry --home-dir /app parsimetry \
+ && mkdir -p /app/data \
+ && chown parsimetry:parsimetry /app/data
+USER parsimetry
+VOLUME ["/app/data"]
+EXPOSE 8080
+# HOST=0.0.0.0 needs API keys (API_KEYS_FILE): without them the service refuses
+# to listen beyond loopback.
+HEALTHCHECK --interval=15s --timeout=3s --start-period=20s --retries=3 \
+  CMD node -e "fetch('http://127.0.0.1:'+(process.env.PORT||8080)+'/readyz').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"
+CMD ["node", "--import", "tsx", "src/server.ts"]

@@ -1,0 +1,182 @@
+// Canonical serialisation and the hash chain shared by every audit store.
+//
+// Canonical JSON (so the chain can be re-verified by any other program):
+//   - Input is a JSON value: null, true/false, a finite number, a string, an
+//     array, or an object whose values are JSON values. Anything else (undefined,
+//     NaN, Infinity, bigint, functions, symbols) is refused, so what is hashed is
+//     always exactly what a JSON reader gets back.
+//   - Objects: keys sorted by UTF-16 code units (JavaScript's default sort),
+//     written as "key":value pairs separated by ",", no whitespace anywhere.
+//   - Arrays keep their order, elements separated by ",".
+//   - Strings and numbers are written as ECMAScript JSON.stringify writes them
+//     (shortest round-trip decimal for numbers, e.g. 1e-7, 0.1, 1e+21; -0 as 0).
+//   This coincides with RFC 8785 (JSON Canonicalization Scheme) for these values.
+//
+// The chain:
+//   hash(n) = lowercase hex SHA-256 over the UTF-8 bytes of
+//             prevHash(n) + canonical(body(n))
+//   where prevHash(n) = hash(n-1) as 64 lowercase hex characters, the genesis
+//   prevHash (for seq 1) is 64 "0" characters, and body(n) is the stored record
+//   without its `prevHash` and `hash` fields (seq, id and createdAt included).
+import { createHash } from 'node:crypto';
+
+export const GENESIS_HASH = '0'.repeat(64);
+
+export type JsonValue = null | boolean | number | string | JsonValue[] | { [key: string]: JsonValue };
+
+export class NotCanonicalisable extends Error {
+  constructor(readonly path: string, readonly found: string) {
+    super(`value at ${path || '(root)'} is not a JSON value: ${found}`);
+    this.name = 'NotCanonicalisable';
+  }
+}
+
+export function canonicalJson(value: unknown): string {
+  return write(value, '');
+}
+
+function write(value: unknown, path: string): string {
+  if (value === null) return 'null';
+  switch (typeof value) {
+    case 'boolean':
+      return value ? 'true' : 'false';
+    case 'number':
+      if (!Number.isFinite(value)) throw new NotCanonicalisable(path, String(value));
+      return JSON.stringify(value);
+    case 'string':
+      return JSON.stringify(value);
+    case 'object': {
+      if (Array.isArray(value)) {
+        return '[' + value.map((item, i) => write(item, `${path}/${i}`)).join(',') + ']';
+      }
+      const proto = Object.getPrototypeOf(value);
+      if (proto !== Object.prototype && proto !== null) {
+        throw new NotCanonicalisable(path, `object of type ${proto?.constructor?.name ?? 'unknown'}`);
+      }
+      const keys = Object.keys(value).sort();
+      const parts: string[] = [];
+      for (const key of keys) {
+        const v = (value as Record<string, unknown>)[key];
+        parts.push(JSON.stringify(key) + ':' + write(v, `${path}/${key}`));
+      }
+      return '{' + parts.join(',') + '}';
+    }
+    default:
+      throw new NotCanonicalisable(path, typeof value);
+  }
+}
+
+/**
+ * What a JSON reader would get back from `value`: Dates become strings, NaN and
+ * Infinity become null, undefined members vanish. The store keeps this form, so
+ * the record read back hashes the same as the record written.
+ */
+export function toJsonValue(value: unknown): JsonValue {
+  const text = JSON.stringify(value);
+  if (text === undefined) throw new NotCanonicalisable('', typeof value);
+  return JSON.parse(text) as JsonValue;
+}
+
+export function sha256Hex(text: string): string {
+  return createHash('sha256').update(text, 'utf8').digest('hex');
+}
+
+/** The digest kept for every request, also when the request itself is not stored. */
+export function requestDigest(request: unknown): string {
+  return sha256Hex(canonicalJson(toJsonValue(request)));
+}
+
+export function recordHash(prevHash: string, canonicalRecord: string): string {
+  return sha256Hex(prevHash + canonicalRecord);
+}
+
+/** A record as the chain sees it; the rest of its fields form the hashed body. */
+export interface ChainedRecord {
+  seq: number;
+  id: string;
+  prevHash: string;
+  hash: string;
+}
+
+export function chainBody<R extends ChainedRecord>(record: R): Omit<R, 'prevHash' | 'hash'> {
+  const { prevHash: _p, hash: _h, ...body } = record;
+  return body;
+}
+
+export function hashOfRecord(record: ChainedRecord): string {
+  return recordHash(record.prevHash, canonicalJson(chainBody(record)));
+}
+
+export type BreakReason =
+  | 'unreadable' // the row fails validation (corrupt JSON, missing field, wrong type)
+  | 'sequence_gap' // seq is not one more than the previous record's (a record is missing or reordered)
+  | 'prev_hash_mismatch' // prevHash is not the previous record's hash (reordered, replaced or removed)
+  | 'hash_mismatch' // the record's content no longer hashes to its stored hash (edited)
+  | 'head_mismatch'; // the chain ends before, or differently from, the recorded head (tail removed)
+
+export interface VerifyReport {
+  ok: boolean;
+  records: number;
+  head: { seq: number; id: string; hash: string } | null;
+  firstBroken: { seq: number; id: string | null; reason: BreakReason } | null;
+}
+
+/** One row as read for verification: a record, or the reason it could not be read. */
+export type WalkRow = { record: ChainedRecord } | { unreadable: { seq: number; id: string | null } };
+
+/** The head the store recorded when it last committed (null: the store keeps none). */
+export interface RecordedHead {
+  seq: number;
+  id: string | null;
+  hash: string;
+}
+
+/**
+ * Walks records in ascending seq order, one at a time, so a long chain is
+ * verified page by page without holding it in memory. After the first break it
+ * keeps counting but stops judging: everything after a break is suspect anyway.
+ */
+export class ChainWalk {
+  private records = 0;
+  private expectedSeq = 1;
+  private prevHash = GENESIS_HASH;
+  private last: VerifyReport['head'] = null;
+  private broken: VerifyReport['firstBroken'] = null;
+
+  push(row: WalkRow): void {
+    this.records += 1;
+    if ('unreadable' in row) {
+      this.breakAt(row.unreadable.seq, row.unreadable.id, 'unreadable');
+      return;
+    }
+    const r = row.record;
+    this.last = { seq: r.seq, id: r.id, hash: r.hash };
+    if (this.broken) return;
+    if (r.seq !== this.expectedSeq) this.breakAt(r.seq, r.id, 'sequence_gap');
+    else if (r.prevHash !== this.prevHash) this.breakAt(r.seq, r.id, 'prev_hash_mismatch');
+    else if (hashOfRecord(r) !== r.hash) this.breakAt(r.seq, r.id, 'hash_mismatch');
+    this.expectedSeq = r.seq + 1;
+    this.prevHash = r.hash;
+  }
+
+  finish(recorded: RecordedHead | null): VerifyReport {
+    if (!this.broken && recorded) {
+      const lastSeq = this.last?.seq ?? 0;
+      const lastHash = this.last?.hash ?? GENESIS_HASH;
+      if (lastSeq < recorded.seq) {
+        // The newest records are gone: name the first one that should be there.
+        const seq = lastSeq + 1;
+        this.breakAt(seq, seq === recorded.seq ? recorded.id : null, 'head_mismatch');
+      } else if (lastSeq > recorded.seq) {
+        this.breakAt(recorded.seq + 1, null, 'head_mismatch'); // rows beyond the committed head
+      } else if (lastHash !== recorded.hash) {
+        this.breakAt(lastSeq, this.last?.id ?? null, 'head_mismatch');
+      }
+    }
+    return { ok: this.broken === null, records: this.records, head: this.last, firstBroken: this.broken };
+  }
+
+  private breakAt(seq: number, id: string | null, reason: BreakReason): void {
+    if (!this.broken) this.broken = { seq, id, reason };
+  }
+}

@@ -1,0 +1,92 @@
+// One row layout for both databases (same column names), and the checks that
+// turn a row back into a record. A row that fails them is reported, never thrown
+// past the store as a crash.
+import { z } from 'zod';
+import { canonicalJson, recordHash, requestDigest, toJsonValue } from './chain.ts';
+import { AuditRecordInvalid } from './errors.ts';
+import { NewRecordSchema, StoredRecordSchema, type CorruptRow, type NewRecord, type StoredRecord } from './store.ts';
+
+export const RECORD_COLUMNS = [
+  'seq', 'id', 'created_at', 'kind', 'caller', 'label', 'service_version', 'conventions_version',
+  'policy_name', 'policy_hash', 'dataset_fingerprint', 'request_digest', 'request', 'result', 'prev_hash', 'hash',
+] as const;
+
+export type RecordRow = Record<(typeof RECORD_COLUMNS)[number], unknown>;
+
+/** A validated new record in its JSON form (what will be hashed and stored). */
+export type PreparedRecord = z.output<typeof NewRecordSchema>;
+
+export function prepareRecord(input: NewRecord): PreparedRecord {
+  let json: unknown;
+  try {
+    json = toJsonValue(input);
+  } catch (err) {
+    throw new AuditRecordInvalid([(err as Error).message]);
+  }
+  const parsed = NewRecordSchema.safeParse(json);
+  if (!parsed.success) {
+    throw new AuditRecordInvalid(parsed.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`));
+  }
+  const record = parsed.data;
+  if (record.request !== null && requestDigest(record.request) !== record.requestDigest) {
+    throw new AuditRecordInvalid(['requestDigest: does not match the SHA-256 of the canonical request']);
+  }
+  return record;
+}
+
+/** Chains a prepared record onto the head: the one place seq, prevHash and hash are assigned. */
+export function chainRecord(
+  prepared: PreparedRecord,
+  head: { seq: number; hash: string },
+  stamp: { id: string; createdAt: string },
+): StoredRecord {
+  const body = { ...prepared, id: stamp.id, createdAt: stamp.createdAt, seq: head.seq + 1 };
+  const hash = recordHash(head.hash, canonicalJson(body));
+  return { ...body, prevHash: head.hash, hash };
+}
+
+export function recordToRow(r: StoredRecord): unknown[] {
+  return [
+    r.seq, r.id, r.createdAt, r.kind, r.caller, r.label, r.serviceVersion, r.conventionsVersion,
+    r.policy?.name ?? null, r.policy?.hash ?? null, r.datasetFingerprint, r.requestDigest,
+    r.request === null ? null : JSON.stringify(r.request), JSON.stringify(r.result), r.prevHash, r.hash,
+  ];
+}
+
+export type RowReading = { record: StoredRecord } | { corrupt: CorruptRow };
+
+export function rowToRecord(row: RecordRow): RowReading {
+  const seq = Number(row.seq); // pg returns bigint columns as strings
+  const id = typeof row.id === 'string' ? row.id : null;
+  const problems: string[] = [];
+  const json = (column: 'request' | 'result'): unknown => {
+    const text = row[column];
+    if (text === null) return null;
+    if (typeof text !== 'string') {
+      problems.push(`${column}: not text`);
+      return undefined;
+    }
+    try {
+      return JSON.parse(text);
+    } catch {
+      problems.push(`${column}: not valid JSON`);
+      return undefined;
+    }
+  };
+  const request = json('request');
+  const result = json('result');
+  const policy =
+    row.policy_name === null && row.policy_hash === null ? null : { name: row.policy_name, hash: row.policy_hash };
+  const candidate = {
+    kind: row.kind, caller: row.caller, label: row.label, serviceVersion: row.service_version,
+    conventionsVersion: row.conventions_version, policy, datasetFingerprint: row.dataset_fingerprint,
+    requestDigest: row.request_digest, request, result, id: row.id, createdAt: row.created_at, seq,
+    prevHash: row.prev_hash, hash: row.hash,
+  };
+  if (problems.length === 0) {
+    const parsed = StoredRecordSchema.safeParse(candidate);
+    if (parsed.success) return { record: parsed.data };
+    problems.push(...parsed.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`));
+  }
+  return { corrupt: { seq, id, problems } };
+}

@@ -1,0 +1,54 @@
+// The only reader of process.env. Every setting is validated once at start so a
+// typo in a deployment fails loudly instead of running with a silent default.
+import { z } from 'zod';
+
+const positiveInt = (fallback: number) =>
+  z.coerce.number().int().positive().default(fallback);
+
+const ConfigSchema = z.object({
+  PORT: z.coerce.number().int().min(0).max(65535).default(8080),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  AUDIT_DB: z.string().min(1).default('./data/audit.sqlite'),
+  API_KEYS_FILE: z.string().min(1).optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  // 32 MiB holds about two million numbers as JSON: real data sets, not toy ones.
+  BODY_LIMIT_BYTES: positiveInt(32 * 1024 * 1024),
+  // rows × design columns × candidates: a bound on the least-squares work one
+  // request may ask for (about 2 s of CPU at this size on one core).
+  MAX_WORK_CELLS: positiveInt(60_000_000),
+});
+
+export type Config = Readonly<{
+  port: number;
+  host: string;
+  auditDb: string;
+  apiKeysFile: string | undefined;
+  logLevel: z.infer<typeof ConfigSchema>['LOG_LEVEL'];
+  bodyLimitBytes: number;
+  maxWorkCells: number;
+}>;
+
+export class ConfigError extends Error {}
+
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const parsed = ConfigSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`invalid configuration: ${lines.join('; ')}`);
+  }
+  const c = parsed.data;
+  return Object.freeze({
+    port: c.PORT,
+    host: c.HOST,
+    auditDb: c.AUDIT_DB,
+    apiKeysFile: c.API_KEYS_FILE,
+    logLevel: c.LOG_LEVEL,
+    bodyLimitBytes: c.BODY_LIMIT_BYTES,
+    maxWorkCells: c.MAX_WORK_CELLS,
+  });
+}
+
+/** Defaults for tests and the demo: what a fresh deployment would run with. */
+export function defaultConfig(overrides: Partial<Config> = {}): Config {
+  return Object.freeze({ ...loadConfig({}), ...overrides });
+}

@@ -1,0 +1,147 @@
+// Model-averaged coefficients and predictions over a set of fitted models
+// with criterion weights (Akaike weights for AIC/AICc; the same form over
+// BIC). The caller chooses the set (all candidates or the confidence set);
+// weights are renormalised over the models passed in.
+//
+// Two averages per term, both reported:
+// - full average (the headline `estimate`): a model without the term counts
+//   with coefficient 0 and variance 0. It is the average that matches the
+//   averaged prediction, since sum w_i x'b_i = x' (sum w_i b_i).
+// - over the models containing the term: weights renormalised over those
+//   models only; it answers "how large is the effect, given it is present".
+// importance = summed (normalised) weight of the models containing the term.
+// A coefficient that a model has but could not estimate (aliased) counts as
+// absent: the fit set it to zero, which is what the full average uses anyway.
+import { averageWithUnconditionalSe, ESTIMATOR_DESCRIPTION, type UnconditionalSeEstimator } from './unconditional-se.ts';
+import type { StatisticsIssue } from '../inference/issue.ts';
+
+export interface AveragingInput {
+  name: string;
+  weight: number;
+  /** Estimable coefficients by term (design column) label. */
+  coefficients: ReadonlyArray<{ term: string; estimate: number | null; standardError: number | null }>;
+  /** Per prediction row, when predictions were requested. */
+  predictions?: ReadonlyArray<{ estimate: number | null; standardError: number | null }>;
+}
+
+export interface AveragedTerm {
+  term: string;
+  importance: number;
+  /** Full average: zero where the term is absent. */
+  estimate: number;
+  unconditionalStandardError: number | null;
+  overModelsWithTerm: { estimate: number; unconditionalStandardError: number | null };
+}
+
+export interface AveragedPrediction {
+  estimate: number | null;
+  /** Unconditional standard error of the averaged mean response. */
+  standardError: number | null;
+}
+
+export interface ModelAverage {
+  models: string[];
+  estimator: UnconditionalSeEstimator;
+  estimatorDescription: string;
+  averages: { estimate: string; overModelsWithTerm: string };
+  terms: AveragedTerm[];
+  predictions: AveragedPrediction[];
+  issues: StatisticsIssue[];
+}
+
+export function averageModels(
+  models: readonly AveragingInput[],
+  estimator: UnconditionalSeEstimator = 'eq6.12',
+): ModelAverage {
+  const issues: StatisticsIssue[] = [];
+  const total = models.reduce((s, m) => s + (m.weight > 0 ? m.weight : 0), 0);
+  const result: ModelAverage = {
+    models: models.map((m) => m.name),
+    estimator,
+    estimatorDescription: ESTIMATOR_DESCRIPTION[estimator],
+    averages: {
+      estimate: 'over all averaged models, with the coefficient taken as zero where a model lacks the term',
+      overModelsWithTerm: 'over the models containing the term only, weights renormalised over them',
+    },
+    terms: [],
+    predictions: [],
+    issues,
+  };
+  if (!(total > 0) || models.some((m) => !(m.weight >= 0) || !Number.isFinite(m.weight))) {
+    issues.push({
+      code: 'averaging-weights-invalid',
+      message: 'Model averaging needs finite, non-negative weights with a positive sum.',
+      facts: { models: models.length, weightSum: Number.isFinite(total) ? total : null },
+    });
+    return result;
+  }
+  const order: string[] = [];
+  const present = new Map<string, Map<number, { estimate: number; standardError: number | null }>>();
+  models.forEach((m, index) => {
+    for (const c of m.coefficients) {
+      if (c.estimate === null) continue;
+      if (!present.has(c.term)) {
+        present.set(c.term, new Map());
+        order.push(c.term);
+      }
+      present.get(c.term)!.set(index, { estimate: c.estimate, standardError: c.standardError });
+    }
+  });
+  for (const term of order) {
+    const byModel = present.get(term)!;
+    const full = models.map((m, index) => {
+      const c = byModel.get(index);
+      return { weight: m.weight, estimate: c ? c.estimate : 0, standardError: c ? c.standardError : 0 };
+    });
+    const containing = [...byModel].map(([index, c]) => ({ weight: models[index].weight, ...c }));
+    const fullAverage = averageWithUnconditionalSe(full, estimator)!;
+    const importance = containing.reduce((s, c) => s + c.weight, 0) / total;
+    const conditional = averageWithUnconditionalSe(containing, estimator) ??
+      // All models containing the term have weight 0: no conditional average exists beyond the plain one.
+      { estimate: containing.reduce((s, c) => s + c.estimate, 0) / containing.length, unconditionalStandardError: null };
+    result.terms.push({
+      term,
+      importance,
+      estimate: fullAverage.estimate,
+      unconditionalStandardError: fullAverage.unconditionalStandardError,
+      overModelsWithTerm: conditional,
+    });
+  }
+  result.predictions = averagePredictions(models, estimator, issues);
+  return result;
+}
+
+function averagePredictions(
+  models: readonly AveragingInput[],
+  estimator: UnconditionalSeEstimator,
+  issues: StatisticsIssue[],
+): AveragedPrediction[] {
+  const rows = models[0]?.predictions?.length ?? 0;
+  if (rows === 0) return [];
+  if (models.some((m) => m.predictions?.length !== rows)) {
+    issues.push({
+      code: 'averaging-predictions-incomplete',
+      message: 'Not every averaged model has a prediction for every row, so predictions were not averaged.',
+      facts: { rows },
+    });
+    return [];
+  }
+  const out: AveragedPrediction[] = [];
+  for (let r = 0; r < rows; r++) {
+    const parts = models.map((m) => ({ weight: m.weight, ...m.predictions![r] }));
+    if (parts.some((p) => p.weight > 0 && p.estimate === null)) {
+      out.push({ estimate: null, standardError: null });
+      continue;
+    }
+    const avg = averageWithUnconditionalSe(parts.map((p) => ({ ...p, estimate: p.estimate ?? 0 })), estimator)!;
+    out.push({ estimate: avg.estimate, standardError: avg.unconditionalStandardError });
+  }
+  if (out.some((p) => p.estimate === null)) {
+    issues.push({
+      code: 'averaging-prediction-missing',
+      message: 'A model with positive weight could not predict some rows, so the averaged prediction there is null.',
+      facts: { rows: out.flatMap((p, r) => (p.estimate === null ? [r] : [])).join(', ') },
+    });
+  }
+  return out;
+}

@@ -1,0 +1,119 @@
+// One candidate fitted here: design -> least squares -> likelihood -> criteria,
+// with the cautions a reader needs to trust (or distrust) its numbers.
+import { fitLeastSquares } from '../fit/index.ts';
+import { gaussianLogLikelihood } from '../likelihood.ts';
+import { computeCriteria, type CriterionName } from '../criteria.ts';
+import type { DesignMatrix, LeastSquaresFit, Term } from '../types.ts';
+import type { Caution } from './cautions.ts';
+
+export interface FittedCandidateInput {
+  name: string;
+  terms: Term[];
+  intercept: boolean;
+}
+
+export interface ModelResult {
+  name: string;
+  source: 'fit';
+  intercept: boolean;
+  parameters: number;
+  observations: number;
+  logLikelihood: number | null;
+  aic: number | null;
+  aicc: number | null;
+  bic: number | null;
+  hqc: number | null;
+  rss: number | null;
+  r2: number | null;
+  adjustedR2: number | null;
+  r2Basis: 'centred' | 'uncentred';
+  sigma: number | null;
+  coefficients: { term: string; estimate: number | null; standardError: number | null }[];
+  aliased: string[];
+  conditionNumber: number | null;
+  cautions: Caution[];
+}
+
+const finiteOrNull = (x: number | null | undefined): number | null =>
+  typeof x === 'number' && Number.isFinite(x) ? x : null;
+
+export interface FittedModel {
+  result: ModelResult;
+  fit: LeastSquaresFit;
+  design: DesignMatrix;
+}
+
+export function fitCandidate(
+  candidate: FittedCandidateInput,
+  design: DesignMatrix,
+  y: Float64Array,
+  weights: { values: Float64Array; sumLogWeights: number } | null,
+): FittedModel {
+  const fit = fitLeastSquares(design, y, weights?.values);
+  const n = fit.observations;
+  const k = fit.rank + 1;
+  const cautions: Caution[] = [];
+  const logLikelihood = fit.exactFit
+    ? null
+    : gaussianLogLikelihood({ n, rss: fit.rss, sumLogWeights: weights?.sumLogWeights ?? 0 });
+  if (fit.exactFit) {
+    cautions.push({
+      code: 'exact_fit',
+      message:
+        'The model reproduces the response exactly (residuals at rounding level), so its Gaussian log-likelihood is unbounded; logLikelihood, AIC, AICc, BIC and HQC are null. Coefficients are still reported.',
+    });
+  }
+  const criteria = computeCriteria({
+    logLikelihood,
+    parameters: k,
+    observations: n,
+    rss: fit.rss,
+    tss: fit.tss,
+    coefficientsIncludingIntercept: fit.rank,
+    intercept: design.intercept,
+  });
+  for (const c of criteria.cautions) {
+    // The exact-fit caution above already explains every null it would explain.
+    if (fit.exactFit && c.code.startsWith('likelihood_undefined')) continue;
+    cautions.push({ code: c.code, message: c.message });
+  }
+  if (fit.aliased.length > 0) {
+    cautions.push({
+      code: 'aliased_columns',
+      message: `${fit.aliased.map((l: string) => JSON.stringify(l)).join(', ')} ${fit.aliased.length === 1 ? 'is a linear combination' : 'are linear combinations'} of earlier columns and cannot be estimated; ${fit.aliased.length === 1 ? 'its estimate is' : 'their estimates are'} null and the parameter count k = ${k} counts only the estimable coefficients plus the error variance.`,
+    });
+  }
+  if (!design.intercept) {
+    cautions.push({
+      code: 'uncentred_r2',
+      message: 'This model has no intercept, so R² and adjusted R² are uncentred (the total sum of squares is taken about zero) and are not comparable with the R² of models that have one.',
+    });
+  }
+  const pick = (c: CriterionName) => finiteOrNull(criteria[c]);
+  const result: ModelResult = {
+    name: candidate.name,
+    source: 'fit',
+    intercept: design.intercept,
+    parameters: k,
+    observations: n,
+    logLikelihood: finiteOrNull(logLikelihood),
+    aic: pick('aic'),
+    aicc: pick('aicc'),
+    bic: pick('bic'),
+    hqc: pick('hqc'),
+    rss: finiteOrNull(fit.rss),
+    r2: finiteOrNull(criteria.r2),
+    adjustedR2: pick('adjustedR2'),
+    r2Basis: criteria.r2Basis,
+    sigma: finiteOrNull(fit.sigma),
+    coefficients: design.labels.map((term, j) => ({
+      term,
+      estimate: finiteOrNull(fit.coefficients[j]),
+      standardError: finiteOrNull(fit.standardErrors[j]),
+    })),
+    aliased: fit.aliased,
+    conditionNumber: finiteOrNull(fit.conditionNumber),
+    cautions,
+  };
+  return { result, fit, design };
+}

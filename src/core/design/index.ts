@@ -1,0 +1,8 @@
+// The design module's public face: columns and common rows, term validation
+// and design matrices, response and weights on the common rows.
+export { checkColumns, columnKind, columnsUsedBy, commonRows, type ColumnKind } from './columns.ts';
+export { buildDesign } from './build-design.ts';
+export { factorCoding, factorLevels, type FactorCoding, type FactorDummy } from './factor-coding.ts';
+export { INTERCEPT_LABEL, termLabel } from './labels.ts';
+export { responseValues, weightValues } from './response.ts';
+export { compareCodePoints } from './code-point-order.ts';

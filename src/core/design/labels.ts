@@ -1,0 +1,46 @@
+// The readable names of design columns and of terms. One place, so that a
+// label in a response, a chart and an audit record is always spelled alike.
+
+import type { Term } from '../types.ts';
+
+export const INTERCEPT_LABEL = '(intercept)';
+
+export function powerLabel(column: string, degree: number): string {
+  return `${column}^${degree}`;
+}
+
+export function transformLabel(fn: 'log' | 'sqrt' | 'reciprocal', column: string): string {
+  return fn === 'reciprocal' ? `1/${column}` : `${fn}(${column})`;
+}
+
+/** A dummy of a factor: "kiln[west]" is 1 where kiln is "west". */
+export function dummyLabel(column: string, level: string): string {
+  return `${column}[${level}]`;
+}
+
+/** The parts of a product column, already labelled, joined as "peakTemp:kiln[west]". */
+export function productLabel(parts: readonly string[]): string {
+  return parts.join(':');
+}
+
+/**
+ * A term described back in a compact form of the request's own: "peakTemp",
+ * "peakTemp^2", "peakTemp:holdMinutes", "log(moisture)", "1/x",
+ * "factor(kiln)", "factor(kiln, reference=west)". Stable, so it can key a term
+ * across candidates (importance in a search, averaged coefficients).
+ */
+export function termLabel(term: Term): string {
+  if (typeof term === 'string') return term;
+  switch (term.kind) {
+    case 'power':
+      return powerLabel(term.of, term.degree);
+    case 'product':
+      return productLabel(term.of);
+    case 'transform':
+      return transformLabel(term.fn, term.of);
+    case 'factor':
+      return term.reference === undefined ? `factor(${term.of})` : `factor(${term.of}, reference=${term.reference})`;
+    default:
+      return JSON.stringify(term);
+  }
+}

@@ -1,0 +1,113 @@
+// Assumption checks of one least-squares fit: residual normality,
+// heteroscedasticity, autocorrelation, multicollinearity and influence.
+import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
+import { leverages as leveragesOf } from '../loo.ts';
+import { diagnosticCautions } from './cautions.ts';
+import { scaledConditionNumber, varianceInflationFactors } from './collinearity.ts';
+import { cooksDistances } from './influence.ts';
+import { breuschPaganKoenker, durbinWatson, jarqueBera } from './residual-tests.ts';
+import { DIAGNOSTIC_THRESHOLDS as T } from './thresholds.ts';
+import type { ModelDiagnostics } from './types.ts';
+
+export type { ModelDiagnostics } from './types.ts';
+export { DIAGNOSTIC_THRESHOLDS } from './thresholds.ts';
+export { diagnosticCautions } from './cautions.ts';
+export { jarqueBera, breuschPaganKoenker, durbinWatson } from './residual-tests.ts';
+export { varianceInflationFactors, scaledConditionNumber } from './collinearity.ts';
+export { cooksDistances } from './influence.ts';
+
+const NORMALITY_NOTE = 'Jarque–Bera compares the residuals\' skewness and kurtosis with a normal distribution; its chi-square p-value is a large-sample approximation and is lenient below about 30 rows.';
+const TIME_ORDER_NOTE = 'Durbin–Watson is meaningful only when the row order is time (or another sequence) order; otherwise ignore it.';
+
+function column(design: DesignMatrix, j: number): Float64Array {
+  return design.high[j].map((x, i) => x + design.low[j][i]);
+}
+
+export function diagnoseFit(
+  fit: LeastSquaresFit,
+  design: DesignMatrix,
+  weights?: ArrayLike<number>,
+): ModelDiagnostics {
+  const n = fit.observations;
+  const p = fit.rank;
+  const estimableColumns = fit.estimable.map((j) => column(design, j));
+  const slopeIndices = fit.estimable.filter((j) => design.termOfColumn[j] !== -1);
+  const slopeColumns = slopeIndices.map((j) => column(design, j));
+  const leverageThreshold = (T.leverageMultiple * p) / n;
+
+  const vifs = varianceInflationFactors(slopeColumns, weights);
+  const conditionNumber = scaledConditionNumber(estimableColumns, weights);
+  const finiteVifs = vifs.filter((v): v is number => v !== null);
+  // A null VIF on a column that varies means exact collinearity once centred
+  // (possible only without an intercept): inflation without bound.
+  const unbounded = vifs.some((v, k) => v === null && !slopeColumns[k].every((x) => x === slopeColumns[k][0]));
+  const maxVif = unbounded || finiteVifs.length === 0 ? null : Math.max(...finiteVifs);
+  const notes: string[] = [];
+  if (!design.intercept) notes.push('The model has no intercept; the variance inflation factors are computed on centred columns all the same.');
+  if (unbounded) notes.push('Once centred, some columns are exactly collinear, so their variance inflation is unbounded.');
+  const multicollinearity = {
+    varianceInflationFactors: slopeIndices.map((j, k) => ({ term: design.labels[j], vif: vifs[k] })),
+    maxVarianceInflation: maxVif,
+    varianceInflationThreshold: T.varianceInflation,
+    conditionNumber,
+    conditionNumberThreshold: T.conditionNumber,
+    passed: conditionNumber === null
+      ? null
+      : !unbounded && (maxVif === null || maxVif <= T.varianceInflation) && conditionNumber <= T.conditionNumber,
+    note: notes.length ? notes.join(' ') : null,
+  };
+
+  const residualsUsable = fit.sigma !== null && !fit.exactFit && n > p;
+  if (!residualsUsable) {
+    const reason = fit.exactFit
+      ? 'The model fits the data exactly, so its residuals carry no information about the errors.'
+      : 'The model leaves no residual degrees of freedom, so the residual checks cannot be made.';
+    const partial = {
+      available: false,
+      reason,
+      residualNormality: { test: 'Jarque–Bera' as const, statistic: null, df: 2 as const, pValue: null, skewness: null, kurtosis: null, alpha: T.alpha, passed: null, note: NORMALITY_NOTE },
+      heteroscedasticity: { test: 'Breusch–Pagan (studentised, Koenker)' as const, statistic: null, df: null, pValue: null, alpha: T.alpha, passed: null, note: reason },
+      autocorrelation: { test: 'Durbin–Watson' as const, statistic: null, acceptableRange: T.durbinWatsonRange, passed: null, note: TIME_ORDER_NOTE },
+      multicollinearity,
+      influence: { maxCooksDistance: null, maxCooksDistanceRow: null, cooksDistanceThreshold: T.cooksDistance, leverageThreshold, highLeverageRows: 0, highLeverageRowIndices: [], passed: null },
+    };
+    return { ...partial, cautions: diagnosticCautions(partial) };
+  }
+
+  const standardised = fit.residuals.map((e, i) => Math.sqrt(weights ? weights[i] : 1) * e);
+  const jb = jarqueBera(standardised);
+  const bp = breuschPaganKoenker(standardised, slopeColumns);
+  const dw = durbinWatson(standardised);
+  const h = leveragesOf(fit, design, weights);
+  const cooks = cooksDistances(fit.residuals, h, p, fit.sigma as number, weights);
+  let maxCooks: number | null = null;
+  let maxCooksRow: number | null = null;
+  cooks.forEach((d, i) => {
+    if (d !== null && (maxCooks === null || d > maxCooks)) { maxCooks = d; maxCooksRow = i; }
+  });
+  const highLeverageRowIndices: number[] = [];
+  h.forEach((x, i) => { if (x > leverageThreshold) highLeverageRowIndices.push(i); });
+
+  const partial = {
+    available: true,
+    reason: null,
+    residualNormality: { test: 'Jarque–Bera' as const, ...jb, alpha: T.alpha, passed: jb.pValue >= T.alpha, note: NORMALITY_NOTE },
+    heteroscedasticity: {
+      test: 'Breusch–Pagan (studentised, Koenker)' as const,
+      statistic: bp.df > 0 ? bp.statistic : null, df: bp.df, pValue: bp.pValue, alpha: T.alpha,
+      passed: bp.pValue === null ? null : bp.pValue >= T.alpha,
+      note: bp.df > 0 ? null : 'The model has no regressors besides the constant, so there is nothing for the variance to depend on.',
+    },
+    autocorrelation: {
+      test: 'Durbin–Watson' as const, statistic: dw, acceptableRange: T.durbinWatsonRange,
+      passed: dw >= T.durbinWatsonRange[0] && dw <= T.durbinWatsonRange[1], note: TIME_ORDER_NOTE,
+    },
+    multicollinearity,
+    influence: {
+      maxCooksDistance: maxCooks, maxCooksDistanceRow: maxCooksRow, cooksDistanceThreshold: T.cooksDistance,
+      leverageThreshold, highLeverageRows: highLeverageRowIndices.length, highLeverageRowIndices,
+      passed: (maxCooks === null || maxCooks <= T.cooksDistance) && highLeverageRowIndices.length === 0,
+    },
+  };
+  return { ...partial, cautions: diagnosticCautions(partial) };
+}

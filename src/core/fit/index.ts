@@ -1,0 +1,174 @@
+// Weighted linear least squares for one candidate design.
+//
+// Pipeline: equilibrate (weights as row scaling, centring against the intercept,
+// power-of-two column scaling) -> Householder QR with limited pivoting (rank and
+// aliasing in the caller's column order) -> iterative refinement of the augmented
+// system with double-double residuals -> covariance -> exact map back to the
+// caller's basis. Pure: never throws on numerical input; degenerate inputs give a
+// fit with rank 0, sigma null or exactFit true, for the caller to judge.
+
+import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
+import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, type DD } from '../numeric/double-double.ts';
+import { equilibrate } from './equilibration.ts';
+import { householderQR } from './householder-qr.ts';
+import { MAX_REFINEMENT_STEPS, refineLeastSquares } from './refinement.ts';
+import { equilibratedCovariance } from './covariance.ts';
+import { mapCoefficients, mapCovariance } from './basis-map.ts';
+import { conditionFromR } from './condition.ts';
+import { isExactFit } from './exact-fit.ts';
+
+/**
+ * Relative remaining-norm threshold for aliasing. NIST Filip's smallest relative
+ * remaining norm after centring is ~6e-8 and must stay full rank; exactly
+ * collinear columns (dummies plus intercept, x and 2x, degrees C and K) leave
+ * ~1e-15. 1e-10 sits between them with a margin of ~1e3 on the Filip side and
+ * ~1e5 on the collinear side.
+ */
+export const ALIAS_TOLERANCE = 1e-10;
+
+export interface FitOptions {
+  /** Relative remaining-norm threshold below which a column is aliased (default 1e-10). */
+  aliasTolerance?: number;
+  /** Refinement steps after the initial QR solve (default 10; 0 gives the plain equilibrated QR). */
+  maxRefinementSteps?: number;
+}
+
+export { ALIAS_TOLERANCE as DEFAULT_ALIAS_TOLERANCE, MAX_REFINEMENT_STEPS };
+
+export function fitLeastSquares(
+  design: DesignMatrix,
+  y: Float64Array,
+  weights?: Float64Array,
+  options: FitOptions = {},
+): LeastSquaresFit {
+  const tolerance = options.aliasTolerance ?? ALIAS_TOLERANCE;
+  const maxSteps = options.maxRefinementSteps ?? MAX_REFINEMENT_STEPS;
+  const n = design.rows;
+  const p = design.labels.length;
+  const eq = equilibrate(design, y, weights, tolerance);
+
+  // Factorisation order: the intercept first (centring already projected it out of
+  // the others), then the caller's order; columns the intercept explains are aliased.
+  const candidates: number[] = [];
+  if (eq.interceptColumn >= 0) candidates.push(eq.interceptColumn);
+  for (let j = 0; j < p; j++) {
+    if (j !== eq.interceptColumn && !eq.aliasedByIntercept[j]) candidates.push(j);
+  }
+  const qr = householderQR(eq.ah, n, candidates, eq.norm, tolerance);
+  const columns = qr.order.slice(0, qr.rank).map((c) => candidates[c]);
+  const accepted = new Set(columns);
+
+  const sol = refineLeastSquares(qr, eq.ah, eq.al, columns, eq.bh, eq.bl, maxSteps);
+  const beta = mapCoefficients(eq, columns, sol.xh, sol.xl);
+
+  // Residuals e = y - X beta: from the refined weighted residual where the weight
+  // is positive (e = r / (c sqrt(w))), directly in double-double elsewhere.
+  const c = eq.responseScale;
+  const residuals = new Float64Array(n);
+  const fitted = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    let e: DD;
+    const positive = eq.sh ? eq.sh[i] > 0 : true;
+    if (positive) {
+      e = eq.sh
+        ? ddDiv(sol.rh[i] / c, sol.rl[i] / c, eq.sh[i], eq.sl![i])
+        : [sol.rh[i] / c, sol.rl[i] / c];
+    } else {
+      e = [y[i], 0];
+      for (const [j, [bh, bl]] of beta) {
+        const [ph, pl] = ddMul(design.high[j][i], design.low[j][i], bh, bl);
+        e = ddSub(e[0], e[1], ph, pl);
+      }
+    }
+    residuals[i] = e[0];
+    fitted[i] = ddSub(y[i], 0, e[0], e[1])[0];
+  }
+
+  // rss = ||r||^2 / c^2 and tss, both in double-double.
+  let rssDD: DD = [0, 0];
+  for (let i = 0; i < n; i++) {
+    const [ph, pl] = ddMul(sol.rh[i], sol.rl[i], sol.rh[i], sol.rl[i]);
+    rssDD = ddAdd(rssDD[0], rssDD[1], ph, pl);
+  }
+  const rss = rssDD[0] / (c * c);
+  const tss = totalSumOfSquares(design.intercept, y, weights, eq.weightTotal);
+  const dof = eq.positiveRows - qr.rank;
+  const sigma = dof > 0 ? Math.sqrt(rss / dof) : null;
+
+  const conditionNumber = conditionFromR(qr);
+  const { covariance: covEq } = equilibratedCovariance(qr, eq.ah, eq.al, columns, conditionNumber);
+  const { estimable, covariance } = mapCovariance(eq, columns, covEq);
+
+  const coefficients: (number | null)[] = [];
+  const standardErrors: (number | null)[] = [];
+  const aliased: string[] = [];
+  for (let j = 0; j < p; j++) {
+    if (!accepted.has(j)) {
+      coefficients.push(null);
+      standardErrors.push(null);
+      aliased.push(design.labels[j]);
+      continue;
+    }
+    coefficients.push(beta.get(j)![0]);
+    const v = covariance[estimable.indexOf(j)][estimable.indexOf(j)];
+    standardErrors.push(sigma === null || sigma === 0 ? null : sigma * Math.sqrt(v));
+  }
+
+  let bNorm = 0;
+  for (let i = 0; i < n; i++) bNorm += eq.bh[i] * eq.bh[i];
+  const exactFit = isExactFit(Math.sqrt(rssDD[0]), Math.sqrt(bNorm));
+
+  return {
+    observations: eq.positiveRows,
+    rank: qr.rank,
+    coefficients,
+    standardErrors,
+    aliased,
+    unscaledCovariance: covariance,
+    estimable,
+    residuals,
+    fitted,
+    rss,
+    tss,
+    sigma,
+    exactFit,
+    conditionNumber,
+    refinement: { steps: sol.steps, lastCorrection: sol.lastCorrection },
+  };
+}
+
+/** sum w (y - ybar_w)^2 with an intercept, sum w y^2 without; double-double. */
+function totalSumOfSquares(
+  intercept: boolean,
+  y: Float64Array,
+  weights: Float64Array | undefined,
+  weightTotal: number,
+): number {
+  const n = y.length;
+  const w = (i: number) => {
+    if (!weights) return 1;
+    const v = weights[i];
+    return v > 0 && Number.isFinite(v) ? v : 0;
+  };
+  let mean: DD = [0, 0];
+  if (intercept && weightTotal > 0) {
+    let s: DD = [0, 0];
+    let total: DD = [0, 0];
+    for (let i = 0; i < n; i++) {
+      const [ph, pl] = ddMulDouble(y[i], 0, w(i));
+      s = ddAdd(s[0], s[1], ph, pl);
+      total = ddAdd(total[0], total[1], w(i), 0);
+    }
+    mean = ddDiv(s[0], s[1], total[0], total[1]);
+  }
+  let t: DD = [0, 0];
+  for (let i = 0; i < n; i++) {
+    const wi = w(i);
+    if (wi === 0) continue;
+    const [dh, dl] = ddSub(y[i], 0, mean[0], mean[1]);
+    const [qh, ql] = ddMul(dh, dl, dh, dl);
+    const [ph, pl] = ddMulDouble(qh, ql, wi);
+    t = ddAdd(t[0], t[1], ph, pl);
+  }
+  return t[0];
+}

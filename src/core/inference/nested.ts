@@ -1,0 +1,159 @@
+// Tests between nested least-squares candidates: the partial F test and the
+// likelihood-ratio test. Two fitted candidates are nested when every design
+// column label of the smaller one is also a column of the larger one, and
+// both were fitted to the same sample (same response on the same scale, same
+// weights, same rows). Labels name columns built from the same data by the
+// same design builder, so equal labels are equal columns; a subset of
+// labels means the smaller column space lies inside the larger one.
+//
+// Degrees of freedom come from ranks, not column counts, so aliased columns
+// do not inflate them: df = rank(larger) - rank(smaller). df = 0 means both
+// span the same space; that pair is not tested.
+import type { LeastSquaresFit } from '../types.ts';
+import { chiSquareUpperTail, fUpperTail } from './distributions.ts';
+import type { StatisticsIssue } from './issue.ts';
+
+export interface NestedCandidate {
+  name: string;
+  /** Design column labels, in design order (aliased ones included). */
+  labels: readonly string[];
+  fit: LeastSquaresFit;
+  /**
+   * Identity of the sample the candidate was fitted to: response and its
+   * transform, weights column and rows. Equal strings mean the same sample.
+   */
+  sample: string;
+}
+
+export interface NestedTest {
+  smaller: string;
+  larger: string;
+  /** Numerator degrees of freedom of F, and the chi-square degrees of freedom: rank difference. */
+  df: number;
+  /** Denominator degrees of freedom of F: the larger model's residual df, n - rank(larger). */
+  residualDf: number;
+  fStatistic: number | null;
+  fPValue: number | null;
+  lrStatistic: number | null;
+  lrPValue: number | null;
+  /** Why statistics are null, in plain words; null when all are present. */
+  reason: string | null;
+}
+
+export interface NestedPairRequest {
+  smaller: string;
+  larger: string;
+}
+
+function isLabelSubset(small: readonly string[], large: readonly string[]): boolean {
+  const present = new Set(large);
+  return small.every((label) => present.has(label));
+}
+
+/** Orientation of a nested pair, or null when the two are not nested (df = 0 included). */
+export function nestingOrder(
+  a: NestedCandidate,
+  b: NestedCandidate,
+): { smaller: NestedCandidate; larger: NestedCandidate } | null {
+  if (a.sample !== b.sample || a.fit.observations !== b.fit.observations) return null;
+  if (a.fit.rank < b.fit.rank && isLabelSubset(a.labels, b.labels)) return { smaller: a, larger: b };
+  if (b.fit.rank < a.fit.rank && isLabelSubset(b.labels, a.labels)) return { smaller: b, larger: a };
+  return null;
+}
+
+/**
+ * Partial F = ((RSS_s - RSS_l) / df) / (RSS_l / (n - rank_l)), on (df, n - rank_l).
+ * LR = 2 (logL_l - logL_s) = n ln(RSS_s / RSS_l) under the Gaussian
+ * convention of the contract (the weight and Jacobian terms of logL are equal
+ * for both models and cancel), referred to chi-square(df).
+ * The caller guarantees the pair is nested (see nestingOrder).
+ */
+export function nestedTest(smaller: NestedCandidate, larger: NestedCandidate): NestedTest {
+  const n = larger.fit.observations;
+  const df = larger.fit.rank - smaller.fit.rank;
+  const residualDf = n - larger.fit.rank;
+  const base = { smaller: smaller.name, larger: larger.name, df, residualDf };
+  if (larger.fit.exactFit || !(larger.fit.rss > 0)) {
+    return {
+      ...base, fStatistic: null, fPValue: null, lrStatistic: null, lrPValue: null,
+      reason: `"${larger.name}" fits the data exactly (residuals at rounding level), so there is no residual variance to test against.`,
+    };
+  }
+  // Rounding can leave the smaller RSS a hair below the larger one; the true
+  // difference of nested fits is >= 0.
+  const reduction = Math.max(0, smaller.fit.rss - larger.fit.rss);
+  const lrStatistic = n * Math.log1p(reduction / larger.fit.rss);
+  const lrPValue = chiSquareUpperTail(lrStatistic, df);
+  if (residualDf <= 0) {
+    return {
+      ...base, fStatistic: null, fPValue: null, lrStatistic, lrPValue,
+      reason: `"${larger.name}" leaves no residual degrees of freedom, so the F test is undefined.`,
+    };
+  }
+  const fStatistic = (reduction / df) / (larger.fit.rss / residualDf);
+  return { ...base, fStatistic, fPValue: fUpperTail(fStatistic, df, residualDf), lrStatistic, lrPValue, reason: null };
+}
+
+/**
+ * Every nested pair among the candidates (in candidate order of the smaller,
+ * then the larger), plus the pairs a request names. A named pair that is not
+ * nested, or names an unknown candidate, becomes an issue; a named pair that
+ * is also found automatically is reported once.
+ */
+export function nestedTests(
+  candidates: readonly NestedCandidate[],
+  requested: readonly NestedPairRequest[] = [],
+): { tests: NestedTest[]; issues: StatisticsIssue[] } {
+  const tests: NestedTest[] = [];
+  const issues: StatisticsIssue[] = [];
+  const seen = new Set<string>();
+  const add = (order: { smaller: NestedCandidate; larger: NestedCandidate }) => {
+    const key = JSON.stringify([order.smaller.name, order.larger.name]);
+    if (seen.has(key)) return;
+    seen.add(key);
+    tests.push(nestedTest(order.smaller, order.larger));
+  };
+  for (let i = 0; i < candidates.length; i++) {
+    for (let j = i + 1; j < candidates.length; j++) {
+      const order = nestingOrder(candidates[i], candidates[j]);
+      if (order) add(order);
+    }
+  }
+  const byName = new Map(candidates.map((c) => [c.name, c]));
+  for (const pair of requested) {
+    const a = byName.get(pair.smaller);
+    const b = byName.get(pair.larger);
+    if (!a || !b) {
+      issues.push({
+        code: 'nested-test-unknown-candidate',
+        message: 'A requested nested test names a candidate that was not fitted by the service.',
+        facts: { smaller: pair.smaller, larger: pair.larger, missing: !a ? pair.smaller : pair.larger },
+      });
+      continue;
+    }
+    const order = nestingOrder(a, b);
+    if (!order) {
+      issues.push({
+        code: 'nested-test-not-nested',
+        message: notNestedReason(a, b),
+        facts: { smaller: pair.smaller, larger: pair.larger, smallerRank: a.fit.rank, largerRank: b.fit.rank },
+      });
+      continue;
+    }
+    add(order);
+  }
+  return { tests, issues };
+}
+
+function notNestedReason(a: NestedCandidate, b: NestedCandidate): string {
+  if (a.sample !== b.sample || a.fit.observations !== b.fit.observations) {
+    return `"${a.name}" and "${b.name}" were not fitted to the same response, weights and rows, so they cannot be tested against each other.`;
+  }
+  if (a.fit.rank === b.fit.rank && isLabelSubset(a.labels, b.labels) && isLabelSubset(b.labels, a.labels)) {
+    return `"${a.name}" and "${b.name}" have the same columns; there is nothing to test.`;
+  }
+  if (a.fit.rank === b.fit.rank) {
+    return `"${a.name}" and "${b.name}" estimate the same number of coefficients, so neither is nested in the other (after aliased columns are set aside).`;
+  }
+  return `Neither of "${a.name}" and "${b.name}" has all its columns inside the other's, so they are not nested.`;
+}

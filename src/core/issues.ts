@@ -1,0 +1,113 @@
+// What can go wrong with a request, as data. The core never throws for
+// anything a caller sent: it returns issues, each a code, a path into the
+// request (e.g. ['candidates', 2, 'terms', 0]) and the facts behind it. The
+// HTTP layer maps every issue to a 422 problem detail; the message is a plain
+// sentence that names the field, written here once so all callers read the
+// same words.
+
+export type IssuePath = (string | number)[];
+
+/** The facts each issue code carries, besides its path and message. */
+export interface IssueFacts {
+  no_candidates: Record<string, never>;
+  duplicate_name: { name: string; first: number };
+  unknown_column: { column: string };
+  column_length_mismatch: { column: string; length: number; expected: number };
+  column_mixed_types: { column: string; row: number };
+  value_not_finite: { column: string; row: number };
+  /** A used row holds null although common rows should have dropped it. */
+  value_missing: { column: string; row: number };
+  response_not_numeric: { column: string; row: number; value: string };
+  response_constant: { column: string; value: number; rows: number };
+  weights_not_numeric: { column: string; row: number; value: string };
+  weights_not_positive: { column: string; row: number; value: number | null };
+  term_form_unknown: Record<string, never>;
+  term_not_numeric: { column: string; form: 'power' | 'transform' };
+  power_degree_invalid: { column: string; degree: number };
+  product_of_one_column: { columns: string[] };
+  product_repeated_column: { column: string };
+  factor_level_unknown: { column: string; level: string; levels: string[] };
+  factor_one_level: { column: string; levels: string[] };
+  factor_reference_conflict: { column: string; references: [string, string] };
+  transform_domain: { column: string; fn: 'log' | 'sqrt' | 'reciprocal'; row: number; value: number };
+  design_value_not_finite: { label: string; row: number };
+  duplicate_term: { label: string; first: number };
+  all_rows_dropped: { rows: number; dropped: number };
+  too_few_rows: { rows: number; parameters: number };
+  observations_mismatch: { observations: number; expected: number };
+  work_limit: { cells: number; limit: number; setting: string };
+}
+
+export type IssueCode = keyof IssueFacts;
+
+export type Issue = {
+  [C in IssueCode]: { code: C; path: IssuePath; message: string } & IssueFacts[C];
+}[IssueCode];
+
+/** The path as the problem-details `errors[].path` form: "candidates/2/terms/0". */
+export function issuePointer(path: IssuePath): string {
+  return path.map(String).join('/');
+}
+
+const DOMAIN_RULE = { log: 'greater than 0', sqrt: '0 or more', reciprocal: 'not 0' } as const;
+
+function quoteList(values: string[]): string {
+  return values.map((v) => JSON.stringify(v)).join(', ');
+}
+
+const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } = {
+  no_candidates: (_f, at) => `${at} lists no candidate models; give at least one.`,
+  duplicate_name: (f, at) =>
+    `${at} repeats the name ${JSON.stringify(f.name)} already used by candidate ${f.first}; names must be unique.`,
+  unknown_column: (f, at) => `${at} refers to column ${JSON.stringify(f.column)}, which the data does not have.`,
+  column_length_mismatch: (f, at) =>
+    `${at} has ${f.length} values but the other columns have ${f.expected}; all columns must be the same length.`,
+  column_mixed_types: (f, at) =>
+    `${at} mixes numbers and strings (first at row ${f.row}); a column is either numeric or categorical.`,
+  value_not_finite: (f, at) => `${at} holds a value at row ${f.row} that is not a finite number.`,
+  value_missing: (f, at) => `${at} is missing a value at row ${f.row}, a row the comparison uses.`,
+  response_not_numeric: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; the response must be numeric.`,
+  response_constant: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, which is constant (${f.value}) on all ${f.rows} rows used; there is nothing to explain.`,
+  weights_not_numeric: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; weights must be numbers.`,
+  weights_not_positive: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, whose value at row ${f.row} is ${f.value === null ? 'missing' : f.value}; weights must be positive.`,
+  term_form_unknown: (_f, at) => `${at} is not one of the term forms: a column name, power, product, transform or factor.`,
+  term_not_numeric: (f, at) =>
+    `${at} takes a ${f.form} of column ${JSON.stringify(f.column)}, which is categorical; a ${f.form} needs a numeric column.`,
+  power_degree_invalid: (f, at) =>
+    `${at} asks for degree ${f.degree} of column ${JSON.stringify(f.column)}; the degree must be an integer of 2 or more.`,
+  product_of_one_column: (f, at) =>
+    `${at} is a product of ${f.columns.length === 0 ? 'no columns' : `one column (${quoteList(f.columns)})`}; a product needs two or more different columns.`,
+  product_repeated_column: (f, at) =>
+    `${at} repeats column ${JSON.stringify(f.column)} in a product; use a power term for a column times itself.`,
+  factor_level_unknown: (f, at) =>
+    `${at} names reference level ${JSON.stringify(f.level)} of column ${JSON.stringify(f.column)}, which is not among the levels on the rows used (${quoteList(f.levels)}).`,
+  factor_one_level: (f, at) =>
+    `${at} uses column ${JSON.stringify(f.column)} as a factor, but the rows used hold ${f.levels.length === 0 ? 'no level' : `only the level ${quoteList(f.levels)}`}; a factor needs two or more levels.`,
+  factor_reference_conflict: (f, at) =>
+    `${at} sets reference level ${JSON.stringify(f.references[1])} for column ${JSON.stringify(f.column)}, but the same candidate already set ${JSON.stringify(f.references[0])}.`,
+  transform_domain: (f, at) =>
+    `${at} takes ${f.fn} of column ${JSON.stringify(f.column)}, whose value at row ${f.row} is ${f.value}; ${f.fn} needs values ${DOMAIN_RULE[f.fn]}.`,
+  design_value_not_finite: (f, at) =>
+    `${at} gives design column ${JSON.stringify(f.label)} a value at row ${f.row} too large for a double.`,
+  duplicate_term: (f, at) =>
+    `${at} produces design column ${JSON.stringify(f.label)}, which term ${f.first} of the same candidate already produces.`,
+  all_rows_dropped: (f, at) =>
+    `${at}: every one of the ${f.rows} rows has a missing value in a column some candidate uses, so no rows are left.`,
+  too_few_rows: (f, at) =>
+    `${at} has ${f.parameters} coefficients to estimate from ${f.rows} rows; a model needs at least as many rows as coefficients (and more for any criterion to exist).`,
+  observations_mismatch: (f, at) =>
+    `${at} states ${f.observations} observations, but the comparison uses ${f.expected} rows; models must be compared on the same rows.`,
+  work_limit: (f, at) =>
+    `${at} asks for ${f.cells} design cells (rows × design columns, summed over candidates), above the limit of ${f.limit} (${f.setting}); send fewer candidates or rows, or a data summary.`,
+};
+
+/** Makes an issue with its standard message. */
+export function issue<C extends IssueCode>(code: C, path: IssuePath, facts: IssueFacts[C]): Issue {
+  const at = path.length === 0 ? 'The request' : issuePointer(path);
+  const message = (MESSAGES[code] as (f: IssueFacts[C], at: string) => string)(facts, at);
+  return { code, path, message, ...facts } as Issue;
+}

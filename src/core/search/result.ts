@@ -1,0 +1,70 @@
+// Joining the partial results of a search (one per range or subtree) into
+// the answer: the best models with delta and Akaike weight over every
+// evaluated subset, and each term's importance (summed weight of the
+// evaluated subsets that hold it).
+
+import { mergeTopModels } from './top-models.ts';
+import type { ScoredSubset, SearchPartial, SearchSettings } from './types.ts';
+import { mergeWeightSums } from './weight-sums.ts';
+
+export type SearchMethod = 'exhaustive' | 'branchAndBound';
+
+export interface RankedSubset extends ScoredSubset {
+  delta: number;
+  weight: number;
+}
+
+export interface SearchOutcome {
+  method: SearchMethod;
+  criterion: SearchSettings['criterion'];
+  /** Subsets scored; weights and importance are over exactly these. */
+  evaluated: number;
+  /** All 2^m subsets of the pool. */
+  subsets: number;
+  /** True when weights and importance cover every admissible subset (no pruning). */
+  weightsCoverAllSubsets: boolean;
+  notHierarchical: number;
+  unscorable: number;
+  rankDeficient: number;
+  exactFits: number;
+  pruned: number;
+  nodes: number;
+  stopped: boolean;
+  models: RankedSubset[];
+  /** Per pool term (index order). */
+  importance: { term: number; weight: number }[];
+}
+
+export function finishSearch(method: SearchMethod, settings: SearchSettings, poolSize: number, partials: readonly SearchPartial[]): SearchOutcome {
+  const sum = (f: (p: SearchPartial) => number) => partials.reduce((s, p) => s + f(p), 0);
+  const sums = mergeWeightSums(
+    partials.map((p) => p.sums),
+    poolSize,
+  );
+  const top = mergeTopModels(
+    partials.map((p) => p.top),
+    settings.top,
+  );
+  const models = top.map((s) => {
+    const delta = s.value - sums.min;
+    return { ...s, delta, weight: Math.exp(-delta / 2) / sums.total };
+  });
+  const pruned = sum((p) => p.pruned);
+  const stopped = partials.some((p) => p.stopped);
+  return {
+    method,
+    criterion: settings.criterion,
+    evaluated: sum((p) => p.evaluated),
+    subsets: 2 ** poolSize,
+    weightsCoverAllSubsets: pruned === 0 && !stopped,
+    notHierarchical: sum((p) => p.notHierarchical),
+    unscorable: sum((p) => p.unscorable),
+    rankDeficient: sum((p) => p.rankDeficient),
+    exactFits: sum((p) => p.exactFits),
+    pruned,
+    nodes: sum((p) => p.nodes),
+    stopped,
+    models,
+    importance: sums.perTerm.map((w, term) => ({ term, weight: sums.total > 0 ? w / sums.total : 0 })),
+  };
+}

@@ -1,0 +1,76 @@
+// The shapes the subset-search kernel trades in. Everything here is plain
+// data (typed arrays, numbers, arrays) so it crosses a worker boundary by
+// structured clone unchanged.
+
+export type SearchCriterion = 'aic' | 'aicc' | 'bic' | 'hqc';
+
+/**
+ * One search, reduced to what scoring needs. `crossProducts` is the d-by-d
+ * row-major matrix over the design columns of the pool and always terms
+ * followed by the response (last row and column): centred sums of products
+ * for a model with intercept, raw (uncentred) sums without one.
+ */
+export interface SubsetProblem {
+  observations: number;
+  /** sum(ln w) for weighted least squares, 0 without weights. */
+  logWeightSum: number;
+  intercept: boolean;
+  dimension: number;
+  crossProducts: Float64Array;
+  /** Design columns (indices below dimension - 1) of each pool term; a factor is a block of several. */
+  poolBlocks: number[][];
+  /** Design columns of the always terms. */
+  alwaysColumns: number[];
+  /** Per pool term, the pool terms it needs under the hierarchy rule. */
+  requires: number[][];
+  /** Pool terms that can never enter (a need is met by neither pool nor always). */
+  blocked: number[];
+}
+
+export interface SearchSettings {
+  criterion: SearchCriterion;
+  /** How many best models to keep. */
+  top: number;
+  /** Subsets whose design is rank-deficient: scored with k = rank + 1 (as a comparison would) or skipped as repeats of a smaller model. */
+  rankDeficient: 'score' | 'skip';
+}
+
+/** A kept subset: pool term indices (ascending), its residual sum of squares, rank and criterion value. */
+export interface ScoredSubset {
+  terms: number[];
+  rss: number;
+  /** Numerical rank of the design, intercept included. */
+  rank: number;
+  /** k = rank + 1 (error variance). */
+  parameters: number;
+  value: number;
+  rankDeficient: boolean;
+}
+
+/** Running sums of exp(-(value - min)/2), over all scored subsets and per term. */
+export interface WeightSumsData {
+  min: number;
+  total: number;
+  perTerm: number[];
+}
+
+/** What one range of the search (a worker's share) reports back. */
+export interface SearchPartial {
+  /** Subsets scored (hierarchical, scorable). */
+  evaluated: number;
+  /** Subsets not hierarchical under the rule, passed over. */
+  notHierarchical: number;
+  /** Subsets with no residual degrees of freedom, or undefined criterion (AICc with n - k - 1 <= 0). */
+  unscorable: number;
+  rankDeficient: number;
+  /** Subsets whose residual sum of squares is at the rounding floor (scored at that floor). */
+  exactFits: number;
+  /** Subsets never looked at because branch and bound proved they cannot enter the top. */
+  pruned: number;
+  /** Branch and bound only: nodes visited. */
+  nodes: number;
+  /** True when a node budget stopped the work before it finished. */
+  stopped: boolean;
+  top: ScoredSubset[];
+  sums: WeightSumsData;
+}

@@ -1,0 +1,142 @@
+// The verdict over all criteria: do they pick the same model, and if not,
+// which way each leans and what the ranking criterion of the request chose.
+// The criteria differ mainly in what they charge for an added parameter, in
+// units of -2 log L: adjusted R² rises whenever the added terms' F statistic
+// exceeds 1, a lighter charge than AIC's 2; AICc adds a small-sample
+// correction to AIC's 2; HQC charges 2 ln(ln n) (above 2 once n ≥ 16); BIC
+// charges ln n (above 2 once n ≥ 8, and always above HQC). These are facts
+// of the trade (common practice); the summary states them only as far as
+// they hold at the given n.
+
+import { CRITERIA, criterionDefinition, type CriterionName } from './criteria.ts';
+import type { RankingEntry } from './ranking.ts';
+
+export interface VerdictContext {
+  /** Parameter count k of each model by name, to state in the reasoning. */
+  parameters?: Readonly<Record<string, number | null | undefined>>;
+  /** Rows used by the comparison, so that the reasoning can be exact about ln n. */
+  observations?: number | null;
+}
+
+export interface Leaning {
+  model: string;
+  parameters: number | null;
+  criteria: CriterionName[];
+}
+
+export interface Verdict {
+  /** True when every criterion that could rank a model picks the same one. */
+  agree: boolean;
+  /** The best model under each criterion; null where it ranked none (or was not given). */
+  best: Record<CriterionName, string | null>;
+  rankBy: CriterionName;
+  /** The best model under rankBy; null when rankBy ranked none. */
+  chosen: string | null;
+  summary: string;
+  /** The picks grouped by model, most parameters first. */
+  leanings: Leaning[];
+  /** Criteria on which two or more models tie for first, with the tied names. */
+  tiesForFirst: Partial<Record<CriterionName, string[]>>;
+}
+
+function inWords(items: string[]): string {
+  return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
+}
+
+function labels(names: CriterionName[]): string {
+  return inWords(names.map((c) => criterionDefinition(c).label));
+}
+
+function capitalised(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+function modelText(model: string, k: number | null, short = false): string {
+  if (k === null) return JSON.stringify(model);
+  return short ? `${JSON.stringify(model)} (${k})` : `${JSON.stringify(model)} (${k} parameter${k === 1 ? '' : 's'})`;
+}
+
+/** Which way each criterion leans, as far as it is true at n (unknown n: the usual large-n order). */
+function leaningSentence(present: Set<CriterionName>, n: number | null): string | null {
+  const clauses: string[] = [];
+  const fmt = (x: number) => x.toFixed(2);
+  if (present.has('adjustedR2')) {
+    clauses.push('adjusted R² charges least for an added parameter and leans toward larger models');
+  }
+  if (present.has('bic')) {
+    if (n === null) clauses.push("BIC charges ln n per parameter, more than AIC's 2 once n ≥ 8, and leans toward the most parsimonious");
+    else if (Math.log(n) > 2) clauses.push(`BIC charges ln n = ${fmt(Math.log(n))} per parameter, more than AIC's 2, and leans toward the most parsimonious`);
+    else clauses.push(`at n = ${n} BIC charges only ln n = ${fmt(Math.log(n))} per parameter, less than AIC's 2`);
+  }
+  const middle = (['aic', 'aicc'] as CriterionName[]).filter((c) => present.has(c));
+  if (present.has('hqc')) {
+    if (n === null || Math.log(Math.log(n)) > 1) middle.push('hqc');
+    else if (n > 1) clauses.push(`at n = ${n} HQC charges 2 ln(ln n) = ${fmt(2 * Math.log(Math.log(n)))} per parameter, less than AIC's 2`);
+  }
+  if (middle.length > 0 && clauses.length > 0) clauses.push(`${labels(middle)} ${middle.length === 1 ? 'lies' : 'lie'} between`);
+  if (clauses.length === 0) return null;
+  return `${capitalised(inWords(clauses))}.`;
+}
+
+export function verdict(
+  rankings: Partial<Record<CriterionName, readonly RankingEntry[]>>,
+  rankBy: CriterionName = 'aicc',
+  context: VerdictContext = {},
+): Verdict {
+  const kOf = (model: string): number | null => {
+    const k = context.parameters?.[model];
+    return typeof k === 'number' && Number.isFinite(k) ? k : null;
+  };
+  const best = {} as Record<CriterionName, string | null>;
+  const tiesForFirst: Partial<Record<CriterionName, string[]>> = {};
+  const ranked: CriterionName[] = [];
+  const unranked: CriterionName[] = [];
+  for (const { name } of CRITERIA) {
+    const list = rankings[name];
+    const first = list?.filter((e) => e.rank === 1) ?? [];
+    best[name] = first.length > 0 ? first[0].name : null;
+    if (first.length > 1) tiesForFirst[name] = first.map((e) => e.name);
+    if (first.length > 0) ranked.push(name);
+    else if (list) unranked.push(name);
+  }
+
+  const groups = new Map<string, CriterionName[]>();
+  for (const c of ranked) groups.set(best[c]!, [...(groups.get(best[c]!) ?? []), c]);
+  const leanings: Leaning[] = [...groups].map(([model, criteria]) => ({ model, parameters: kOf(model), criteria }));
+  leanings.sort((a, b) => (b.parameters ?? -Infinity) - (a.parameters ?? -Infinity));
+
+  const agree = leanings.length === 1;
+  const chosen = best[rankBy] ?? null;
+  const rankByLabel = criterionDefinition(rankBy).label;
+  const sentences: string[] = [];
+
+  if (leanings.length === 0) {
+    sentences.push('No criterion could rank any model, so there is no pick.');
+  } else if (agree) {
+    const { model, criteria } = leanings[0];
+    const who = criteria.length === CRITERIA.length ? `All ${CRITERIA.length} criteria pick` : `${capitalised(labels(criteria))} ${criteria.length === 1 ? 'picks' : 'all pick'}`;
+    sentences.push(`${who} ${modelText(model, kOf(model))}.`);
+  } else {
+    const picks = leanings.map(
+      (l, i) => `${labels(l.criteria)} ${l.criteria.length === 1 ? 'picks' : 'pick'} ${modelText(l.model, l.parameters, i > 0)}`,
+    );
+    sentences.push(`The criteria disagree: ${picks.join('; ')}.`);
+    const lean = leaningSentence(new Set(ranked), context.observations ?? null);
+    if (lean) sentences.push(lean);
+  }
+  if (unranked.length > 0) {
+    sentences.push(`${capitalised(labels(unranked))} could not rank any model (see the cautions).`);
+  }
+  for (const [c, names] of Object.entries(tiesForFirst) as [CriterionName, string[]][]) {
+    sentences.push(`On ${criterionDefinition(c).label}, ${inWords(names.map((n) => JSON.stringify(n)))} tie for first.`);
+  }
+  if (!agree && leanings.length > 0) {
+    sentences.push(chosen === null
+      ? `${rankByLabel}, the criterion this comparison ranks by, ranks no model, so none is chosen.`
+      : `Ranked by ${rankByLabel}, the criterion this comparison uses, the choice is ${JSON.stringify(chosen)}.`);
+  } else if (agree && chosen === null) {
+    sentences.push(`${rankByLabel}, the criterion this comparison ranks by, ranks no model, so none is chosen.`);
+  }
+
+  return { agree, best, rankBy, chosen, summary: sentences.join(' '), leanings, tiesForFirst };
+}

@@ -1,0 +1,18 @@
+// The one place a route hands a record to the audit store. A store that cannot
+// take the record turns the reply into a 503: the caller never gets a result the
+// team's record does not hold.
+import type { FastifyReply } from 'fastify';
+import type { AuditStore, NewRecord, StoredRecord } from '../audit/store.ts';
+import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
+
+export async function appendOr503(store: AuditStore, reply: FastifyReply, record: NewRecord): Promise<StoredRecord | null> {
+  try {
+    return await store.append(record);
+  } catch (error) {
+    reply.log.error({ err: error }, 'audit store refused a record');
+    const body = problem(503, problemTypes.storeUnavailable, 'Audit store unavailable',
+      'the comparison was computed but could not be recorded, so no result is returned; retry later');
+    reply.code(503).header('retry-after', '5').type(PROBLEM_CONTENT_TYPE).send(body);
+    return null;
+  }
+}

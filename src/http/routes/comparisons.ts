@@ -1,0 +1,46 @@
+// POST /v1/comparisons: validated body -> core -> audit record -> reply.
+// The reply is sent only after the record is committed: no result without a record.
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import type { AuditStore } from '../../audit/store.ts';
+import { requestDigest } from '../../audit/chain.ts';
+import type { Config } from '../../config.ts';
+import { compareModels } from '../../core/compare.ts';
+import { serviceVersion } from '../../version.ts';
+import { ComparisonRequest } from '../schemas/comparison-request.ts';
+import { ComparisonResult } from '../schemas/comparison-response.ts';
+import { ProblemSchema } from '../schemas/problem.ts';
+import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
+import { toComparisonInput } from '../comparison-input.ts';
+import { appendOr503 } from '../audit-append.ts';
+
+export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config }> = async (app, { store, config }) => {
+  app.post('/v1/comparisons', {
+    schema: {
+      tags: ['comparisons'],
+      summary: 'Fit and score candidate models on one data set, rank them and record the comparison',
+      body: ComparisonRequest,
+      response: { 200: ComparisonResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
+    },
+  }, async (request, reply) => {
+    const body = request.body;
+    const outcome = compareModels(toComparisonInput(body), { maxWorkCells: config.maxWorkCells });
+    if ('issues' in outcome) {
+      return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
+    }
+    const result = outcome.result;
+    const record = await appendOr503(store, reply, {
+      kind: 'comparison',
+      caller: 'anonymous',
+      label: body.label ?? null,
+      serviceVersion,
+      conventionsVersion: result.conventions.version,
+      policy: null,
+      datasetFingerprint: result.dataset.fingerprint,
+      requestDigest: requestDigest(body),
+      request: body as unknown as Record<string, unknown>,
+      result: result as unknown as Record<string, unknown>,
+    });
+    if (!record) return reply;
+    return reply.code(200).send({ id: record.id, createdAt: record.createdAt, serviceVersion, ...result });
+  });
+};

@@ -1,0 +1,48 @@
+// Building blocks shared by the request schemas.
+import { z } from 'zod';
+
+export const ColumnName = z
+  .string()
+  .min(1, 'a column name cannot be empty')
+  .max(200, 'a column name has at most 200 characters')
+  .meta({ description: 'The name of a column of data.columns.' });
+
+// zod 4's number() already refuses Infinity and NaN; the message says where they
+// come from, since JSON.parse turns an overflowing literal such as 1e999 into Infinity.
+export const FiniteNumber = z.number({
+  error: (issue) =>
+    typeof issue.input === 'number'
+      ? 'numbers must be finite (a JSON number beyond ±1.8e308 overflows to infinity)'
+      : 'expected a number',
+});
+
+export const Term = z
+  .union([
+    ColumnName,
+    z.discriminatedUnion('kind', [
+      z.strictObject({
+        kind: z.literal('power'),
+        of: ColumnName,
+        degree: z.number().int().min(2).max(20),
+      }),
+      z.strictObject({
+        kind: z.literal('product'),
+        of: z.array(ColumnName).min(2, 'a product needs at least two columns').max(6),
+      }),
+      z.strictObject({
+        kind: z.literal('transform'),
+        of: ColumnName,
+        fn: z.enum(['log', 'sqrt', 'reciprocal']),
+      }),
+      z.strictObject({
+        kind: z.literal('factor'),
+        of: ColumnName,
+        reference: z.string().max(200).optional(),
+      }),
+    ]),
+  ])
+  .meta({
+    id: 'Term',
+    description:
+      'A column name (numeric: one column; text: a factor), or a power, product, transform or factor of columns.',
+  });

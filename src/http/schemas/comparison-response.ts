@@ -1,0 +1,130 @@
+// POST /v1/comparisons response. Numbers that do not exist are null, never NaN
+// or Infinity, and a caution says why.
+import { z } from 'zod';
+import { Criterion } from './comparison-request.ts';
+
+const nullableNumber = z.number().nullable();
+
+export const Caution = z
+  .strictObject({
+    code: z.string().meta({ description: 'A stable machine-readable reason.' }),
+    message: z.string().meta({ description: 'The same reason in plain words.' }),
+  })
+  .meta({ id: 'Caution' });
+
+export const Coefficient = z
+  .strictObject({
+    term: z.string().meta({ description: 'Readable label of the design column, e.g. "(intercept)", "peakTemp^2", "kiln[west]".' }),
+    estimate: nullableNumber,
+    standardError: nullableNumber,
+  })
+  .meta({ id: 'Coefficient' });
+
+export const ModelResult = z
+  .strictObject({
+    name: z.string(),
+    source: z.enum(['fit']).meta({ description: '"fit": fitted here by least squares.' }),
+    intercept: z.boolean(),
+    parameters: z.number().int().meta({ description: 'k: numerical rank of the design plus one for the error variance.' }),
+    observations: z.number().int(),
+    logLikelihood: nullableNumber,
+    aic: nullableNumber,
+    aicc: nullableNumber,
+    bic: nullableNumber,
+    hqc: nullableNumber,
+    rss: nullableNumber.meta({ description: 'Residual sum of squares (weighted: sum of w·e²).' }),
+    r2: nullableNumber,
+    adjustedR2: nullableNumber,
+    r2Basis: z.enum(['centred', 'uncentred']).meta({
+      description: 'centred: about the (weighted) mean of the response; uncentred (model without intercept): about zero.',
+    }),
+    sigma: nullableNumber.meta({ description: 'Residual standard error sqrt(rss/(n - rank)).' }),
+    coefficients: z.array(Coefficient),
+    aliased: z.array(z.string()).meta({ description: 'Design columns that are (numerically) linear combinations of the columns before them; their estimates are null.' }),
+    conditionNumber: nullableNumber.meta({ description: 'Condition number estimate of the centred, scaled design the solver factorised.' }),
+    cautions: z.array(Caution),
+  })
+  .meta({ id: 'ModelResult' });
+
+export const RankingEntry = z
+  .strictObject({
+    rank: z.number().int().nullable().meta({ description: 'Competition rank (ties share a rank); null when the model has no value.' }),
+    name: z.string(),
+    value: nullableNumber,
+    delta: nullableNumber.meta({ description: 'Distance from the best, always >= 0 (for adjustedR2: best - value).' }),
+    weight: nullableNumber.meta({ description: 'Akaike weight (for bic: approximate posterior probability under equal prior odds); null for adjustedR2.' }),
+    evidenceRatio: nullableNumber,
+    cumulativeWeight: nullableNumber,
+    inConfidenceSet: z.boolean().nullable(),
+  })
+  .meta({ id: 'RankingEntry' });
+
+const Ranking = z.array(RankingEntry);
+
+export const Verdict = z
+  .strictObject({
+    agree: z.boolean(),
+    best: z.strictObject({
+      aicc: z.string().nullable(),
+      aic: z.string().nullable(),
+      bic: z.string().nullable(),
+      hqc: z.string().nullable(),
+      adjustedR2: z.string().nullable(),
+    }),
+    rankBy: Criterion,
+    chosen: z.string().nullable().meta({ description: 'The best model under rankBy.' }),
+    summary: z.string().meta({ description: 'One plain-language account of what the criteria pick and why they may differ.' }),
+    leanings: z
+      .array(z.strictObject({ model: z.string(), parameters: z.number().int().nullable(), criteria: z.array(Criterion) }))
+      .meta({ description: 'The picks grouped by model, most parameters first.' }),
+    tiesForFirst: z
+      .partialRecord(Criterion, z.array(z.string()))
+      .meta({ description: 'Criteria on which two or more models tie for first, with their names.' }),
+  })
+  .meta({ id: 'Verdict' });
+
+export const Conventions = z
+  .strictObject({
+    version: z.string(),
+    parameterCount: z.string(),
+    logLikelihood: z.string(),
+    weights: z.string(),
+    r2: z.string(),
+    commonRows: z.string(),
+    rank: z.string(),
+    rankBy: Criterion,
+    confidenceLevel: z.number(),
+  })
+  .meta({ id: 'Conventions' });
+
+export const Dataset = z
+  .strictObject({
+    fingerprint: z.string().meta({ description: '"sha256:" + hex digest of the canonical serialisation of the used data (see README).' }),
+    observations: z.number().int(),
+    rowsDropped: z.number().int(),
+    response: z.string(),
+    weights: z.string().nullable(),
+  })
+  .meta({ id: 'Dataset' });
+
+export const ComparisonResult = z
+  .strictObject({
+    id: z.string(),
+    createdAt: z.string(),
+    serviceVersion: z.string(),
+    conventions: Conventions,
+    dataset: Dataset,
+    models: z.array(ModelResult),
+    rankings: z.strictObject({
+      aicc: Ranking,
+      aic: Ranking,
+      bic: Ranking,
+      hqc: Ranking,
+      adjustedR2: Ranking,
+    }),
+    verdict: Verdict,
+    cautions: z.array(Caution),
+  })
+  .meta({ id: 'ComparisonResult' });
+
+export type ComparisonResult = z.output<typeof ComparisonResult>;

@@ -1,0 +1,53 @@
+// Where the record sits in the tamper-evident audit chain, and how a reader
+// can check it without trusting this page. The exact hashing rule belongs to
+// the audit store (src/audit/chain.ts); it is passed in as words so this page
+// never states a rule the store does not follow.
+import { fragment, tag, type Html } from './html-markup.ts';
+import type { StoredComparisonView } from './types.ts';
+
+export interface ChainVerification {
+  /** Path of the whole-chain check, e.g. "/v1/audit/verify". */
+  verifyPath: string;
+  /** Name of the hash function, e.g. "SHA-256". */
+  algorithm: string;
+  /**
+   * What is hashed, completing "the hash is {algorithm} over …", e.g.
+   * "the previous record's hash followed by the canonical JSON of this record (without its own hash)".
+   */
+  hashedInput: string;
+  /** How the hash is written, e.g. "lower-case hexadecimal with the prefix sha256:". */
+  encoding: string;
+}
+
+/** Placeholder wording until the audit store fixes its rule; the lead replaces it with the store's own. */
+export const defaultChainVerification: ChainVerification = {
+  verifyPath: '/v1/audit/verify',
+  algorithm: 'SHA-256',
+  hashedInput: "the previous record's hash followed by the canonical serialisation of this record",
+  encoding: 'hexadecimal',
+};
+
+export function chainSection(record: StoredComparisonView, rule: ChainVerification): Html {
+  const first = record.prevHash === null || record.prevHash === undefined || record.prevHash === '';
+  return fragment(
+    tag('h2', { id: 'chain' }, 'Audit chain'),
+    tag('dl', { class: 'facts', 'data-section': 'chain' },
+      tag('dt', {}, 'position'), tag('dd', { 'data-seq': String(record.seq) }, `record ${record.seq}`),
+      tag('dt', {}, 'hash'), tag('dd', { class: 'hash' }, String(record.hash)),
+      tag('dt', {}, 'previous hash'), tag('dd', { class: 'hash' }, first ? 'none: this is the first record' : String(record.prevHash)),
+    ),
+    tag('p', {},
+      'To check the whole chain, ask the service: ',
+      tag('code', {}, `GET ${rule.verifyPath}`),
+      ' re-hashes every stored record in order and reports whether the chain is intact and, if not, where it first breaks.',
+    ),
+    tag('p', {},
+      `To check this record yourself: its hash is ${rule.algorithm} over ${rule.hashedInput}, written in ${rule.encoding}. `,
+      'Recompute it from the stored record (',
+      tag('code', {}, `GET /v1/comparisons/${record.id}`),
+      first
+        ? '); it must equal the hash above, and the next record must name it as its previous hash.'
+        : '); it must equal the hash above, its previous hash must equal the hash of the record before it, and the next record must name this hash as its previous one.',
+    ),
+  );
+}

@@ -1,0 +1,22 @@
+// buildApp for tests: a real SQLite audit file in a temporary directory, closed
+// and removed on teardown.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Test } from 'tap';
+import { defaultConfig, type Config } from '../src/config.ts';
+import { openAuditStore } from '../src/audit/open.ts';
+import { buildApp } from '../src/http/app.ts';
+
+export async function buildTestApp(t: Test, overrides: Partial<Config> = {}) {
+  const dir = mkdtempSync(join(tmpdir(), 'parsimetry-test-'));
+  const config = defaultConfig({ auditDb: join(dir, 'audit.sqlite'), ...overrides });
+  const store = await openAuditStore(config.auditDb);
+  const app = await buildApp({ config, store, logger: false });
+  t.teardown(async () => {
+    await app.close();
+    await store.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+  return { app, store, config };
+}
