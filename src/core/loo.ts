@@ -6,6 +6,7 @@
 // the unweighted identity to the rows scaled by sqrt(w_i).
 import type { DesignMatrix, LeastSquaresFit } from './types.ts';
 import { estimableRow, quadraticForm, weightAt } from './inference/design-rows.ts';
+import { basisLeverage, weightedBasis } from './inference/orthonormal-basis.ts';
 import { rankModels, type RankingEntry } from './ranking.ts';
 
 /**
@@ -28,10 +29,20 @@ export interface LeaveOneOutError {
   reason: string | null;
 }
 
-/** h_ii = w_i x_i' C x_i over the estimable columns, C = fit.unscaledCovariance. */
+/**
+ * h_ii = w_i x_i' (X'WX)^-1 x_i over the estimable columns, evaluated as the
+ * squared row norms of an orthonormal basis of sqrt(W) X (see
+ * orthonormal-basis.ts for why); the fit's unscaledCovariance is the
+ * fallback should the basis find the columns dependent.
+ */
 export function leverages(fit: LeastSquaresFit, design: DesignMatrix, weights?: ArrayLike<number>): Float64Array {
   const h = new Float64Array(design.rows);
+  const basis = weightedBasis(fit, design, weights);
   for (let i = 0; i < design.rows; i++) {
+    if (basis) {
+      h[i] = basisLeverage(basis, i);
+      continue;
+    }
     h[i] = weightAt(weights, i) * quadraticForm(fit.unscaledCovariance, estimableRow(design, fit, i));
   }
   return h;

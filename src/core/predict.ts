@@ -11,6 +11,7 @@
 import type { DesignMatrix, LeastSquaresFit } from './types.ts';
 import { estimableRow, quadraticForm, weightAt } from './inference/design-rows.ts';
 import type { StatisticsIssue } from './inference/issue.ts';
+import { basisQuadraticForm, weightedBasis } from './inference/orthonormal-basis.ts';
 
 export interface MeanPrediction {
   estimate: number | null;
@@ -64,6 +65,12 @@ export function predictMeanResponse(
     return { predictions: [], issues };
   }
   const relations = aliasRelations(fit, data, weights);
+  // x' (X'WX)^-1 x through an orthonormal basis of the data design, which
+  // keeps its accuracy on ill-conditioned designs; the fit's explicit
+  // inverse is the fallback.
+  const basis = weightedBasis(fit, data, weights);
+  const varianceFactor = (x: Float64Array) =>
+    basis ? basisQuadraticForm(basis, x) : quadraticForm(fit.unscaledCovariance, x);
   const predictions: MeanPrediction[] = [];
   const notEstimable: number[] = [];
   for (let i = 0; i < rows.rows; i++) {
@@ -75,7 +82,7 @@ export function predictMeanResponse(
     }
     let estimate = 0;
     for (let k = 0; k < x.length; k++) estimate += x[k] * (fit.coefficients[fit.estimable[k]] as number);
-    const standardError = fit.sigma === null ? null : fit.sigma * Math.sqrt(quadraticForm(fit.unscaledCovariance, x));
+    const standardError = fit.sigma === null ? null : fit.sigma * Math.sqrt(varianceFactor(x));
     predictions.push({ estimate, standardError });
   }
   if (notEstimable.length > 0) {

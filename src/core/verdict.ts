@@ -2,7 +2,8 @@
 // which way each leans and what the ranking criterion of the request chose.
 // The criteria differ mainly in what they charge for an added parameter, in
 // units of -2 log L: adjusted R² rises whenever the added terms' F statistic
-// exceeds 1, a lighter charge than AIC's 2; AICc adds a small-sample
+// exceeds 1, which works out to about n/(n-p) ≈ 1 per parameter, a lighter
+// charge than AIC's 2; AICc adds a small-sample
 // correction to AIC's 2; HQC charges 2 ln(ln n) (above 2 once n ≥ 16); BIC
 // charges ln n (above 2 once n ≥ 8, and always above HQC). These are facts
 // of the trade (common practice); the summary states them only as far as
@@ -39,6 +40,8 @@ export interface Verdict {
   tiesForFirst: Partial<Record<CriterionName, string[]>>;
 }
 
+const NUMBER_WORDS: Record<number, string> = { 2: 'two', 3: 'three', 4: 'four', 5: 'five', 6: 'six', 7: 'seven', 8: 'eight' };
+
 function inWords(items: string[]): string {
   return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
 }
@@ -56,26 +59,29 @@ function modelText(model: string, k: number | null, short = false): string {
   return short ? `${JSON.stringify(model)} (${k})` : `${JSON.stringify(model)} (${k} parameter${k === 1 ? '' : 's'})`;
 }
 
-/** Which way each criterion leans, as far as it is true at n (unknown n: the usual large-n order). */
+/**
+ * What each criterion present charges per added parameter, lightest first, and
+ * which way that makes it lean. With n known the figures are exact at n (so a
+ * small sample where BIC charges less than AIC is stated as such).
+ */
 function leaningSentence(present: Set<CriterionName>, n: number | null): string | null {
-  const clauses: string[] = [];
+  const known = n !== null && n > 1;
+  const charges: { name: CriterionName; text: string; order: number }[] = [];
   const fmt = (x: number) => x.toFixed(2);
-  if (present.has('adjustedR2')) {
-    clauses.push('adjusted R² charges least for an added parameter and leans toward larger models');
+  if (present.has('adjustedR2')) charges.push({ name: 'adjustedR2', text: 'adjusted R² about 1', order: 1 });
+  if (present.has('aic')) charges.push({ name: 'aic', text: 'AIC 2', order: 2 });
+  if (present.has('aicc')) charges.push({ name: 'aicc', text: 'AICc a little over 2', order: 2.0001 });
+  if (present.has('hqc')) {
+    const c = known ? 2 * Math.log(Math.log(n)) : 2.5;
+    charges.push({ name: 'hqc', text: known ? `HQC 2 ln(ln n) = ${fmt(c)}` : 'HQC 2 ln(ln n)', order: c });
   }
   if (present.has('bic')) {
-    if (n === null) clauses.push("BIC charges ln n per parameter, more than AIC's 2 once n ≥ 8, and leans toward the most parsimonious");
-    else if (Math.log(n) > 2) clauses.push(`BIC charges ln n = ${fmt(Math.log(n))} per parameter, more than AIC's 2, and leans toward the most parsimonious`);
-    else clauses.push(`at n = ${n} BIC charges only ln n = ${fmt(Math.log(n))} per parameter, less than AIC's 2`);
+    const c = known ? Math.log(n) : 3;
+    charges.push({ name: 'bic', text: known ? `BIC ln n = ${fmt(c)}` : 'BIC ln n', order: c });
   }
-  const middle = (['aic', 'aicc'] as CriterionName[]).filter((c) => present.has(c));
-  if (present.has('hqc')) {
-    if (n === null || Math.log(Math.log(n)) > 1) middle.push('hqc');
-    else if (n > 1) clauses.push(`at n = ${n} HQC charges 2 ln(ln n) = ${fmt(2 * Math.log(Math.log(n)))} per parameter, less than AIC's 2`);
-  }
-  if (middle.length > 0 && clauses.length > 0) clauses.push(`${labels(middle)} ${middle.length === 1 ? 'lies' : 'lie'} between`);
-  if (clauses.length === 0) return null;
-  return `${capitalised(inWords(clauses))}.`;
+  if (charges.length < 2) return null;
+  charges.sort((a, b) => a.order - b.order);
+  return `What each charges for an added parameter, in units of -2 log L${known ? ` at n = ${n}` : ''}: ${inWords(charges.map((c) => c.text))}; the heavier the charge, the smaller the model it leans toward.`;
 }
 
 export function verdict(
@@ -114,7 +120,7 @@ export function verdict(
     sentences.push('No criterion could rank any model, so there is no pick.');
   } else if (agree) {
     const { model, criteria } = leanings[0];
-    const who = criteria.length === CRITERIA.length ? `All ${CRITERIA.length} criteria pick` : `${capitalised(labels(criteria))} ${criteria.length === 1 ? 'picks' : 'all pick'}`;
+    const who = criteria.length === CRITERIA.length ? `All ${NUMBER_WORDS[CRITERIA.length] ?? CRITERIA.length} criteria pick` : `${capitalised(labels(criteria))} ${criteria.length === 1 ? 'picks' : 'all pick'}`;
     sentences.push(`${who} ${modelText(model, kOf(model))}.`);
   } else {
     const picks = leanings.map(

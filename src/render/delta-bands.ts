@@ -14,9 +14,8 @@ export type SupportBand = 'close' | 'gap-low' | 'weaker' | 'gap-high' | 'negligi
 
 export interface BandDefinition {
   band: SupportBand;
-  /** Lower edge of Δ (inclusive except for the first band, which starts at 0). */
+  /** Edges of the band on the Δ axis (which edge is included: see supportBandOf). */
   from: number;
-  /** Upper edge of Δ; Infinity for the last band. */
   to: number;
   wording: string;
 }
@@ -43,13 +42,16 @@ export function bandsApply(criterion: CriterionName): boolean {
 }
 
 /**
- * The band of a difference. Edges belong to the better band (Δ = 2 is still
- * "about as good"), matching the "≤ 2" of the published rule.
+ * The band of a difference. The published bands are closed ("≤ 2", "4–7")
+ * and the last is open ("> 10"), so 2, 4 and 7 belong to their bands, 10
+ * to the gap below it, and only the gaps take the values strictly between.
  */
 export function supportBandOf(delta: number | null): BandDefinition | null {
   if (delta === null || !Number.isFinite(delta) || delta < 0) return null;
-  for (const definition of supportBands) {
-    if (delta <= definition.to) return definition;
-  }
-  return supportBands[supportBands.length - 1];
+  const [close, gapLow, weaker, gapHigh, negligible] = supportBands;
+  if (delta <= 2) return close;
+  if (delta < 4) return gapLow;
+  if (delta <= 7) return weaker;
+  if (delta <= 10) return gapHigh;
+  return negligible;
 }

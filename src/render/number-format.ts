@@ -33,9 +33,11 @@ export function formatSignificant(value: unknown, absent = 'n/a'): string {
   if (x === null) return absent;
   if (x === 0) return '0';
   const size = Math.abs(x);
-  if (size >= 1e9 || size < 1e-4) return x.toExponential(5).replace('e+', 'e');
+  if (size >= 1e9 || size < 1e-4) return x.toExponential(5).replace(/\.?0+e/, 'e').replace('e+', 'e');
   const decimals = Math.max(0, 5 - Math.floor(Math.log10(size)));
-  return unsignedZero(x.toFixed(Math.min(decimals, 10)));
+  // Trailing zeros would claim precision nobody measured ("4.00000" rows).
+  const text = x.toFixed(Math.min(decimals, 10));
+  return unsignedZero(text.includes('.') ? text.replace(/\.?0+$/, '') : text);
 }
 
 /** A criterion difference: two decimals below 100, fewer above. */

@@ -22,6 +22,8 @@ const EPS = 2 ** -52;
 /** Largest acceptable relative error bound of the plain double covariance. */
 export const DOUBLE_COVARIANCE_LIMIT = 1e-13;
 
+export type CovarianceRoute = 'auto' | 'extended' | 'double';
+
 /** Symmetric k x k double-double matrix as hi and lo parts, factorisation order. */
 export interface MatrixDD {
   hi: number[][];
@@ -34,12 +36,14 @@ export function equilibratedCovariance(
   al: Float64Array[],
   columns: number[],
   conditionNumber: number,
-): { covariance: MatrixDD; method: 'double-double Gram' | 'double R' } {
-  if (2 * conditionNumber * EPS > DOUBLE_COVARIANCE_LIMIT) {
+  route: CovarianceRoute,
+): { covariance: MatrixDD; method: 'extended' | 'double' } {
+  const wantExtended = route === 'extended' || (route === 'auto' && 2 * conditionNumber * EPS > DOUBLE_COVARIANCE_LIMIT);
+  if (wantExtended) {
     const accurate = gramInverse(ah, al, columns);
-    if (accurate) return { covariance: accurate, method: 'double-double Gram' };
+    if (accurate) return { covariance: accurate, method: 'extended' };
   }
-  return { covariance: inverseFromR(qr), method: 'double R' };
+  return { covariance: inverseFromR(qr), method: 'double' };
 }
 
 /** (A^T A)^-1 via the double-double Gram matrix and Cholesky; null if not positive definite. */

@@ -108,17 +108,13 @@ export function equilibrate(
   const mh = new Float64Array(p);
   const ml = new Float64Array(p);
   if (interceptColumn >= 0 && weightTotal > 0) {
-    // Weighted sums in double-double; the weight total is a plain sum of doubles,
-    // which is re-summed in double-double here for the same reason.
-    const ones = new Float64Array(n).fill(1);
-    const zeros = new Float64Array(n);
-    const [wh, wl] = weights ? weightedSumDD(w, zeros, null) : [n, 0];
+    // Weighted means in double-double, so that centring itself loses nothing.
+    const [wh, wl] = weights ? weightedSumDD(w, new Float64Array(n), null) : [n, 0];
     for (let j = 0; j < p; j++) {
       if (j === interceptColumn) continue;
       const [th, tl] = weightedSumDD(design.high[j], design.low[j], weights ? w : null);
       [mh[j], ml[j]] = ddDiv(th, tl, wh, wl);
     }
-    void ones;
   }
 
   const ah: Float64Array[] = [];

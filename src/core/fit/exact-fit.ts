@@ -7,7 +7,8 @@
 // similar term through X beta. EXACT_FIT_FACTOR * eps * ||sqrt(w) y|| leaves a
 // margin of 128x above the y-rounding level for that and for modest cancellation,
 // while a data set with genuine scatter sits many orders above it (NIST
-// Wampler3, the mildest non-exact Wampler, has ||e|| / ||y|| ~ 1e-3).
+// Wampler3, the mildest non-exact Wampler, has ||e|| / ||y|| = 1.8e-3; Wampler2,
+// an exact fit in decimal, leaves 2.6e-17 from the rounding of its y, 550x below).
 
 const EPS = 2 ** -52;
 export const EXACT_FIT_FACTOR = 64;

@@ -12,7 +12,7 @@ import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, type DD } from '../numeric/dou
 import { equilibrate } from './equilibration.ts';
 import { householderQR } from './householder-qr.ts';
 import { MAX_REFINEMENT_STEPS, refineLeastSquares } from './refinement.ts';
-import { equilibratedCovariance } from './covariance.ts';
+import { equilibratedCovariance, type CovarianceRoute } from './covariance.ts';
 import { mapCoefficients, mapCovariance } from './basis-map.ts';
 import { conditionFromR } from './condition.ts';
 import { isExactFit } from './exact-fit.ts';
@@ -31,6 +31,12 @@ export interface FitOptions {
   aliasTolerance?: number;
   /** Refinement steps after the initial QR solve (default 10; 0 gives the plain equilibrated QR). */
   maxRefinementSteps?: number;
+  /**
+   * Covariance route: 'auto' (default) takes the double-double Gram matrix when the
+   * plain route's error bound is too large; 'extended' and 'double' force one route
+   * (for diagnostics and the accuracy tests).
+   */
+  covariance?: CovarianceRoute;
 }
 
 export { ALIAS_TOLERANCE as DEFAULT_ALIAS_TOLERANCE, MAX_REFINEMENT_STEPS };
@@ -96,7 +102,9 @@ export function fitLeastSquares(
   const sigma = dof > 0 ? Math.sqrt(rss / dof) : null;
 
   const conditionNumber = conditionFromR(qr);
-  const { covariance: covEq } = equilibratedCovariance(qr, eq.ah, eq.al, columns, conditionNumber);
+  const { covariance: covEq } = equilibratedCovariance(
+    qr, eq.ah, eq.al, columns, conditionNumber, options.covariance ?? 'auto',
+  );
   const { estimable, covariance } = mapCovariance(eq, columns, covEq);
 
   const coefficients: (number | null)[] = [];

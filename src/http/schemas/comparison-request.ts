@@ -7,7 +7,16 @@ export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2'] as con
 export const Criterion = z.enum(criterionNames).meta({ id: 'Criterion' });
 
 const ColumnValuesSchema = z
-  .array(z.union([FiniteNumber, z.string().max(200), z.null()]))
+  .array(
+    z.union([FiniteNumber, z.string().max(200), z.null()], {
+      error: (issue) =>
+        typeof issue.input === 'number'
+          ? 'numbers must be finite (a JSON number beyond ±1.8e308 overflows to infinity)'
+          : typeof issue.input === 'string'
+            ? 'a text value has at most 200 characters'
+            : 'each value is a number, a string (categorical) or null (missing)',
+    }),
+  )
   .max(5_000_000)
   .superRefine((values, ctx) => {
     // One column is one kind of measurement: numbers and text in one column is a

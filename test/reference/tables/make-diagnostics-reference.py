@@ -1,6 +1,7 @@
 # Builds diagnostics-reference.json: reference values for the assumption
 # checks, computed with numpy straight from the published formulas (scipy and
 # statsmodels are not available on the machine that made the fixture).
+# Residuals come from NIST's certified parameters (exact rational arithmetic).
 # Data: NIST StRD linear least squares datasets Longley, Pontius and Norris
 # (US government public domain), copied into the fixture.
 #   Jarque & Bera (1987): JB = n/6 (S^2 + (K-3)^2/4), moment estimators.
@@ -23,16 +24,29 @@ def chi2_sf(x, df):
     return math.exp(-h) * sum(h ** j / math.factorial(j) for j in range(df // 2))
 
 def r_squared(Z, y):
-    A = np.column_stack([np.ones(len(y)), Z])
+    # Centred, unit-length columns: the same regression, better conditioned.
+    Zc = Z - Z.mean(axis=0)
+    Zc = Zc / np.linalg.norm(Zc, axis=0)
+    A = np.column_stack([np.ones(len(y)), Zc])
     b, *_ = np.linalg.lstsq(A, y, rcond=None)
     r = y - A @ b
     yc = y - y.mean()
     return 1 - (r @ r) / (yc @ yc)
 
-def case(name, columns, y):
+def certified_residuals(d, columns):
+    # Residuals from NIST's certified parameters in exact rational arithmetic,
+    # rounded once: far more accurate than any double fit on Pontius or Longley.
+    from fractions import Fraction
+    b = [Fraction(p['estimate']) for p in d['certified']['parameters']]
+    y = d['data']['y']
+    out = []
+    for i in range(len(y)):
+        fitted = b[0] + sum(b[k + 1] * Fraction(columns[k][i]) for k in range(len(columns)))
+        out.append(float(Fraction(y[i]) - fitted))
+    return np.array(out)
+
+def case(name, columns, y, e):
     X = np.column_stack([np.ones(len(y))] + columns)
-    b, *_ = np.linalg.lstsq(X, y, rcond=None)
-    e = y - X @ b
     n = len(y)
     d = e - e.mean()
     m2, m3, m4 = (d ** 2).mean(), (d ** 3).mean(), (d ** 4).mean()
@@ -65,10 +79,12 @@ for name, fname in [('Longley', 'longley'), ('Pontius', 'pontius'), ('Norris', '
         x = np.array(d['data']['x'], dtype=float)
         names = ['x'] + [f'x^{p}' for p in range(2, d['polynomialDegree'] + 1)]
         cols = [x ** p for p in range(1, d['polynomialDegree'] + 1)]
+        exact_cols = [[v ** p for v in d['data']['x']] for p in range(1, d['polynomialDegree'] + 1)]
         data = {'x': d['data']['x'], 'y': d['data']['y']}
     else:
         names = d['predictors']
         cols = [np.array(d['data'][p], dtype=float) for p in names]
+        exact_cols = [d['data'][p] for p in names]
         data = d['data']
-    out['cases'][name] = {'columns': names, 'data': data, 'polynomialDegree': d['polynomialDegree'], **case(name, cols, y)}
+    out['cases'][name] = {'columns': names, 'data': data, 'polynomialDegree': d['polynomialDegree'], **case(name, cols, y, certified_residuals(d, exact_cols))}
 json.dump(out, open(sys.argv[1] if len(sys.argv) > 1 else 'diagnostics-reference.json', 'w'), indent=1)

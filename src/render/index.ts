@@ -1,0 +1,14 @@
+// The renderers' one public face: pure functions from a stored record to
+// SVG or HTML text. The HTTP routes call these; nothing here knows HTTP.
+export { parseChartOptions, rankedCriteria, defaultCriterion, sizePresets, widthRange, heightRange } from './chart-options.ts';
+export type { ChartOptions, ChartOptionIssue, ChartOptionsResult, SizePreset } from './chart-options.ts';
+export { renderChartSvg, chartDescription, chartTitle } from './chart-svg.ts';
+export { renderReportHtml, reportContentSecurityPolicy, jobSentence } from './report-html.ts';
+export type { ReportOptions } from './report-html.ts';
+export { defaultChainVerification } from './report-chain.ts';
+export type { ChainVerification } from './report-chain.ts';
+export { standingCaution } from './report-extras.ts';
+export { supportBands, supportBandOf, bandsApply } from './delta-bands.ts';
+export { escapeText, escapeAttribute, toCarriableText } from './escape.ts';
+export type { StoredComparisonView, ComparisonResultView, ModelView, RankingEntry, CriterionName } from './types.ts';
+export { criterionNames } from './types.ts';

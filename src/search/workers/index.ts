@@ -1,0 +1,1 @@
+export { runSearch, type RunSearchOptions, type RunSearchResult, type SearchProgress } from './search-pool.ts';

@@ -1,0 +1,18 @@
+// What the search pool and its workers say to each other (structured clone).
+
+import type { BranchPrefix, SearchPartial, SearchSettings, SubsetProblem } from '../../core/search/index.ts';
+
+export type SearchTask =
+  | { kind: 'exhaustive'; id: number; problem: SubsetProblem; settings: SearchSettings; from: number; to: number }
+  | {
+      kind: 'branchAndBound';
+      id: number;
+      problem: SubsetProblem;
+      settings: SearchSettings;
+      prefix: BranchPrefix;
+      /** Int32 node counter shared by every task of one search, for the node budget. */
+      nodeCounter: SharedArrayBuffer;
+      maxNodes: number;
+    };
+
+export type SearchReply = { id: number; ok: true; partial: SearchPartial } | { id: number; ok: false; error: string };

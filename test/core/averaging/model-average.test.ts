@@ -1,0 +1,71 @@
+import t from 'tap';
+import { averageModels } from '../../../src/core/averaging/index.ts';
+
+const close = (a: number | null, b: number, tol = 1e-12) => a !== null && Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
+
+// Worked by hand (Burnham & Anderson 2002 definitions): three models with
+// weights 0.5, 0.3, 0.2; term x is in models 1 (b = 2, se = 0.5) and
+// 2 (b = 3, se = 1), absent from model 3.
+//   importance = 0.5 + 0.3 = 0.8
+//   full average: bbar = 0.5*2 + 0.3*3 + 0.2*0 = 1.9
+//     eq. 6.12: 0.5(0.25 + 0.01) + 0.3(1 + 1.21) + 0.2(0 + 3.61) = 1.515, se = sqrt(1.515)
+//     eq. 4.9:  0.5 sqrt(0.26) + 0.3 sqrt(2.21) + 0.2 sqrt(3.61)
+//   over models with x: weights 0.625, 0.375; bbar = 1.25 + 1.125 = 2.375
+//     eq. 6.12: 0.625(0.25 + 0.140625) + 0.375(1 + 0.390625) = 0.765625, se = 0.875
+//     eq. 4.9:  0.625 sqrt(0.390625) + 0.375 sqrt(1.390625) = 0.625*0.625 + 0.375*1.179248...
+// The intercept is in all three (4, 5, 6 with se 1, 1, 2):
+//   bbar = 2 + 1.5 + 1.2 = 4.7; eq. 6.12: 0.5(1 + 0.49) + 0.3(1 + 0.09) + 0.2(4 + 1.69) = 0.745 + 0.327 + 1.138 = 2.21
+const models = [
+  { name: 'm1', weight: 0.5, coefficients: [{ term: '(intercept)', estimate: 4, standardError: 1 }, { term: 'x', estimate: 2, standardError: 0.5 }] },
+  { name: 'm2', weight: 0.3, coefficients: [{ term: '(intercept)', estimate: 5, standardError: 1 }, { term: 'x', estimate: 3, standardError: 1 }] },
+  { name: 'm3', weight: 0.2, coefficients: [{ term: '(intercept)', estimate: 6, standardError: 2 }, { term: 'x', estimate: null, standardError: null }] },
+];
+
+t.test('averaged estimates and unconditional standard errors match the hand computation', async (t) => {
+  const avg = averageModels(models, 'eq6.12');
+  const x = avg.terms.find((r) => r.term === 'x')!;
+  t.ok(close(x.importance, 0.8));
+  t.ok(close(x.estimate, 1.9));
+  t.ok(close(x.unconditionalStandardError, Math.sqrt(1.515)));
+  t.ok(close(x.overModelsWithTerm.estimate, 2.375));
+  t.ok(close(x.overModelsWithTerm.unconditionalStandardError, 0.875));
+  const b0 = avg.terms.find((r) => r.term === '(intercept)')!;
+  t.ok(close(b0.importance, 1));
+  t.ok(close(b0.estimate, 4.7));
+  t.ok(close(b0.unconditionalStandardError, Math.sqrt(2.21)));
+  t.match(avg.estimatorDescription, /6\.12/);
+
+  const first = averageModels(models, 'eq4.9').terms.find((r) => r.term === 'x')!;
+  t.ok(close(first.unconditionalStandardError, 0.5 * Math.sqrt(0.26) + 0.3 * Math.sqrt(2.21) + 0.2 * Math.sqrt(3.61)));
+  t.ok(close(first.overModelsWithTerm.unconditionalStandardError, 0.625 * 0.625 + 0.375 * Math.sqrt(1.390625)));
+});
+
+t.test('weights are renormalised over the models passed in', async (t) => {
+  const scaled = models.map((m) => ({ ...m, weight: m.weight * 7 }));
+  const a = averageModels(models).terms;
+  const b = averageModels(scaled).terms;
+  a.forEach((r, k) => {
+    t.ok(close(b[k].estimate, r.estimate));
+    t.ok(close(b[k].unconditionalStandardError, r.unconditionalStandardError!));
+    t.ok(close(b[k].importance, r.importance));
+  });
+});
+
+t.test('averaged predictions use the same weights and estimator; missing pieces are reported', async (t) => {
+  const withPredictions = models.map((m, k) => ({ ...m, predictions: [{ estimate: [10, 11, 13][k], standardError: [1, 2, 1][k] }] }));
+  const avg = averageModels(withPredictions);
+  // bbar = 5 + 3.3 + 2.6 = 10.9; eq. 6.12: 0.5(1 + 0.81) + 0.3(4 + 0.01) + 0.2(1 + 4.41) = 3.19 (by hand)
+  t.ok(close(avg.predictions[0].estimate, 10.9));
+  t.ok(close(avg.predictions[0].standardError, Math.sqrt(3.19)));
+  const broken = averageModels(withPredictions.map((m, k) => (k === 1 ? { ...m, predictions: [{ estimate: null, standardError: null }] } : m)));
+  t.equal(broken.predictions[0].estimate, null);
+  t.same(broken.issues.map((i) => i.code), ['averaging-prediction-missing']);
+  t.same(averageModels([{ ...models[0], weight: 0 }]).issues.map((i) => i.code), ['averaging-weights-invalid']);
+});
+
+t.test('a model without a standard error makes the unconditional one null, not wrong', async (t) => {
+  const avg = averageModels([models[0], { ...models[1], coefficients: [{ term: 'x', estimate: 3, standardError: null }] }]);
+  const x = avg.terms.find((r) => r.term === 'x')!;
+  t.ok(close(x.estimate, (0.5 * 2 + 0.3 * 3) / 0.8));
+  t.equal(x.unconditionalStandardError, null);
+});
