@@ -68,7 +68,7 @@ function leaningSentence(present: Set<CriterionName>, n: number | null): string 
   const known = n !== null && n > 1;
   const charges: { name: CriterionName; text: string; order: number }[] = [];
   const fmt = (x: number) => x.toFixed(2);
-  if (present.has('adjustedR2')) charges.push({ name: 'adjustedR2', text: 'adjusted R² about 1', order: 1 });
+  if (present.has('adjustedR2')) charges.push({ name: 'adjustedR2', text: 'adjusted R² about n/(n - p), near 1 unless n is small', order: 1 });
   if (present.has('aic')) charges.push({ name: 'aic', text: 'AIC 2', order: 2 });
   if (present.has('aicc')) charges.push({ name: 'aicc', text: 'AICc a little over 2', order: 2.0001 });
   if (present.has('hqc')) {

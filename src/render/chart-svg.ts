@@ -56,7 +56,8 @@ function subtitle(content: ChartContent): string {
 function drawHeading(record: StoredComparisonView, content: ChartContent, layout: ChartLayout): string {
   const usable = layout.width - 2 * layout.pad;
   const legend = layout.legendLines.map((line, i) =>
-    textElement('tspan', { x: layout.pad, y: layout.legendY + i * layout.legendLineHeight }, line),
+    // The space between wrapped lines stays in the text, so copied or spoken text reads as one sentence.
+    textElement('tspan', { x: layout.pad, y: layout.legendY + i * layout.legendLineHeight }, i < layout.legendLines.length - 1 ? `${line} ` : line),
   );
   return [
     textElement('text', { x: layout.pad, y: layout.titleY, 'font-size': layout.font * 1.15, 'font-weight': 'bold', fill: palette.ink }, truncateToWidth(chartTitle(record, content), usable, layout.font * 1.25)),

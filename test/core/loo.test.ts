@@ -3,7 +3,7 @@ import longley from '../../../shared/reference/nist-strd-lls/longley.json' with 
 import norris from '../../../shared/reference/nist-strd-lls/norris.json' with { type: 'json' };
 import pontius from '../../../shared/reference/nist-strd-lls/pontius.json' with { type: 'json' };
 import { leaveOneOutError, leverages, rankByLeaveOneOut } from '../../src/core/loo.ts';
-import { designWithIntercept, makeDesign, referenceFit } from './inference/reference-fit.ts';
+import { designWithIntercept, makeDesign, referenceFit, SOLVERS } from './inference/reference-fit.ts';
 import type { DesignMatrix } from '../../src/core/types.ts';
 
 /** PRESS by definition: refit without row i, predict row i (Allen 1974). */
@@ -38,12 +38,12 @@ const cases: { name: string; design: DesignMatrix; y: number[]; w?: number[] }[]
 ];
 
 t.test('PRESS from the hat matrix equals brute-force leave-one-out refits', async (t) => {
-  for (const c of cases) {
-    const fit = referenceFit(c.design, c.y, c.w);
+  for (const [solver, fitWith] of SOLVERS) for (const c of cases) {
+    const fit = fitWith(c.design, c.y, c.w);
     const loo = leaveOneOutError(fit, c.design, c.w);
     const reference = bruteForcePress(c.design, c.y, c.w);
     const relative = Math.abs(loo.press! - reference) / reference;
-    t.ok(relative < 1e-9, `${c.name}: press ${loo.press} vs refits ${reference} (relative ${relative.toExponential(2)})`);
+    t.ok(relative < 1e-9, `${solver}, ${c.name}: press ${loo.press} vs refits ${reference} (relative ${relative.toExponential(2)})`);
     t.ok(Math.abs(loo.looRmse! - Math.sqrt(reference / c.design.rows)) / loo.looRmse! < 1e-9);
     // Leverages sum to the rank (trace of the hat matrix; common practice).
     const trace = leverages(fit, c.design, c.w).reduce((a, b) => a + b, 0);

@@ -8,7 +8,8 @@
 // fit with rank 0, sigma null or exactFit true, for the caller to judge.
 
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
-import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, type DD } from '../numeric/double-double.ts';
+import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, twoProduct, type DD } from '../numeric/double-double.ts';
+import { sumSquaresDD } from '../numeric/dd-vector.ts';
 import { equilibrate } from './equilibration.ts';
 import { householderQR } from './householder-qr.ts';
 import { MAX_REFINEMENT_STEPS, refineLeastSquares } from './refinement.ts';
@@ -73,29 +74,29 @@ export function fitLeastSquares(
   const residuals = new Float64Array(n);
   const fitted = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    let e: DD;
     const positive = eq.sh ? eq.sh[i] > 0 : true;
-    if (positive) {
-      e = eq.sh
-        ? ddDiv(sol.rh[i] / c, sol.rl[i] / c, eq.sh[i], eq.sl![i])
-        : [sol.rh[i] / c, sol.rl[i] / c];
+    if (positive && !eq.sh) {
+      residuals[i] = (sol.rh[i] + sol.rl[i]) / c;
+    } else if (positive) {
+      // (rh + rl) / (sh + sl) to double accuracy: q + (rh - q sh + rl - q sl) / sh,
+      // with rh - q sh exact via twoProduct.
+      const sh = eq.sh![i];
+      const q = sol.rh[i] / sh;
+      const [ph, pl] = twoProduct(q, sh);
+      residuals[i] = (q + (sol.rh[i] - ph - pl + sol.rl[i] - q * eq.sl![i]) / sh) / c;
     } else {
-      e = [y[i], 0];
+      let e: DD = [y[i], 0];
       for (const [j, [bh, bl]] of beta) {
         const [ph, pl] = ddMul(design.high[j][i], design.low[j][i], bh, bl);
         e = ddSub(e[0], e[1], ph, pl);
       }
+      residuals[i] = e[0];
     }
-    residuals[i] = e[0];
-    fitted[i] = ddSub(y[i], 0, e[0], e[1])[0];
+    fitted[i] = y[i] - residuals[i];
   }
 
-  // rss = ||r||^2 / c^2 and tss, both in double-double.
-  let rssDD: DD = [0, 0];
-  for (let i = 0; i < n; i++) {
-    const [ph, pl] = ddMul(sol.rh[i], sol.rl[i], sol.rh[i], sol.rl[i]);
-    rssDD = ddAdd(rssDD[0], rssDD[1], ph, pl);
-  }
+  // rss = ||r||^2 / c^2 (c a power of two), in double-double.
+  const rssDD = sumSquaresDD(sol.rh, sol.rl);
   const rss = rssDD[0] / (c * c);
   const tss = totalSumOfSquares(design.intercept, y, weights, eq.weightTotal);
   const dof = eq.positiveRows - qr.rank;

@@ -2,13 +2,13 @@ import t from 'tap';
 import longley from '../../../../shared/reference/nist-strd-lls/longley.json' with { type: 'json' };
 import pontius from '../../../../shared/reference/nist-strd-lls/pontius.json' with { type: 'json' };
 import { nestedTest, nestedTests, nestingOrder, type NestedCandidate } from '../../../src/core/inference/nested.ts';
-import { designWithIntercept, makeDesign, referenceFit } from './reference-fit.ts';
+import { designWithIntercept, makeDesign, projectFit, referenceFit } from './reference-fit.ts';
 import type { DesignMatrix } from '../../../src/core/types.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 function candidate(name: string, design: DesignMatrix, y: number[], weights?: number[], sample = 'y'): NestedCandidate {
-  return { name, labels: design.labels, fit: referenceFit(design, y, weights), sample };
+  return { name, labels: design.labels, fit: projectFit(design, y, weights), sample };
 }
 
 function interceptOnly(n: number): DesignMatrix {

@@ -5,6 +5,7 @@
 // well-conditioned problems the tests use.
 import { Matrix, QrDecomposition, SingularValueDecomposition, inverse } from 'ml-matrix';
 import type { DesignMatrix, LeastSquaresFit } from '../../../src/core/types.ts';
+import { fitLeastSquares } from '../../../src/core/fit/index.ts';
 
 export function makeDesign(labels: string[], columns: number[][], intercept: boolean): DesignMatrix {
   const rows = columns[0].length;
@@ -82,3 +83,13 @@ export function referenceFit(design: DesignMatrix, y: number[], weights?: number
     refinement: { steps: 0, lastCorrection: 0 },
   };
 }
+
+/** The project's solver under the same call shape, for running each check against both fits. */
+export function projectFit(design: DesignMatrix, y: number[], weights?: number[]): LeastSquaresFit {
+  return fitLeastSquares(design, Float64Array.from(y), weights ? Float64Array.from(weights) : undefined);
+}
+
+export const SOLVERS = [
+  ['reference (ml-matrix QR)', referenceFit],
+  ['fitLeastSquares', projectFit],
+] as const;

@@ -17,9 +17,9 @@ t.test('twoSum and twoProduct are error-free (Knuth; Dekker 1971)', async (t) =>
   t.same(twoProduct(2 ** 53 - 1, 2 ** 53 - 1), [2 ** 106 - 2 ** 54, 1]);
   // (2^27 + 1)(2^27 - 1) = 2^54 - 1, which is not a double: rounds to 2^54, error -1.
   t.same(twoProduct(2 ** 27 + 1, 2 ** 27 - 1), [2 ** 54, -1]);
-  // 3^34 * 3^34 = 3^68 has 108 bits; hi + lo must equal it exactly.
-  // 3^68 = 278128389443693511257285776231761 (integer arithmetic, BigInt check below).
-  const a = 3 ** 34; // 16677181699666569 < 2^54, exact? 3^34 needs 54 bits, so check with BigInt.
+  // The square of a 54-bit-range double (3^34 rounded) has ~108 bits; hi + lo
+  // must equal the exact product of the doubles (checked in BigInt).
+  const a = 3 ** 34;
   const [p, e] = twoProduct(a, a);
   t.equal(BigInt(p) + BigInt(e), BigInt(a) * BigInt(a), 'exact as BigInt');
   // Random-ish integer pairs beyond 2^53 products: compare against BigInt.

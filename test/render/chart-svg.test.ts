@@ -1,0 +1,147 @@
+import t from 'tap';
+import { parseChartOptions } from '../../src/render/chart-options.ts';
+import { renderChartSvg } from '../../src/render/chart-svg.ts';
+import type { StoredComparisonView } from '../../src/render/types.ts';
+import { fixtureRecord, kilnRecord, type FixtureModel } from './fixture-record.ts';
+import { summariseSvg, type SvgSummary } from './parse-with-python.ts';
+
+function draw(record: StoredComparisonView, query: Record<string, unknown> = {}): { svg: string; parsed: SvgSummary } {
+  const options = parseChartOptions(query, record);
+  if (!options.ok) throw new Error(JSON.stringify(options.issues));
+  const svg = renderChartSvg(record, options.options);
+  return { svg, parsed: summariseSvg(svg) };
+}
+
+const marked = (p: SvgSummary, cls: string) => (p.marked ?? []).filter((m) => m.class === cls);
+
+t.test('parses as XML, titled and described in words', async (t) => {
+  const { parsed } = draw(kilnRecord());
+  t.ok(parsed.wellFormed, parsed.error);
+  t.equal(parsed.root, 'svg');
+  t.equal(parsed.rootAttributes?.xmlns, 'http://www.w3.org/2000/svg');
+  t.equal(parsed.firstChild, 'title', 'the title comes first, as SVG 2 accessibility asks');
+  t.equal(parsed.title, 'Ranking by AICc: kiln trial, March');
+  t.match(parsed.desc, /Best by AICc: quadratic\./);
+  t.match(parsed.desc, /linear: Δ 3\.29 \(between bands\), weight 10\.8%/);
+  t.match(parsed.desc, /BIC prefers quadratic; HQC prefers quadratic; adjusted R² prefers by-kiln\. The criteria disagree: 2 different models/);
+  t.equal(parsed.rootAttributes?.role, 'img');
+});
+
+t.test('one Δ bar and one weight bar per model, in ranking order, values written as text', async (t) => {
+  const record = kilnRecord();
+  const { parsed } = draw(record);
+  const bars = marked(parsed, 'delta-bar');
+  t.same(bars.map((b) => b.data.model), record.result.rankings.aicc!.map((e) => e.name));
+  t.equal(bars.length, record.result.models.length);
+  t.same(bars.map((b) => b.data.delta), record.result.rankings.aicc!.map((e) => e.delta!.toFixed(2)));
+  t.equal(marked(parsed, 'weight-bar').length, record.result.models.length);
+  t.ok(parsed.texts?.includes('55.7%'), 'the best weight as text');
+  t.ok(parsed.texts?.some((s) => s.startsWith('3.29')), 'a Δ value as text');
+  // Δ of hold-only (38.14) is beyond the axis: drawn broken, value still written.
+  t.equal(marked(parsed, 'axis-break').length, 1);
+  t.ok(parsed.texts?.includes('38.14'));
+});
+
+t.test('band lines at 2, 4, 7 and 10 with their wording; none for adjusted R²', async (t) => {
+  const { parsed } = draw(kilnRecord());
+  t.same(marked(parsed, 'band-line').map((l) => l.data.at), ['2', '4', '7', '10']);
+  const legend = marked(parsed, 'band-legend')[0].text;
+  t.match(legend, /Up to 2: about as good as the best/);
+  t.match(legend, /4 to 7: clearly weaker/);
+  t.match(legend, /over 10: hardly any support/);
+  t.match(legend, /between bands/);
+  const adjusted = draw(kilnRecord(), { criterion: 'adjustedR2' }).parsed;
+  t.equal(marked(adjusted, 'band-line').length, 0);
+  t.equal(marked(adjusted, 'weight-bar').length, 0, 'adjusted R² has no weights to draw');
+  t.equal(marked(adjusted, 'delta-bar').length, 5);
+  t.match(marked(adjusted, 'band-legend')[0].text, /No weights are defined/);
+});
+
+t.test('the strip names the model each criterion prefers and marks disagreement without colour', async (t) => {
+  const { parsed } = draw(kilnRecord());
+  const cells = marked(parsed, 'strip-cell');
+  t.same(cells.map((c) => [c.data.criterion, c.data.model]), [
+    ['aicc', 'quadratic'], ['aic', 'by-kiln'], ['bic', 'quadratic'], ['hqc', 'quadratic'], ['adjustedR2', 'by-kiln'],
+  ]);
+  // Same model, same swatch; a different model, a different patterned swatch.
+  t.same(cells.map((c) => c.data.group), ['0', '1', '0', '0', '1']);
+  t.ok(parsed.tags?.includes('pattern'), 'the second model gets a pattern, which survives grey printing');
+  t.ok(parsed.texts?.includes('Preferred model by criterion: 2 different models'));
+
+  const agreeing = fixtureRecord([
+    { name: 'linear', rss: 3.0, parameters: 3 },
+    { name: 'quadratic', rss: 2.98, parameters: 4 },
+  ]);
+  const calm = draw(agreeing).parsed;
+  t.same(marked(calm, 'strip-cell').map((c) => c.data.group), ['0', '0', '0', '0', '0']);
+  t.notOk(calm.tags?.includes('pattern'));
+  t.ok(calm.texts?.includes('Preferred model by criterion: all agree'));
+});
+
+t.test('identical bytes for the same record and options, also from a copy of the record', async (t) => {
+  const a = draw(kilnRecord()).svg;
+  t.equal(draw(kilnRecord()).svg, a);
+  t.equal(renderChartSvg(structuredClone(kilnRecord()), { criterion: 'aicc', width: 720, height: null }), a);
+  t.not(draw(kilnRecord(), { criterion: 'bic' }).svg, a, 'another criterion is another picture');
+});
+
+t.test('a model with no finite criterion is drawn as "no value"', async (t) => {
+  // n = 8 observations and k = 7: n - k - 1 = 0, so AICc does not exist (api.md conventions).
+  const record = fixtureRecord([
+    { name: 'linear', rss: 3.1, parameters: 3 },
+    { name: 'saturated', rss: 0.4, parameters: 7 },
+  ], { n: 8 });
+  t.equal(record.result.models[1].aicc, null);
+  const { parsed } = draw(record, { criterion: 'aicc' });
+  const bars = marked(parsed, 'delta-bar');
+  t.same(bars.map((b) => b.data.model), ['linear', 'saturated']);
+  t.equal(bars[1].data.delta, 'none');
+  t.equal(bars[1].text, 'no value');
+  t.equal(bars[1].rects.length, 0, 'no bar drawn for a missing value');
+  t.match(parsed.desc, /saturated: Δ no value/);
+});
+
+t.test('one model', async (t) => {
+  const { parsed } = draw(fixtureRecord([{ name: 'linear', rss: 3.1, parameters: 3 }]), { size: 'tile' });
+  t.ok(parsed.wellFormed);
+  t.equal(marked(parsed, 'delta-bar').length, 1);
+  t.ok(parsed.texts?.includes('100.0%'));
+});
+
+t.test('fifty models fit the requested height, every bar inside the drawing', async (t) => {
+  const models: FixtureModel[] = Array.from({ length: 50 }, (_, i) => ({ name: `subset-${String(i + 1).padStart(2, '0')}`, rss: 3 + i * 0.05, parameters: 3 + (i % 5) }));
+  for (const height of [600, 200]) {
+    const { parsed } = draw(fixtureRecord(models), { width: '800', height: String(height) });
+    t.ok(parsed.wellFormed);
+    t.equal(marked(parsed, 'delta-bar').length, 50);
+    const viewBox = parsed.rootAttributes!.viewBox.split(' ').map(Number);
+    t.equal(Number(parsed.rootAttributes!.height), height, 'the requested height is kept');
+    const lowest = Math.max(...marked(parsed, 'delta-bar').flatMap((b) => b.rects.map((r) => r.y + r.height)));
+    t.ok(lowest <= viewBox[3], `bars end at ${lowest}, inside ${viewBox[3]}`);
+  }
+});
+
+t.test('a long name is shortened with an ellipsis, the full name kept in the bar\'s title', async (t) => {
+  const long = 'peakTemp + holdMinutes + moisture + kiln + peakTemp:kiln + moisture:holdMinutes + peakTemp^2';
+  const { parsed } = draw(fixtureRecord([{ name: long, rss: 3.1, parameters: 9 }, { name: 'linear', rss: 3.3, parameters: 3 }]), { size: 'tile' });
+  const row = marked(parsed, 'model-row').find((r) => r.data.model === long)!;
+  t.ok(row, 'row found by its full name');
+  const bar = marked(parsed, 'delta-bar').find((b) => b.data.model === long)!;
+  t.match(bar.title, new RegExp(`^${long.replace(/[+^]/g, '\\$&')}: Δ AICc`));
+  const shown = parsed.texts!.find((s) => s.startsWith('peakTemp + ') && s.endsWith('…'));
+  t.ok(shown, `truncated label ${shown}`);
+  t.ok(shown!.length < long.length);
+});
+
+t.test('names carrying markup are text, never elements', async (t) => {
+  const names = ['<script>alert(1)</script>', '"><image href="x"/>', 'a & b', "it's\u0001odd"];
+  const record = fixtureRecord(names.map((name, i) => ({ name, rss: 3 + i * 0.2, parameters: 3 })), { label: '<b>label</b> & co' });
+  const { svg, parsed } = draw(record);
+  t.ok(parsed.wellFormed, parsed.error);
+  t.notOk(parsed.tags?.includes('script'));
+  t.notOk(parsed.tags?.includes('image'));
+  t.notOk(parsed.tags?.includes('b'));
+  t.notMatch(svg, /<script/);
+  t.same(marked(parsed, 'delta-bar').map((b) => b.data.model).sort(), ['"><image href="x"/>', '<script>alert(1)</script>', 'a & b', "it's\uFFFDodd"].sort());
+  t.equal(parsed.title, 'Ranking by AICc: <b>label</b> & co');
+});

@@ -1,0 +1,120 @@
+import t from 'tap';
+import { renderChartSvg } from '../../src/render/chart-svg.ts';
+import { renderReportHtml, reportContentSecurityPolicy } from '../../src/render/report-html.ts';
+import { standingCaution } from '../../src/render/report-extras.ts';
+import { fixtureRecord, kilnRecord } from './fixture-record.ts';
+import { summariseHtml } from './parse-with-python.ts';
+
+t.test('self-contained: no scripts, nothing fetched, a strict content security policy', async (t) => {
+  const html = renderReportHtml(kilnRecord());
+  t.match(html, /^<!DOCTYPE html>\n<html lang="en">/);
+  t.notMatch(html, /<script/i);
+  t.notMatch(html, /\son[a-z]+\s*=/i, 'no inline event handlers');
+  // Every src/href is a data: URL or a fragment; every CSS url() points inside the page.
+  for (const m of html.matchAll(/\s(?:src|href)="([^"]*)"/g)) t.match(m[1], /^(data:|#)/, `link ${m[1]}`);
+  for (const m of html.matchAll(/url\(([^)]*)\)/g)) t.match(m[1], /^#/, `css url ${m[1]}`);
+  t.notMatch(html, /@import/);
+  t.ok(html.includes(`<meta http-equiv="Content-Security-Policy" content="${reportContentSecurityPolicy}">`));
+  t.match(reportContentSecurityPolicy, /default-src 'none'/);
+  t.match(html, /@media print/);
+});
+
+t.test('a row per model in the models table and in every ranking table', async (t) => {
+  const record = kilnRecord();
+  const parsed = summariseHtml(renderReportHtml(record));
+  const names = record.result.models.map((m) => m.name);
+  const byTable = (table: string) => parsed.rows.filter((r) => r.table === table).map((r) => r.model);
+  t.same(byTable('models'), names);
+  for (const criterion of ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2']) {
+    t.same(byTable(criterion).sort(), [...names].sort(), `${criterion} ranking lists every model`);
+  }
+  // The model's name is the row's visible text too, not only its attribute.
+  const models = parsed.rows.filter((r) => r.table === 'models');
+  t.same(models.map((r) => r.cells[0]), names);
+  const aicc = parsed.rows.filter((r) => r.table === 'aicc');
+  t.same(aicc[2].cells.slice(0, 5), ['3', 'linear', '29.066', '3.29', 'between bands']);
+});
+
+t.test('the job in one line, data set, conventions, chain position and how to verify it', async (t) => {
+  const record = kilnRecord();
+  const text = summariseHtml(renderReportHtml(record)).text;
+  t.match(text, /Compared 5 candidate models of shrinkage on 40 observations \(2 rows with missing values left out\); by AICc the best is quadratic, but the criteria disagree\./);
+  t.match(text, /fingerprint\s*sha256:c{64}/);
+  t.match(text, /parameterCount\s*coefficients plus error variance/);
+  t.match(text, /record 17/);
+  t.ok(text.includes(record.hash) && text.includes(record.prevHash!));
+  t.match(text, /GET \/v1\/audit\/verify/);
+  t.match(text, /GET \/v1\/comparisons\/cmp_0001/);
+});
+
+t.test('the hashing rule is a parameter, written as given', async (t) => {
+  const html = renderReportHtml(kilnRecord(), {
+    chain: { verifyPath: '/v1/audit/verify', algorithm: 'SHA-256', hashedInput: 'the bytes P || C where P is prevHash & C the canonical JSON', encoding: 'lower-case hex' },
+  });
+  t.ok(html.includes('its hash is SHA-256 over the bytes P || C where P is prevHash &amp; C the canonical JSON, written in lower-case hex.'));
+});
+
+t.test('the first record of a chain says it has no predecessor', async (t) => {
+  const record = kilnRecord();
+  record.prevHash = null;
+  t.match(summariseHtml(renderReportHtml(record)).text, /none: this is the first record/);
+});
+
+t.test('the chart is inlined as given; without one it is drawn with the record\'s criterion', async (t) => {
+  const record = kilnRecord();
+  const chart = renderChartSvg(record, { criterion: 'bic', width: 600, height: null });
+  const html = renderReportHtml(record, { chartSvg: chart });
+  t.ok(html.includes(chart.trim()));
+  t.equal(html.split('<svg').length - 1, 1);
+  t.match(renderReportHtml(record), /<svg[^>]*data-criterion="aicc"/);
+});
+
+t.test('cautions: the standing one always, the record\'s and each model\'s with their facts', async (t) => {
+  const plain = summariseHtml(renderReportHtml(kilnRecord())).text;
+  t.ok(plain.includes(standingCaution));
+  t.match(standingCaution, /do not show that any of them is valid/);
+  t.match(standingCaution, /defer to review/);
+  const record = kilnRecord();
+  record.result.cautions = ['A candidate was fitted on a log scale.'];
+  record.result.models[3].cautions = [{ code: 'high_leverage', message: 'one row has high leverage', row: 12, leverage: 0.61 }];
+  const text = summariseHtml(renderReportHtml(record)).text;
+  t.match(text, /A candidate was fitted on a log scale\./);
+  t.match(text, /with-moisture: one row has high leverage \(row 12; leverage 0\.61\)/);
+});
+
+t.test('nested tests, averaged estimates and diagnostics appear only when present', async (t) => {
+  const bare = renderReportHtml(kilnRecord());
+  for (const id of ['nested', 'averaged', 'diagnostics']) t.notMatch(bare, new RegExp(`id="${id}"`));
+  const record = kilnRecord();
+  record.result.nestedTests = [{ smaller: 'linear', larger: 'quadratic', df: 1, fStatistic: 5.4, fPValue: 0.0258, lrStatistic: 5.6, lrPValue: 0.00001 }];
+  record.result.averaged = { terms: [{ term: 'peakTemp', estimate: 0.0121, unconditionalStandardError: 0.0025, importance: 1 }], predictions: [{ estimate: 1.2, standardError: 0.1 }] };
+  record.result.models[0].diagnostics = { durbinWatson: 1.93, largestLeverage: { row: 4, value: 0.31 } };
+  const html = renderReportHtml(record);
+  const text = summariseHtml(html).text;
+  for (const id of ['nested', 'averaged', 'diagnostics']) t.match(html, new RegExp(`id="${id}"`));
+  t.match(text, /linearquadratic15\.40\.02585\.6<0\.0001/, 'nested test row: df, F, p, LR, p');
+  t.match(text, /peakTemp0\.01210\.00251/);
+  t.match(text, /durbinWatson: 1\.93/);
+});
+
+t.test('names and labels with markup are shown as text, never run', async (t) => {
+  const hostile = '<img src=x onerror=alert(1)><script>alert(2)</script>';
+  const record = fixtureRecord([
+    { name: hostile, rss: 3.1, parameters: 3 },
+    { name: '" data-x="1', rss: 3.2, parameters: 4 },
+    { name: 'a & b\u0007', rss: 3.3, parameters: 3 },
+  ], { label: '</title><script>alert(3)</script>' });
+  record.result.cautions = [hostile];
+  const html = renderReportHtml(record);
+  const parsed = summariseHtml(html);
+  t.notOk(parsed.startTags.includes('script'));
+  t.notOk(parsed.startTags.includes('img'));
+  t.same(parsed.rows.filter((r) => r.table === 'models').map((r) => r.model), [hostile, '" data-x="1', 'a & b\uFFFD']);
+  t.same(parsed.rows.filter((r) => r.table === 'models').map((r) => r.cells[0]), [hostile, '" data-x="1', 'a & b\uFFFD']);
+  t.equal(parsed.title, '</title><script>alert(3)</script> · parsimetry report');
+  t.ok(parsed.text.includes(hostile), 'the caution reads as written');
+});
+
+t.test('identical bytes for the same record', async (t) => {
+  t.equal(renderReportHtml(kilnRecord()), renderReportHtml(structuredClone(kilnRecord())));
+});
