@@ -6,6 +6,12 @@
 // system with double-double residuals -> covariance -> exact map back to the
 // caller's basis. Pure: never throws on numerical input; degenerate inputs give a
 // fit with rank 0, sigma null or exactFit true, for the caller to judge.
+//
+// Preconditions the caller checks (violations give NaN, not a throw): design and
+// y finite; weights, when given, are relative weights >= 0 (a weight that is not
+// a positive finite number takes its row out of the fit, as a zero weight does).
+// The intercept column (termOfColumn -1, a constant column) is factorised first
+// wherever the caller put it.
 
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
 import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, twoProduct, type DD } from '../numeric/double-double.ts';
@@ -20,10 +26,10 @@ import { isExactFit } from './exact-fit.ts';
 
 /**
  * Relative remaining-norm threshold for aliasing. NIST Filip's smallest relative
- * remaining norm after centring is ~6e-8 and must stay full rank; exactly
- * collinear columns (dummies plus intercept, x and 2x, degrees C and K) leave
- * ~1e-15. 1e-10 sits between them with a margin of ~1e3 on the Filip side and
- * ~1e5 on the collinear side.
+ * remaining norm after centring is 6.06e-8 (measured) and must stay full rank;
+ * exactly collinear columns (dummies plus intercept, x and 2x, degrees C and K)
+ * leave 2e-16 to 4e-16 (measured on Norris). 1e-10 sits between them with a
+ * margin of ~600 on the Filip side and ~1e5 on the collinear side.
  */
 export const ALIAS_TOLERANCE = 1e-10;
 
@@ -40,7 +46,7 @@ export interface FitOptions {
   covariance?: CovarianceRoute;
 }
 
-export { ALIAS_TOLERANCE as DEFAULT_ALIAS_TOLERANCE, MAX_REFINEMENT_STEPS };
+export { MAX_REFINEMENT_STEPS };
 
 export function fitLeastSquares(
   design: DesignMatrix,

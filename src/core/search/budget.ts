@@ -3,7 +3,7 @@
 // count while it runs). The work of one subset is one block sweep, about d^2
 // multiply-adds for d design columns plus the response.
 
-import { MAX_EXHAUSTIVE_TERMS } from './gray-search.ts';
+import { MAX_EXHAUSTIVE_TERMS } from './counting-search.ts';
 import type { SubsetProblem } from './types.ts';
 
 export interface SearchBudget {

@@ -1,3 +1,6 @@
+// The Gray-code walk, kept as the baseline of scripts/bench-search.ts and
+// for well-conditioned pools; the service scores with counting-search.ts,
+// which is as fast and keeps a fresh sweep's accuracy (see there).
 // Exhaustive scoring of the subsets at Gray-code steps [from, to): one block
 // sweep (in or out) per step, O(d^2) each, independent of the row count.
 // Sweeping in and out accumulates rounding, so the state is rebuilt from the
@@ -14,8 +17,7 @@ import type { SearchPartial, SearchSettings, SubsetProblem } from './types.ts';
 
 export const REFRESH_STEPS = 1024;
 
-/** Largest pool the exhaustive walk addresses (31-bit step indices). */
-export const MAX_EXHAUSTIVE_TERMS = 30;
+import { MAX_EXHAUSTIVE_TERMS } from './counting-search.ts';
 
 export function scoreGrayRange(
   problem: SubsetProblem,

@@ -2,7 +2,8 @@
 export type { SearchCriterion, SearchPartial, SearchSettings, ScoredSubset, SubsetProblem, WeightSumsData } from './types.ts';
 export { hierarchyRules, noHierarchy, type HierarchyRules } from './hierarchy.ts';
 export { subsetProblemFromDesign, subsetProblemFromSummary, type SummarySearchSpec, type ProblemOutcome } from './problem.ts';
-export { scoreGrayRange, REFRESH_STEPS, MAX_EXHAUSTIVE_TERMS } from './gray-search.ts';
+export { scoreGrayRange, REFRESH_STEPS } from './gray-search.ts';
+export { scoreSubsetRange, MAX_EXHAUSTIVE_TERMS } from './counting-search.ts';
 export { branchAndBound, branchOrder, type BranchPrefix } from './branch-and-bound.ts';
 export { finishSearch, type SearchOutcome, type RankedSubset, type SearchMethod } from './result.ts';
 export { planSearch, nodeBudgetIssue, DEFAULT_SEARCH_BUDGET, type SearchBudget, type SearchPlan, type BudgetIssue } from './budget.ts';

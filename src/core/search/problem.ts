@@ -10,6 +10,7 @@
 import { summariseRows } from '../summary/summarise.ts';
 import type { DataSummary, SummaryIssue } from '../summary/types.ts';
 import type { DesignMatrix } from '../types.ts';
+import type { HierarchyRules } from './hierarchy.ts';
 import type { SubsetProblem } from './types.ts';
 
 export interface SummarySearchSpec {
@@ -19,6 +20,7 @@ export interface SummarySearchSpec {
   /** Summary columns of the always terms. */
   always: string[];
   intercept: boolean;
+  /** From hierarchyRules: requires, and the unreachable terms as blocked. */
   requires?: number[][];
   blocked?: number[];
 }
@@ -94,7 +96,7 @@ export function subsetProblemFromDesign(
   response: Float64Array,
   weights: Float64Array | null,
   poolSize: number,
-  rules?: { requires: number[][]; blocked: number[] },
+  rules?: HierarchyRules,
 ): SubsetProblem {
   const columns: Float64Array[] = [];
   const names: string[] = [];
@@ -121,7 +123,7 @@ export function subsetProblemFromDesign(
     always,
     intercept: design.intercept,
     requires: rules?.requires,
-    blocked: rules?.blocked,
+    blocked: rules?.unreachable.map((u) => u.term),
   });
   if (!outcome.ok) throw new Error('design columns missing from their own summary'); // unreachable: names made above
   return outcome.problem;

@@ -23,7 +23,7 @@ const dataArb = fc.integer({ min: 12, max: 40 }).chain((n) =>
     noise: fc.array(decimal(-3, 3), { minLength: n, maxLength: n }),
     seed: fc.integer(),
   }),
-).filter((d) => new Set(d.g).size === 3 && new Set(d.x1).size > 6 && new Set(d.x2).size > 6 && new Set(d.noise).size > 6);
+).filter((d) => ['a', 'b', 'c'].every((l) => d.g.filter((g) => g === l).length >= 3) && new Set(d.x1).size > 6 && new Set(d.x2).size > 6 && new Set(d.noise).size > 6);
 
 function inputOf(d: { x1: number[]; x2: number[]; g: string[]; noise: number[] }, scale = 1): ComparisonInput {
   const y = d.x1.map((x, i) => scale * (2 + 0.5 * x - 0.3 * d.x2[i] + (d.g[i] === 'b' ? 1 : 0) + d.noise[i]));

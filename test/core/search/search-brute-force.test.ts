@@ -13,7 +13,7 @@ import { bruteForce, problemFor, type SearchCase } from './brute-force.ts';
 
 const close = (a: number, b: number, tol = 1e-9) => Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
 
-function check(t: Tap.Test, name: string, c: SearchCase, criterion: SearchCriterion, top: number) {
+function check(t: typeof import('tap').default, name: string, c: SearchCase, criterion: SearchCriterion, top: number) {
   t.test(`${name} by ${criterion}`, (t) => {
     const reference = bruteForce(c, criterion);
     const { problem } = problemFor(c);
