@@ -80,6 +80,5 @@ export function demoComparison() {
         ],
       },
     ],
-    options: { rankBy: 'aicc' },
   };
 }

@@ -10,12 +10,32 @@ const ConfigSchema = z.object({
   HOST: z.string().min(1).default('127.0.0.1'),
   AUDIT_DB: z.string().min(1).default('./data/audit.sqlite'),
   API_KEYS_FILE: z.string().min(1).optional(),
+  // A team's agreed defaults for ranking (README: team policy); none: the built-in default.
+  POLICY_FILE: z.string().min(1).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // 32 MiB holds about two million numbers as JSON: real data sets, not toy ones.
   BODY_LIMIT_BYTES: positiveInt(32 * 1024 * 1024),
   // rows × design columns × candidates: a bound on the least-squares work one
   // request may ask for (about 2 s of CPU at this size on one core).
   MAX_WORK_CELLS: positiveInt(60_000_000),
+  // Exact origins ("https://dash.example.org"), comma-separated; none by default,
+  // so no browser page elsewhere can read a reply until someone decides it may.
+  CORS_ORIGINS: z.string().default('').transform((s, ctx) => {
+    const origins = s.split(',').map((o) => o.trim()).filter((o) => o.length > 0);
+    for (const o of origins) {
+      if (!/^https?:\/\/[^/\s?#]+$/.test(o)) ctx.addIssue({ code: 'custom', message: `"${o}" is not an origin (scheme://host[:port], no path)` });
+    }
+    return origins;
+  }),
+  // Per API key (per client address when no keys are configured). 600/min is ten
+  // a second: far above a dashboard, far below what one core can fit.
+  RATE_LIMIT_PER_MINUTE: positiveInt(600),
+  // Time to receive a whole request, headers and body (slow senders hold sockets).
+  REQUEST_TIMEOUT_MS: positiveInt(60_000),
+  // Shed load with 503 once the event loop lags this much; 0 turns shedding off.
+  EVENT_LOOP_MAX_DELAY_MS: z.coerce.number().int().min(0).default(1000),
+  // On SIGTERM: how long requests in flight may take before the process is stopped.
+  SHUTDOWN_GRACE_MS: positiveInt(20_000),
 });
 
 export type Config = Readonly<{
@@ -23,9 +43,15 @@ export type Config = Readonly<{
   host: string;
   auditDb: string;
   apiKeysFile: string | undefined;
+  policyFile: string | undefined;
   logLevel: z.infer<typeof ConfigSchema>['LOG_LEVEL'];
   bodyLimitBytes: number;
   maxWorkCells: number;
+  corsOrigins: ReadonlyArray<string>;
+  rateLimitPerMinute: number;
+  requestTimeoutMs: number;
+  eventLoopMaxDelayMs: number;
+  shutdownGraceMs: number;
 }>;
 
 export class ConfigError extends Error {}
@@ -42,9 +68,15 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     host: c.HOST,
     auditDb: c.AUDIT_DB,
     apiKeysFile: c.API_KEYS_FILE,
+    policyFile: c.POLICY_FILE,
     logLevel: c.LOG_LEVEL,
     bodyLimitBytes: c.BODY_LIMIT_BYTES,
     maxWorkCells: c.MAX_WORK_CELLS,
+    corsOrigins: Object.freeze(c.CORS_ORIGINS),
+    rateLimitPerMinute: c.RATE_LIMIT_PER_MINUTE,
+    requestTimeoutMs: c.REQUEST_TIMEOUT_MS,
+    eventLoopMaxDelayMs: c.EVENT_LOOP_MAX_DELAY_MS,
+    shutdownGraceMs: c.SHUTDOWN_GRACE_MS,
   });
 }
 

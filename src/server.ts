@@ -1,42 +1,48 @@
-// config -> logger -> store -> app -> listen. The only place that opens a socket.
+// config -> keys -> logger -> store -> app -> listen. The only place that opens a socket.
 import pino from 'pino';
-import { loadConfig, ConfigError } from './config.ts';
+import { loadConfig, ConfigError, type Config } from './config.ts';
 import { loggerOptions } from './logger.ts';
 import { openAuditStore } from './audit/open.ts';
 import { buildApp } from './http/app.ts';
+import { KeyRing } from './http/security/key-ring.ts';
+import { KeysFileError, loadKeysFile } from './http/security/keys-file.ts';
+import { isLoopbackHost } from './http/security/loopback.ts';
+import { closeGracefully } from './shutdown.ts';
 
-async function main(): Promise<void> {
-  let config;
+function refuseToStart(message: string): never {
+  process.stderr.write(`parsimetry: ${message}\n`);
+  process.exit(2);
+}
+
+/** Settings that cannot work together stop the service before it opens anything. */
+function startupChecks(): { config: Config; keys: KeyRing } {
+  let config: Config;
+  let keys: KeyRing;
   try {
     config = loadConfig();
+    keys = config.apiKeysFile ? loadKeysFile(config.apiKeysFile) : KeyRing.empty();
   } catch (error) {
-    if (error instanceof ConfigError) {
-      process.stderr.write(`parsimetry: ${error.message}\n`);
-      process.exit(2);
-    }
+    if (error instanceof ConfigError || error instanceof KeysFileError) refuseToStart(error.message);
     throw error;
   }
+  if (keys.open && !isLoopbackHost(config.host)) {
+    refuseToStart(`HOST=${config.host} is not a loopback address and no API keys are configured (API_KEYS_FILE is unset). ` +
+      'Without keys anyone who can reach the port could use the service, so it only listens on loopback ' +
+      '(127.0.0.1, ::1, localhost). Set API_KEYS_FILE, or set HOST=127.0.0.1.');
+  }
+  return { config, keys };
+}
+
+async function main(): Promise<void> {
+  const { config, keys } = startupChecks();
   const logger = pino(loggerOptions(config));
   const store = await openAuditStore(config.auditDb);
-  const app = await buildApp({ config, store, logger });
+  const app = await buildApp({ config, store, logger, keys, processMetrics: true });
+  closeGracefully({ app, store, logger, graceMs: config.shutdownGraceMs });
 
-  let closing = false;
-  const shutdown = async (signal: string) => {
-    if (closing) return;
-    closing = true;
-    logger.info({ signal }, 'shutting down: finishing requests in flight');
-    // fastify's close waits for in-flight requests, whose audit records commit
-    // before their replies; only then is the store closed.
-    await app.close();
-    await store.close();
-    logger.info('stopped');
-    process.exit(0);
-  };
-  process.on('SIGTERM', () => void shutdown('SIGTERM'));
-  process.on('SIGINT', () => void shutdown('SIGINT'));
-
-  await app.listen({ port: config.port, host: config.host });
-  logger.info({ auditStore: store.backend }, `parsimetry listening on http://${config.host}:${config.port} (docs at /docs)`);
+  const address = await app.listen({ port: config.port, host: config.host });
+  logger.info({ auditStore: store.backend, apiKeys: keys.size, address },
+    `parsimetry listening on ${address} (docs at /docs)${keys.open ? '; open: no API keys configured' : ''}`);
 }
 
 main().catch((error) => {

@@ -7,12 +7,15 @@ import type { Test } from 'tap';
 import { defaultConfig, type Config } from '../src/config.ts';
 import { openAuditStore } from '../src/audit/open.ts';
 import { buildApp } from '../src/http/app.ts';
+import type { KeyRing } from '../src/http/security/key-ring.ts';
+import type { ActivePolicy } from '../src/policy-file.ts';
 
-export async function buildTestApp(t: Test, overrides: Partial<Config> = {}) {
+/** keys: API keys for the app (default none: open, as on loopback); policy: a team policy (default built in). */
+export async function buildTestApp(t: Test, overrides: Partial<Config> = {}, options: { keys?: KeyRing; policy?: ActivePolicy } = {}) {
   const dir = mkdtempSync(join(tmpdir(), 'parsimetry-test-'));
   const config = defaultConfig({ auditDb: join(dir, 'audit.sqlite'), ...overrides });
   const store = await openAuditStore(config.auditDb);
-  const app = await buildApp({ config, store, logger: false });
+  const app = await buildApp({ config, store, logger: false, keys: options.keys, policy: options.policy });
   t.teardown(async () => {
     await app.close();
     await store.close();

@@ -34,7 +34,16 @@ export interface IssueFacts {
   duplicate_term: { label: string; first: number };
   all_rows_dropped: { rows: number; dropped: number };
   too_few_rows: { rows: number; parameters: number };
-  observations_mismatch: { observations: number; expected: number };
+  observations_mismatch: { observations: number; expected: number; against: string };
+  residuals_count_mismatch: { residuals: number; rows: number; dataRows: number };
+  residual_at_dropped_row: { row: number };
+  residual_missing: { row: number };
+  estimation_mixed: { reml: string[]; ml: string[] };
+  reml_fixed_effects_missing: { name: string };
+  reml_fixed_effects_differ: { name: string; fixedEffects: string[]; first: string; firstFixedEffects: string[] };
+  response_transform_domain: { fn: 'log' | 'sqrt' | 'boxcox'; row: number; value: number };
+  data_required: { form: string };
+  fingerprint_mismatch: { expected: string; actual: string | null };
   work_limit: { cells: number; limit: number; setting: string };
 }
 
@@ -100,7 +109,27 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   too_few_rows: (f, at) =>
     `${at} has ${f.parameters} coefficients to estimate from ${f.rows} rows; a model needs at least as many rows as coefficients (and more for any criterion to exist).`,
   observations_mismatch: (f, at) =>
-    `${at} states ${f.observations} observations, but the comparison uses ${f.expected} rows; models must be compared on the same rows.`,
+    `${at} states ${f.observations} observations, but ${f.against} ${f.expected}; models must be compared on the same rows.`,
+  residuals_count_mismatch: (f, at) =>
+    `${at} has ${f.residuals} residuals; send one per row the comparison uses (${f.rows}) or one per data row (${f.dataRows}) with null where a row is dropped.`,
+  residual_at_dropped_row: (f, at) =>
+    `${at} has a residual at data row ${f.row}, which the comparison drops (a missing value in a column some candidate uses); the model was fitted on rows the others do not use — refit it on the common rows, or send null there.`,
+  residual_missing: (f, at) =>
+    `${at} is null at data row ${f.row}, which the comparison uses; every used row needs a residual.`,
+  estimation_mixed: (f, at) =>
+    `${at} mixes REML (${quoteList(f.reml)}) with maximum-likelihood candidates (${quoteList(f.ml)}); REML log-likelihoods leave out the fixed effects and are not comparable with ML ones — refit all by ML to compare different fixed effects.`,
+  reml_fixed_effects_missing: (f, at) =>
+    `${at} (${JSON.stringify(f.name)}) is a REML likelihood without fixedEffects; REML likelihoods compare only models with the same fixed effects, so state them.`,
+  reml_fixed_effects_differ: (f, at) =>
+    `${at} (${JSON.stringify(f.name)}) has fixed effects ${quoteList(f.fixedEffects)} but ${JSON.stringify(f.first)} has ${quoteList(f.firstFixedEffects)}; REML likelihoods are comparable only between models with the same fixed effects — refit by ML to compare fixed effects.`,
+  response_transform_domain: (f, at) =>
+    `${at} asks for ${f.fn} of the response, whose value at row ${f.row} is ${f.value}; ${f.fn} and its Jacobian need a positive response.`,
+  data_required: (f, at) =>
+    `${at} (${f.form}) needs data: send data.columns with the response column.`,
+  fingerprint_mismatch: (f, at) =>
+    f.actual === null
+      ? `${at} expects dataset ${f.expected}, but the request has no data to fingerprint.`
+      : `${at} expects dataset ${f.expected}, but the rows this comparison uses fingerprint as ${f.actual}; the data differ from what the caller expected.`,
   work_limit: (f, at) =>
     `${at} asks for ${f.cells} design cells (rows × design columns, summed over candidates), above the limit of ${f.limit} (${f.setting}); send fewer candidates or rows, or a data summary.`,
 };

@@ -17,13 +17,28 @@ import { serviceVersion } from '../version.ts';
 import { errorHandler } from './errors.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 import { zodValidatorCompiler } from './validation.ts';
+import { loadPolicyFile, type ActivePolicy } from '../policy-file.ts';
+import { withRefusals } from './plugins/refusal.ts';
+import { requestTimeoutOptions } from './plugins/request-timeout.ts';
+import { registerServicePlugins } from './plugins/service-plugins.ts';
+import { KeyRing } from './security/key-ring.ts';
+import { loadKeysFile } from './security/keys-file.ts';
 import { healthRoutes } from './routes/health.ts';
 import { comparisonRoutes } from './routes/comparisons.ts';
+import { recordRoutes } from './routes/records.ts';
+import { auditRoutes } from './routes/audit.ts';
+import { replayRoutes } from './routes/replay.ts';
 
 export interface AppDependencies {
   config: Config;
   store: AuditStore;
   logger?: Logger | false;
+  /** API keys; when absent, read from config.apiKeysFile (none: open). */
+  keys?: KeyRing;
+  /** Report process-wide metrics (CPU, memory) on /metrics: server.ts only. */
+  processMetrics?: boolean;
+  /** The team policy; when absent, read from config.policyFile (none: the built-in default). */
+  policy?: ActivePolicy;
 }
 
 export const openapiInfo = {
@@ -33,7 +48,8 @@ export const openapiInfo = {
     'One referee for competing regression models: fits candidates, scores every criterion under one published convention, ranks them and keeps a tamper-evident audit record. Criteria rank candidate models; they do not validate a model for a safety-relevant use — defer to domain review and local rules.',
 };
 
-export async function buildApp({ config, store, logger }: AppDependencies): Promise<FastifyInstance> {
+export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy }: AppDependencies): Promise<FastifyInstance> {
+  const policy = givenPolicy ?? loadPolicyFile(config.policyFile);
   const app = Fastify({
     loggerInstance: (logger || undefined) as FastifyBaseLogger | undefined,
     bodyLimit: config.bodyLimitBytes,
@@ -45,11 +61,14 @@ export async function buildApp({ config, store, logger }: AppDependencies): Prom
     onProtoPoisoning: 'error',
     onConstructorPoisoning: 'error',
     ajv: undefined,
+    ...requestTimeoutOptions(config.requestTimeoutMs),
+    // Refused by our own onRequest hook instead, as a problem naming the reason.
+    return503OnClosing: false,
   }).withTypeProvider<ZodTypeProvider>();
 
   app.setValidatorCompiler(zodValidatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
-  app.setErrorHandler(errorHandler(config.bodyLimitBytes));
+  app.setErrorHandler(withRefusals(errorHandler(config.bodyLimitBytes)));
   app.setNotFoundHandler((request, reply) => {
     const body = problem(404, problemTypes.notFound, 'Not found', `no route ${request.method} ${request.url.split('?')[0]}`);
     return reply.code(404).type(PROBLEM_CONTENT_TYPE).send(body);
@@ -58,6 +77,11 @@ export async function buildApp({ config, store, logger }: AppDependencies): Prom
     reply.header('x-request-id', request.id);
     return payload;
   });
+  await registerServicePlugins(app as unknown as FastifyInstance, {
+    config,
+    keys: keys ?? (config.apiKeysFile ? loadKeysFile(config.apiKeysFile) : KeyRing.empty()),
+    processMetrics,
+  });
 
   await app.register(swagger, {
     openapi: {
@@ -65,6 +89,7 @@ export async function buildApp({ config, store, logger }: AppDependencies): Prom
       info: openapiInfo,
       tags: [
         { name: 'comparisons', description: 'Fit, score and rank candidate models' },
+        { name: 'audit', description: 'Stored comparisons, chain verification and replay' },
         { name: 'operations', description: 'Health and readiness' },
       ],
     },
@@ -74,7 +99,10 @@ export async function buildApp({ config, store, logger }: AppDependencies): Prom
   await app.register(swaggerUi, { routePrefix: '/docs' });
 
   await app.register(healthRoutes, { store });
-  await app.register(comparisonRoutes, { store, config });
+  await app.register(comparisonRoutes, { store, config, policy });
+  await app.register(recordRoutes, { store });
+  await app.register(auditRoutes, { store });
+  await app.register(replayRoutes, { store, config });
 
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app as unknown as FastifyInstance;

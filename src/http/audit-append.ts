@@ -6,9 +6,14 @@ import type { AuditStore, NewRecord, StoredRecord } from '../audit/store.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 
 export async function appendOr503(store: AuditStore, reply: FastifyReply, record: NewRecord): Promise<StoredRecord | null> {
+  const metrics = reply.server.metrics;
+  const stopTimer = metrics?.auditAppendDuration.startTimer();
   try {
-    return await store.append(record);
+    const stored = await store.append(record);
+    stopTimer?.();
+    return stored;
   } catch (error) {
+    metrics?.auditAppendFailures.inc();
     reply.log.error({ err: error }, 'audit store refused a record');
     const body = problem(503, problemTypes.storeUnavailable, 'Audit store unavailable',
       'the comparison was computed but could not be recorded, so no result is returned; retry later');

@@ -1,8 +1,9 @@
 // The validated request body as the core's input. Columns go into an object
 // without a prototype, so a term naming "toString" or "constructor" finds no
 // inherited property where the caller has no column.
-import type { ComparisonInput } from '../core/compare.ts';
+import type { ComparisonInput, CandidateInput } from '../core/compare.ts';
 import type { Columns } from '../core/types.ts';
+import type { ActivePolicy } from '../policy-file.ts';
 import type { ComparisonRequest } from './schemas/comparison-request.ts';
 
 export function ownColumns(columns: Record<string, ReadonlyArray<number | string | null>>): Columns {
@@ -11,13 +12,28 @@ export function ownColumns(columns: Record<string, ReadonlyArray<number | string
   return own;
 }
 
-export function toComparisonInput(body: ComparisonRequest): ComparisonInput {
+type RequestCandidate = ComparisonRequest['candidates'][number];
+
+function candidateInput(c: RequestCandidate): CandidateInput {
+  if ('terms' in c) return { form: 'fit', name: c.name, terms: c.terms, intercept: c.intercept, response: c.response };
+  if ('residuals' in c) return { form: 'residuals', name: c.name, residuals: c.residuals, parameters: c.parameters, response: c.response };
+  if ('rss' in c) return { form: 'rss', name: c.name, rss: c.rss, parameters: c.parameters, observations: c.observations, response: c.response };
   return {
-    columns: ownColumns(body.data.columns),
-    response: body.response,
+    form: 'logLikelihood', name: c.name, logLikelihood: c.logLikelihood, parameters: c.parameters,
+    observations: c.observations, estimation: c.estimation, fixedEffects: c.fixedEffects, response: c.response,
+  };
+}
+
+export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy): ComparisonInput {
+  return {
+    columns: body.data ? ownColumns(body.data.columns) : null,
+    response: body.response ?? null,
     weights: body.weights ?? null,
-    candidates: body.candidates.map((c) => ({ name: c.name, terms: c.terms, intercept: c.intercept })),
+    candidates: body.candidates.map(candidateInput),
     rankBy: body.options.rankBy,
     confidenceLevel: body.options.confidenceLevel,
+    expectedFingerprint: body.datasetFingerprint,
+    policy: policy.policy,
+    policyHash: policy.hash,
   };
 }

@@ -27,13 +27,38 @@ export class RequestValidationError extends Error {
 // zod reports every element of a long column; a caller needs the first few.
 const MAX_ISSUES = 50;
 
+type ZodIssue = z.core.$ZodIssue;
+
+// A branch failed "structurally" when the value is not of its shape at all
+// (wrong type at its root, a required key missing, keys it does not know), as
+// opposed to having the shape with a bad value inside.
+function structuralFailures(branch: ZodIssue[]): number {
+  return branch.filter((i) => i.code === 'unrecognized_keys' || (i.code === 'invalid_type' && i.path.length <= 1)).length;
+}
+
+/**
+ * zod reports a failed union as one "Invalid input" with every branch's issues.
+ * A caller needs the issues of the form they evidently meant: the branch that
+ * fits the value's shape best (fewest structural failures, then fewest issues).
+ */
+function expand(issue: ZodIssue, prefix: PropertyKey[]): ValidationIssue[] {
+  const path = [...prefix, ...(issue.path as PropertyKey[])];
+  if (issue.code === 'invalid_union' && issue.errors.length > 0) {
+    const ranked = [...issue.errors].sort(
+      (a, b) => structuralFailures(a) - structuralFailures(b) || a.length - b.length,
+    );
+    const best = ranked[0];
+    if (structuralFailures(best) === 0) return best.flatMap((i) => expand(i, path));
+    const hint = best.find((i) => i.code === 'invalid_type' || i.code === 'unrecognized_keys') ?? best[0];
+    const where = hint.path.length ? ` (nearest form: ${hint.path.join('.')}: ${hint.message})` : ` (nearest form: ${hint.message})`;
+    return [{ path, message: `${issue.message === 'Invalid input' ? 'matches none of the accepted forms' : issue.message}${where}`, code: issue.code }];
+  }
+  return [{ path, message: issue.message, code: issue.code }];
+}
+
 export const zodValidatorCompiler: FastifySchemaCompiler<z.ZodType> = ({ schema, httpPart }) => (data) => {
   const result = schema.safeParse(data);
   if (result.success) return { value: result.data };
-  const issues = result.error.issues.slice(0, MAX_ISSUES).map((i) => ({
-    path: i.path as PropertyKey[],
-    message: i.message,
-    code: i.code,
-  }));
+  const issues = result.error.issues.flatMap((i) => expand(i, [])).slice(0, MAX_ISSUES);
   return { error: new RequestValidationError(httpPart ?? 'request', issues) };
 };

@@ -48,7 +48,7 @@ function byRank(a: RankingEntry, b: RankingEntry): number {
 function preferredBy(record: StoredComparisonView, criterion: CriterionName): string | null {
   const stated = record.result.verdict?.best?.[criterion];
   if (typeof stated === 'string') return stated;
-  const entries = [...(record.result.rankings[criterion] ?? [])].sort(byRank);
+  const entries = [...(record.result.rankings?.[criterion] ?? [])].sort(byRank);
   const first = entries.find((e) => finiteOrNull(e.delta) !== null);
   return first?.name ?? null;
 }
@@ -56,7 +56,7 @@ function preferredBy(record: StoredComparisonView, criterion: CriterionName): st
 export function chartContent(record: StoredComparisonView, criterion: CriterionName): ChartContent {
   const applies = bandsApply(criterion);
   // Array.prototype.sort is stable (ES2019), so equal ranks keep the record's order.
-  const entries = [...(record.result.rankings[criterion] ?? [])].sort(byRank);
+  const entries = [...(record.result.rankings?.[criterion] ?? [])].sort(byRank);
   const rows: ChartRow[] = entries.map((e) => {
     const delta = finiteOrNull(e.delta);
     return {

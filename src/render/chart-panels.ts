@@ -95,7 +95,8 @@ function drawDeltaBar(row: ChartRow, content: ChartContent, layout: ChartLayout,
     const withBand = row.bandWording ? `${value} · ${row.bandWording}` : value;
     const room = layout.deltaX + layout.deltaWidth - valueX;
     const label = estimateTextWidth(withBand, layout.rowFont * 0.9) <= room ? withBand : value;
-    children.push(textElement('text', { x: valueX, y: baseline, 'font-size': layout.rowFont * 0.9, fill: palette.ink }, label));
+    // A thin paper-coloured halo keeps the value legible where it crosses a band line.
+    children.push(textElement('text', { x: valueX, y: baseline, 'font-size': layout.rowFont * 0.9, fill: palette.ink, stroke: palette.paper, 'stroke-width': 2.5, 'stroke-linejoin': 'round', 'paint-order': 'stroke' }, label));
   }
   return element('g', { class: 'delta-bar', 'data-model': row.name, 'data-delta': row.delta === null ? 'none' : formatCriterionDelta(content.criterion, row.delta) }, children);
 }

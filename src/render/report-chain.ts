@@ -1,7 +1,7 @@
 // Where the record sits in the tamper-evident audit chain, and how a reader
 // can check it without trusting this page. The exact hashing rule belongs to
-// the audit store (src/audit/chain.ts); it is passed in as words so this page
-// never states a rule the store does not follow.
+// the audit store (src/audit/chain.ts); it is a parameter, defaulting to the
+// store's rule in words, so the route can pass the store's own wording.
 import { fragment, tag, type Html } from './html-markup.ts';
 import type { StoredComparisonView } from './types.ts';
 
@@ -19,16 +19,20 @@ export interface ChainVerification {
   encoding: string;
 }
 
-/** Placeholder wording until the audit store fixes its rule; the lead replaces it with the store's own. */
+/** The rule of src/audit/chain.ts (its header comment), in words for a reader. */
 export const defaultChainVerification: ChainVerification = {
   verifyPath: '/v1/audit/verify',
   algorithm: 'SHA-256',
-  hashedInput: "the previous record's hash followed by the canonical serialisation of this record",
-  encoding: 'hexadecimal',
+  hashedInput:
+    "the UTF-8 bytes of the previous record's hash (64 lower-case hex characters; 64 zeros before the first record) followed by the canonical JSON of this record without its prevHash and hash fields (object keys sorted, no whitespace, numbers and strings as JSON.stringify writes them: RFC 8785 for these values)",
+  encoding: 'lower-case hexadecimal',
 };
 
+/** The store starts its chain from 64 zeros; older or foreign records may say null. */
+const genesis = /^0{64}$/;
+
 export function chainSection(record: StoredComparisonView, rule: ChainVerification): Html {
-  const first = record.prevHash === null || record.prevHash === undefined || record.prevHash === '';
+  const first = record.prevHash === null || record.prevHash === undefined || record.prevHash === '' || genesis.test(record.prevHash);
   return fragment(
     tag('h2', { id: 'chain' }, 'Audit chain'),
     tag('dl', { class: 'facts', 'data-section': 'chain' },

@@ -36,7 +36,7 @@ export function jobSentence(record: StoredComparisonView): string {
   const models = r.models?.length ?? 0;
   let ranking = '';
   if (criterion !== null) {
-    const best = r.verdict?.best?.[criterion] ?? r.rankings[criterion]?.[0]?.name;
+    const best = r.verdict?.best?.[criterion] ?? r.rankings?.[criterion]?.[0]?.name;
     ranking = best ? `; by ${criterionDisplayName(criterion)} the best is ${best}` : '';
   }
   const agree = r.verdict?.agree === true ? ', and the criteria agree' : r.verdict?.agree === false ? ', but the criteria disagree' : '';

@@ -55,7 +55,7 @@ function yesNo(value: boolean | null | undefined): string {
 }
 
 export function rankingTable(record: StoredComparisonView, criterion: CriterionName): Html {
-  const entries = record.result.rankings[criterion] ?? [];
+  const entries = record.result.rankings?.[criterion] ?? [];
   const weighted = entries.some((e) => finiteOrNull(e.weight) !== null);
   const columns: Column<RankingEntry>[] = [
     { heading: 'rank', cell: (e) => formatCount(e.rank) },

@@ -89,8 +89,8 @@ export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss
     createdAt: '2026-03-02T09:15:00.000Z',
     label: options.label,
     seq: 17,
-    hash: 'sha256:' + 'b'.repeat(64),
-    prevHash: 'sha256:' + 'a'.repeat(64),
+    hash: 'b'.repeat(64),
+    prevHash: 'a'.repeat(64),
     result: {
       id,
       createdAt: '2026-03-02T09:15:00.000Z',

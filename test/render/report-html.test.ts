@@ -55,9 +55,18 @@ t.test('the hashing rule is a parameter, written as given', async (t) => {
 });
 
 t.test('the first record of a chain says it has no predecessor', async (t) => {
-  const record = kilnRecord();
-  record.prevHash = null;
-  t.match(summariseHtml(renderReportHtml(record)).text, /none: this is the first record/);
+  // src/audit/chain.ts starts the chain from 64 zeros; null is accepted too.
+  for (const prevHash of [null, '0'.repeat(64)]) {
+    const record = kilnRecord();
+    record.prevHash = prevHash;
+    t.match(summariseHtml(renderReportHtml(record)).text, /none: this is the first record/);
+  }
+  t.notMatch(summariseHtml(renderReportHtml(kilnRecord())).text, /none: this is the first record/);
+});
+
+t.test('by default the page states the audit store\'s own hashing rule', async (t) => {
+  const text = summariseHtml(renderReportHtml(kilnRecord())).text;
+  t.match(text, /its hash is SHA-256 over the UTF-8 bytes of the previous record's hash .* followed by the canonical JSON of this record without its prevHash and hash fields/);
 });
 
 t.test('the chart is inlined as given; without one it is drawn with the record\'s criterion', async (t) => {

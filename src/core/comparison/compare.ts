@@ -1,24 +1,36 @@
-// A comparison from start to finish: common rows, response and weights, every
-// candidate's design and fit, rankings under every criterion, the verdict.
-// Returns the result, or every issue that prevents it (never throws for input).
-import { buildDesign, columnsUsedBy, commonRows, responseValues, weightValues } from '../design/index.ts';
-import { CRITERIA, type CriterionName } from '../criteria.ts';
-import { rankModels, type RankingEntry } from '../ranking.ts';
+// A comparison from start to finish: the rows every candidate is scored on, the
+// response and weights, each candidate (fitted here or elsewhere) under the one
+// convention, rankings under every criterion, the verdict. Returns the result,
+// or every issue that prevents it (never throws for input).
+import { columnsUsedBy, commonRows, responseValues, weightValues } from '../design/index.ts';
+import type { CriterionName } from '../criteria.ts';
 import { verdict, type Verdict } from '../verdict.ts';
 import { issue, type Issue } from '../issues.ts';
 import { datasetFingerprint } from '../fingerprint.ts';
-import type { Columns, DesignMatrix } from '../types.ts';
-import { fitCandidate, type FittedCandidateInput, type FittedModel, type ModelResult } from './fitted-model.ts';
-import { rowsDroppedCaution, STANDING_CAUTION, type Caution } from './cautions.ts';
+import { chooseRankBy, type Policy } from '../policy.ts';
+import type { Columns } from '../types.ts';
+import type { FittedCandidateInput, FittedModel, ModelResult } from './fitted-model.ts';
+import { scoreExternalCandidate, type ExternalCandidateInput, type ScoringContext } from './external-model.ts';
+import { estimationIssues } from './estimation-rules.ts';
+import { rankAll, type BandedEntry } from './rankings.ts';
+import { comparisonCautions, type Caution } from './cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
+import { fitAll } from './fit-all.ts';
+
+export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
 
 export interface ComparisonInput {
-  columns: Columns;
-  response: string;
+  /** Null when the request sends no data (every candidate stated by rss or logLikelihood). */
+  columns: Columns | null;
+  response: string | null;
   weights: string | null;
-  candidates: FittedCandidateInput[];
-  rankBy: CriterionName;
-  confidenceLevel: number;
+  candidates: CandidateInput[];
+  /** The request's own choices; the policy fills what it leaves out. */
+  rankBy?: CriterionName;
+  confidenceLevel?: number;
+  expectedFingerprint?: string;
+  policy: Policy;
+  policyHash: string;
 }
 
 export interface ComparisonLimits {
@@ -28,83 +40,103 @@ export interface ComparisonLimits {
 
 export interface ComparisonOutcome {
   conventions: Conventions;
-  dataset: { fingerprint: string; observations: number; rowsDropped: number; response: string; weights: string | null };
+  policy: { name: string; hash: string };
+  dataset: { fingerprint: string | null; observations: number; rowsDropped: number; response: string | null; weights: string | null };
   models: ModelResult[];
-  rankings: Record<CriterionName, RankingEntry[]>;
+  rankings: Record<CriterionName, BandedEntry[]>;
   verdict: Verdict;
   cautions: Caution[];
+}
+
+type Rows = { ctx: ScoringContext; dropped: number; used: string[] };
+
+/** The rows, response and weights every candidate is scored on. */
+function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
+  const { columns, candidates } = input;
+  if (!columns || input.response === null) {
+    candidates.forEach((c, i) => {
+      if (c.form === 'fit' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'fit' ? 'a candidate fitted here' : 'a response transform' }));
+    });
+    if (input.weights) issues.push(issue('data_required', ['weights'], { form: 'a weights column' }));
+    const first = candidates[0];
+    const n = first.form === 'residuals' ? first.residuals.length : 'observations' in first ? first.observations : 0;
+    const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
+    return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [] };
+  }
+  const response = input.response;
+  const termColumns = [...new Set(candidates.flatMap((c) => (c.form === 'fit' ? columnsUsedBy(c.terms) : [])))];
+  const used = [response, ...(input.weights ? [input.weights] : []), ...termColumns];
+  const { rows, dropped } = commonRows(columns, used);
+  const y = responseValues(columns, response, rows);
+  if ('issues' in y) issues.push(...y.issues);
+  const w = input.weights ? weightValues(columns, input.weights, rows) : null;
+  if (w && 'issues' in w) issues.push(...w.issues);
+  if (rows.length === 0) issues.push(issue('all_rows_dropped', ['data', 'columns'], { rows: dropped, dropped }));
+  if (issues.length > 0) return null;
+  return {
+    ctx: {
+      n: rows.length, rows, dataRows: rows.length + dropped,
+      y: (y as { values: Float64Array }).values,
+      weights: w && 'values' in w ? w : null,
+      nSource: 'the rows this comparison uses number',
+    },
+    dropped,
+    used: termColumns,
+  };
 }
 
 export function compareModels(
   input: ComparisonInput,
   limits: ComparisonLimits,
 ): { result: ComparisonOutcome; fitted: FittedModel[] } | { issues: Issue[] } {
-  const { columns, response, candidates } = input;
-  const weightsName = input.weights ?? null;
-  const termColumns = [...new Set(candidates.flatMap((c) => columnsUsedBy(c.terms)))];
-  const used = [response, ...(weightsName ? [weightsName] : []), ...termColumns];
-  const { rows, dropped } = commonRows(columns, used);
-  const total = rows.length + dropped;
-
   const issues: Issue[] = [];
-  const y = responseValues(columns, response, rows);
-  if ('issues' in y) issues.push(...y.issues);
-  const w = weightsName ? weightValues(columns, weightsName, rows) : null;
-  if (w && 'issues' in w) issues.push(...w.issues);
+  const scoring = scoringRows(input, issues);
+  if (!scoring) return { issues };
+  const { ctx, dropped, used } = scoring;
 
-  const designs: (DesignMatrix | null)[] = candidates.map((candidate, i) => {
-    const built = buildDesign(columns, candidate.terms, candidate.intercept, rows, ['candidates', i]);
-    if ('issues' in built) {
-      issues.push(...built.issues);
-      return null;
+  issues.push(...estimationIssues(input.candidates.map((c, index) => ({
+    name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
+  }))));
+
+  const fitted = input.columns ? fitAll(input, input.columns, ctx, limits, issues) : new Map<number, FittedModel>();
+  const models: ModelResult[] = [];
+  input.candidates.forEach((c, i) => {
+    if (c.form === 'fit') {
+      const f = fitted.get(i);
+      if (f) models.push(f.result);
+      return;
     }
-    return built.design;
+    const scored = scoreExternalCandidate(c, ['candidates', i], ctx);
+    if ('issues' in scored) issues.push(...scored.issues);
+    else models.push(scored.result);
   });
+
   if (issues.length > 0) return { issues };
-  if (rows.length === 0) return { issues: [issue('all_rows_dropped', ['data', 'columns'], { rows: total, dropped })] };
-
-  let work = 0;
-  designs.forEach((design, i) => {
-    const p = design!.labels.length;
-    work += rows.length * p;
-    // More coefficients than rows: no criterion can be computed.
-    if (p > rows.length) issues.push(issue('too_few_rows', ['candidates', i], { rows: rows.length, parameters: p }));
-  });
-  if (work > limits.maxWorkCells) {
-    issues.push(issue('work_limit', ['candidates'], { cells: work, limit: limits.maxWorkCells, setting: 'MAX_WORK_CELLS' }));
+  // Only once every used column is known to exist and hold values on the used rows.
+  const fingerprint = input.columns && ctx.rows
+    ? datasetFingerprint({ columns: input.columns, response: input.response!, weights: input.weights, used, rows: ctx.rows })
+    : null;
+  if (input.expectedFingerprint && input.expectedFingerprint !== fingerprint) {
+    return { issues: [issue('fingerprint_mismatch', ['datasetFingerprint'], { expected: input.expectedFingerprint, actual: fingerprint })] };
   }
-  if (issues.length > 0) return { issues };
 
-  const yValues = (y as { values: Float64Array }).values;
-  const weights = w && 'values' in w ? w : null;
-  const fitted = candidates.map((candidate, i) => fitCandidate(candidate, designs[i]!, yValues, weights));
-  const models = fitted.map((f) => f.result);
-
-  const rankings = {} as Record<CriterionName, RankingEntry[]>;
-  for (const def of CRITERIA) {
-    rankings[def.name] = rankModels(
-      models.map((m) => ({ name: m.name, value: m[def.name] })),
-      { direction: def.direction, weighted: def.weighted, confidenceLevel: input.confidenceLevel },
-    );
-  }
+  const largestK = Math.max(...models.map((m) => m.parameters));
+  const ratio = largestK > 0 ? ctx.n / largestK : null;
+  const choice = chooseRankBy(input.rankBy, input.policy, ratio);
+  const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
+  const rankings = rankAll(models, confidenceLevel, input.policy);
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
-  const cautions = [STANDING_CAUTION, rowsDroppedCaution(dropped, total)].filter((c): c is Caution => c !== null);
 
   return {
-    fitted,
+    fitted: [...fitted.values()],
     result: {
-      conventions: conventions(input.rankBy, input.confidenceLevel),
-      dataset: {
-        fingerprint: datasetFingerprint({ columns, response, weights: weightsName, used: termColumns, rows }),
-        observations: rows.length,
-        rowsDropped: dropped,
-        response,
-        weights: weightsName,
-      },
+      conventions: conventions(choice, confidenceLevel),
+      policy: { name: input.policy.name, hash: input.policyHash },
+      dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
       rankings,
-      verdict: verdict(rankings, input.rankBy, { parameters, observations: rows.length }),
-      cautions,
+      verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
+      cautions: comparisonCautions({ dropped, n: ctx.n, hasData: input.columns !== null, models, requestedRankBy: input.rankBy, ratio, policy: input.policy }),
     },
   };
 }

@@ -2,20 +2,25 @@
 // with the cautions a reader needs to trust (or distrust) its numbers.
 import { fitLeastSquares } from '../fit/index.ts';
 import { gaussianLogLikelihood } from '../likelihood.ts';
-import { computeCriteria, type CriterionName } from '../criteria.ts';
+import { computeCriteria } from '../criteria.ts';
 import type { DesignMatrix, LeastSquaresFit, Term } from '../types.ts';
 import type { Caution } from './cautions.ts';
+import type { ResponseTransformSpec } from './response-transform.ts';
+import { criteriaFields, finiteOrNull, transformCaution } from './model-fields.ts';
 
 export interface FittedCandidateInput {
   name: string;
   terms: Term[];
   intercept: boolean;
+  response?: ResponseTransformSpec;
 }
 
 export interface ModelResult {
   name: string;
-  source: 'fit';
-  intercept: boolean;
+  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood';
+  estimation: 'ml' | 'reml';
+  /** Null for a model fitted elsewhere: the service cannot know. */
+  intercept: boolean | null;
   parameters: number;
   observations: number;
   logLikelihood: number | null;
@@ -26,16 +31,15 @@ export interface ModelResult {
   rss: number | null;
   r2: number | null;
   adjustedR2: number | null;
-  r2Basis: 'centred' | 'uncentred';
+  r2Basis: 'centred' | 'uncentred' | null;
   sigma: number | null;
+  responseTransform: (ResponseTransformSpec & { jacobian: number }) | null;
   coefficients: { term: string; estimate: number | null; standardError: number | null }[];
   aliased: string[];
   conditionNumber: number | null;
   cautions: Caution[];
 }
 
-const finiteOrNull = (x: number | null | undefined): number | null =>
-  typeof x === 'number' && Number.isFinite(x) ? x : null;
 
 export interface FittedModel {
   result: ModelResult;
@@ -43,19 +47,25 @@ export interface FittedModel {
   design: DesignMatrix;
 }
 
+/**
+ * `response` is the response on the candidate's own scale (transformed when the
+ * candidate says so) with the Jacobian that brings its likelihood back to the
+ * scale of the data's response.
+ */
 export function fitCandidate(
   candidate: FittedCandidateInput,
   design: DesignMatrix,
-  y: Float64Array,
+  response: { values: Float64Array; jacobian: number },
   weights: { values: Float64Array; sumLogWeights: number } | null,
 ): FittedModel {
-  const fit = fitLeastSquares(design, y, weights?.values);
+  const fit = fitLeastSquares(design, response.values, weights?.values);
   const n = fit.observations;
   const k = fit.rank + 1;
   const cautions: Caution[] = [];
   const logLikelihood = fit.exactFit
     ? null
-    : gaussianLogLikelihood({ n, rss: fit.rss, sumLogWeights: weights?.sumLogWeights ?? 0 });
+    : gaussianLogLikelihood({ n, rss: fit.rss, sumLogWeights: weights?.sumLogWeights ?? 0, jacobian: response.jacobian });
+  if (candidate.response) cautions.push(transformCaution(candidate.response));
   if (fit.exactFit) {
     cautions.push({
       code: 'exact_fit',
@@ -89,23 +99,17 @@ export function fitCandidate(
       message: 'This model has no intercept, so R² and adjusted R² are uncentred (the total sum of squares is taken about zero) and are not comparable with the R² of models that have one.',
     });
   }
-  const pick = (c: CriterionName) => finiteOrNull(criteria[c]);
   const result: ModelResult = {
     name: candidate.name,
     source: 'fit',
+    estimation: 'ml',
     intercept: design.intercept,
     parameters: k,
     observations: n,
-    logLikelihood: finiteOrNull(logLikelihood),
-    aic: pick('aic'),
-    aicc: pick('aicc'),
-    bic: pick('bic'),
-    hqc: pick('hqc'),
-    rss: finiteOrNull(fit.rss),
-    r2: finiteOrNull(criteria.r2),
-    adjustedR2: pick('adjustedR2'),
+    ...criteriaFields(logLikelihood, fit.rss, criteria),
     r2Basis: criteria.r2Basis,
     sigma: finiteOrNull(fit.sigma),
+    responseTransform: candidate.response ? { ...candidate.response, jacobian: response.jacobian } : null,
     coefficients: design.labels.map((term, j) => ({
       term,
       estimate: finiteOrNull(fit.coefficients[j]),

@@ -99,7 +99,7 @@ export function branchAndBound(
   const explore = (i: number, lo: Layer, up: Layer): void => {
     if (tally.stopped || i >= m) return;
     tally.nodes++;
-    if (keepGoing && (tally.nodes & 4095) === 0 && !keepGoing(tally.nodes, covered + tally.pruned)) {
+    if (keepGoing && (tally.nodes & 255) === 0 && !keepGoing(tally.nodes, covered + tally.pruned)) {
       tally.stopped = true;
       return;
     }

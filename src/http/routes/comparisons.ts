@@ -12,8 +12,9 @@ import { ProblemSchema } from '../schemas/problem.ts';
 import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { toComparisonInput } from '../comparison-input.ts';
 import { appendOr503 } from '../audit-append.ts';
+import type { ActivePolicy } from '../../policy-file.ts';
 
-export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config }> = async (app, { store, config }) => {
+export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config; policy: ActivePolicy }> = async (app, { store, config, policy }) => {
   app.post('/v1/comparisons', {
     schema: {
       tags: ['comparisons'],
@@ -23,24 +24,26 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
     },
   }, async (request, reply) => {
     const body = request.body;
-    const outcome = compareModels(toComparisonInput(body), { maxWorkCells: config.maxWorkCells });
+    const outcome = compareModels(toComparisonInput(body, policy), { maxWorkCells: config.maxWorkCells });
     if ('issues' in outcome) {
       return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
     }
     const result = outcome.result;
     const record = await appendOr503(store, reply, {
       kind: 'comparison',
-      caller: 'anonymous',
+      caller: request.caller,
       label: body.label ?? null,
       serviceVersion,
       conventionsVersion: result.conventions.version,
-      policy: null,
+      policy: result.policy,
       datasetFingerprint: result.dataset.fingerprint,
       requestDigest: requestDigest(body),
       request: body as unknown as Record<string, unknown>,
       result: result as unknown as Record<string, unknown>,
     });
     if (!record) return reply;
+    app.metrics.comparisons.inc();
+    app.metrics.modelsFitted.inc(result.models.filter((m: { source?: string }) => m.source === 'fit').length);
     return reply.code(200).send({ id: record.id, createdAt: record.createdAt, serviceVersion, ...result });
   });
 };

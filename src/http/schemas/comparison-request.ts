@@ -63,28 +63,95 @@ export const DataSchema = z
   })
   .meta({ id: 'Data' });
 
+const CandidateName = z.string().min(1).max(200);
+const Parameters = z.number().int().min(1).max(100_000).meta({
+  description: 'k: estimated coefficients plus one for the error variance (the service echoes it).',
+});
+const Observations = z.number().int().min(1).meta({
+  description: 'Rows the model was fitted on; must equal the rows this comparison uses.',
+});
+
+export const ResponseTransform = z
+  .strictObject({
+    fn: z.enum(['log', 'sqrt', 'boxcox']),
+    lambda: FiniteNumber.min(-5).max(5).optional().meta({ description: 'Box–Cox λ (required for boxcox): (y^λ − 1)/λ, ln y at λ = 0.' }),
+  })
+  .superRefine((t, ctx) => {
+    if (t.fn === 'boxcox' && t.lambda === undefined) ctx.addIssue({ code: 'custom', path: ['lambda'], message: 'boxcox needs lambda' });
+    if (t.fn !== 'boxcox' && t.lambda !== undefined) ctx.addIssue({ code: 'custom', path: ['lambda'], message: `lambda applies to boxcox only, not ${t.fn}` });
+  })
+  .meta({
+    id: 'ResponseTransform',
+    description:
+      'The model was fitted to g(y); the service adds the log-Jacobian from the data\'s response column so its likelihood is on the scale of y (log: −Σ ln y; sqrt: −Σ ln(2√y); boxcox: (λ−1) Σ ln y).',
+  });
+
 export const FittedCandidate = z
   .strictObject({
-    name: z.string().min(1).max(200),
+    name: CandidateName,
     terms: z.array(Term).max(200),
     intercept: z.boolean().default(true),
+    response: ResponseTransform.optional(),
   })
   .meta({ id: 'FittedCandidate', description: 'A model the service fits by least squares.' });
 
+export const ResidualsCandidate = z
+  .strictObject({
+    name: CandidateName,
+    residuals: z.array(FiniteNumber.nullable()).min(1).max(5_000_000).meta({
+      description:
+        'Residuals of a least-squares model fitted elsewhere on the same rows: either one per row the comparison uses, or one per data row with null exactly where the comparison drops a row.',
+    }),
+    parameters: Parameters,
+    response: ResponseTransform.optional(),
+  })
+  .meta({ id: 'ResidualsCandidate', description: 'A Gaussian model fitted elsewhere, sent by its residuals; the log-likelihood is computed here.' });
+
+export const RssCandidate = z
+  .strictObject({
+    name: CandidateName,
+    rss: FiniteNumber.min(0).meta({ description: 'Residual sum of squares (Σ w e² when the request has weights).' }),
+    parameters: Parameters,
+    observations: Observations,
+    response: ResponseTransform.optional(),
+  })
+  .meta({ id: 'RssCandidate', description: 'A least-squares fit made elsewhere, sent by its residual sum of squares; the full log-likelihood is derived here.' });
+
+export const LikelihoodCandidate = z
+  .strictObject({
+    name: CandidateName,
+    logLikelihood: FiniteNumber.meta({ description: 'The maximised log-likelihood with all constants included (the caller vouches for them).' }),
+    parameters: Parameters,
+    observations: Observations,
+    estimation: z.enum(['ml', 'reml']).default('ml'),
+    fixedEffects: z.array(z.string().min(1).max(200)).max(500).optional().meta({
+      description: 'The fixed-effect terms, required with estimation "reml": REML likelihoods compare only models with the same fixed effects.',
+    }),
+    response: ResponseTransform.optional(),
+  })
+  .meta({ id: 'LikelihoodCandidate', description: 'A model fitted elsewhere with any likelihood.' });
+
+export const Candidate = z
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate])
+  .meta({ id: 'Candidate', description: 'One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood.' });
+
 export const ComparisonOptions = z
   .strictObject({
-    rankBy: Criterion.default('aicc'),
-    confidenceLevel: z.number().gt(0).lt(1).default(0.95),
+    rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise).' }),
+    confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
   })
   .meta({ id: 'ComparisonOptions' });
 
 export const ComparisonRequest = z
   .strictObject({
-    data: DataSchema,
-    response: ColumnName,
+    data: DataSchema.optional().meta({ description: 'Required unless every candidate is sent by rss or logLikelihood.' }),
+    response: ColumnName.optional().meta({ description: 'The numeric response column (required with data).' }),
     weights: ColumnName.nullable().optional(),
-    candidates: z.array(FittedCandidate).min(1, 'at least one candidate is needed').max(200),
-    options: ComparisonOptions.default({ rankBy: 'aicc', confidenceLevel: 0.95 }),
+    candidates: z.array(Candidate).min(1, 'at least one candidate is needed').max(200),
+    datasetFingerprint: z.string().regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits').optional().meta({
+      description: 'The fingerprint the caller expects (README: dataset fingerprint); a mismatch is a 422.',
+    }),
+    options: ComparisonOptions.default({}),
     label: z.string().max(1000).optional(),
   })
   .superRefine((request, ctx) => {
@@ -99,6 +166,9 @@ export const ComparisonRequest = z
         });
       } else seen.set(candidate.name, index);
     });
+    if (request.data && request.response === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['response'], message: 'with data, name the response column' });
+    }
   })
   .meta({ id: 'ComparisonRequest' });
 

@@ -23,8 +23,11 @@ export const Coefficient = z
 export const ModelResult = z
   .strictObject({
     name: z.string(),
-    source: z.enum(['fit']).meta({ description: '"fit": fitted here by least squares.' }),
-    intercept: z.boolean(),
+    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood']).meta({
+      description: '"fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.',
+    }),
+    estimation: z.enum(['ml', 'reml']),
+    intercept: z.boolean().nullable().meta({ description: 'Null for a model fitted elsewhere.' }),
     parameters: z.number().int().meta({ description: 'k: numerical rank of the design plus one for the error variance.' }),
     observations: z.number().int(),
     logLikelihood: nullableNumber,
@@ -35,10 +38,14 @@ export const ModelResult = z
     rss: nullableNumber.meta({ description: 'Residual sum of squares (weighted: sum of w·e²).' }),
     r2: nullableNumber,
     adjustedR2: nullableNumber,
-    r2Basis: z.enum(['centred', 'uncentred']).meta({
-      description: 'centred: about the (weighted) mean of the response; uncentred (model without intercept): about zero.',
+    r2Basis: z.enum(['centred', 'uncentred']).nullable().meta({
+      description: 'centred: about the (weighted) mean of the response; uncentred (model without intercept): about zero; null when R² is not available.',
     }),
     sigma: nullableNumber.meta({ description: 'Residual standard error sqrt(rss/(n - rank)).' }),
+    responseTransform: z
+      .strictObject({ fn: z.enum(['log', 'sqrt', 'boxcox']), lambda: z.number().optional(), jacobian: z.number() })
+      .nullable()
+      .meta({ description: 'The response transform the model describes, with the log-Jacobian added to its log-likelihood.' }),
     coefficients: z.array(Coefficient),
     aliased: z.array(z.string()).meta({ description: 'Design columns that are (numerically) linear combinations of the columns before them; their estimates are null.' }),
     conditionNumber: nullableNumber.meta({ description: 'Condition number estimate of the centred, scaled design the solver factorised.' }),
@@ -56,6 +63,7 @@ export const RankingEntry = z
     evidenceRatio: nullableNumber,
     cumulativeWeight: nullableNumber,
     inConfidenceSet: z.boolean().nullable(),
+    band: z.string().nullable().meta({ description: 'The team policy\'s wording for this Δ (null for adjustedR2 and for models without a value).' }),
   })
   .meta({ id: 'RankingEntry' });
 
@@ -93,16 +101,19 @@ export const Conventions = z
     commonRows: z.string(),
     rank: z.string(),
     rankBy: Criterion,
+    fittedElsewhere: z.string(),
+    responseTransforms: z.string(),
+    rankByReason: z.string(),
     confidenceLevel: z.number(),
   })
   .meta({ id: 'Conventions' });
 
 export const Dataset = z
   .strictObject({
-    fingerprint: z.string().meta({ description: '"sha256:" + hex digest of the canonical serialisation of the used data (see README).' }),
+    fingerprint: z.string().nullable().meta({ description: '"sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent.' }),
     observations: z.number().int(),
     rowsDropped: z.number().int(),
-    response: z.string(),
+    response: z.string().nullable(),
     weights: z.string().nullable(),
   })
   .meta({ id: 'Dataset' });
@@ -113,6 +124,7 @@ export const ComparisonResult = z
     createdAt: z.string(),
     serviceVersion: z.string(),
     conventions: Conventions,
+    policy: z.strictObject({ name: z.string(), hash: z.string() }).meta({ description: 'The team policy in force (POLICY_FILE) and the SHA-256 of its canonical JSON.' }),
     dataset: Dataset,
     models: z.array(ModelResult),
     rankings: z.strictObject({

@@ -5,8 +5,8 @@
 import { branchAndBound, scoreSubsetRange, type SearchPartial } from '../../core/search/index.ts';
 import type { SearchTask } from './messages.ts';
 
-/** Nodes are counted in batches of this size (the kernel asks every 4096 nodes). */
-const NODE_BATCH = 4096;
+/** Nodes are counted in batches of this size (the kernel asks every 256 nodes). */
+const NODE_BATCH = 256;
 
 export function runTask(task: SearchTask): SearchPartial {
   if (task.kind === 'exhaustive') return scoreSubsetRange(task.problem, task.settings, task.from, task.to);

@@ -5,6 +5,7 @@ import t from 'tap';
 import fc from 'fast-check';
 import { compareModels, type ComparisonInput } from '../../../src/core/compare.ts';
 import type { ComparisonOutcome } from '../../../src/core/compare.ts';
+import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
 
 const LIMITS = { maxWorkCells: 1e9 };
 
@@ -32,14 +33,16 @@ function inputOf(d: { x1: number[]; x2: number[]; g: string[]; noise: number[] }
     response: 'y',
     weights: null,
     candidates: [
-      { name: 'one', terms: ['x1'], intercept: true },
-      { name: 'two', terms: ['x1', 'x2'], intercept: true },
-      { name: 'three', terms: ['x1', 'x2', 'g'], intercept: true },
-      { name: 'curved', terms: ['x1', { kind: 'power', of: 'x1', degree: 2 }, 'g'], intercept: true },
-      { name: 'log', terms: [{ kind: 'transform', of: 'x2', fn: 'log' }, 'g'], intercept: true },
+      { form: 'fit', name: 'one', terms: ['x1'], intercept: true },
+      { form: 'fit', name: 'two', terms: ['x1', 'x2'], intercept: true },
+      { form: 'fit', name: 'three', terms: ['x1', 'x2', 'g'], intercept: true },
+      { form: 'fit', name: 'curved', terms: ['x1', { kind: 'power', of: 'x1', degree: 2 }, 'g'], intercept: true },
+      { form: 'fit', name: 'log', terms: [{ kind: 'transform', of: 'x2', fn: 'log' }, 'g'], intercept: true },
     ],
     rankBy: 'aicc',
     confidenceLevel: 0.95,
+    policy: DEFAULT_POLICY,
+    policyHash: 'sha256:test',
   };
 }
 

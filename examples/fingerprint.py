@@ -1,0 +1,62 @@
+#!/usr/bin/env python3
+"""Compute parsimetry's dataset fingerprint for a comparison request, with the
+standard library only, so a caller can state `datasetFingerprint` up front.
+
+    python3 examples/fingerprint.py < request.json
+
+The serialisation (README, "Dataset fingerprint"):
+  * used columns: the response, the weights (if any), and every column a
+    candidate's terms use; the others sorted by code point;
+  * used rows: those with no null in any used column, in data order;
+  * bytes: "parsimetry-dataset-v1\\n", the row count as uint64 big-endian, then
+    per column a role byte (R response, W weights, X other), the UTF-8 name
+    with a uint32 big-endian length, a kind byte (n numeric, t text) and the
+    values on the used rows: numbers as IEEE 754 binary64 big-endian (-0 as 0),
+    text as uint32 length + UTF-8;
+  * fingerprint: "sha256:" + the hex SHA-256 of those bytes.
+"""
+import hashlib
+import json
+import struct
+import sys
+
+
+def term_columns(term):
+    if isinstance(term, str):
+        return [term]
+    of = term["of"]
+    return list(of) if isinstance(of, list) else [of]
+
+
+def fingerprint(request):
+    columns = request["data"]["columns"]
+    response = request["response"]
+    weights = request.get("weights")
+    used = []
+    for candidate in request["candidates"]:
+        for term in candidate.get("terms", []):
+            used.extend(term_columns(term))
+    others = sorted(set(used) - {response, weights})
+    ordered = [("R", response)] + ([("W", weights)] if weights else []) + [("X", name) for name in others]
+    total = len(next(iter(columns.values())))
+    rows = [i for i in range(total) if all(columns[name][i] is not None for _, name in ordered)]
+
+    h = hashlib.sha256()
+    h.update(b"parsimetry-dataset-v1\n")
+    h.update(struct.pack(">Q", len(rows)))
+    for role, name in ordered:
+        values = [columns[name][i] for i in rows]
+        numeric = all(isinstance(v, (int, float)) and not isinstance(v, bool) for v in values)
+        encoded = name.encode("utf-8")
+        h.update(role.encode("ascii") + struct.pack(">I", len(encoded)) + encoded + (b"n" if numeric else b"t"))
+        for v in values:
+            if numeric:
+                h.update(struct.pack(">d", float(v) + 0.0))  # + 0.0 turns -0.0 into 0.0
+            else:
+                text = str(v).encode("utf-8")
+                h.update(struct.pack(">I", len(text)) + text)
+    return "sha256:" + h.hexdigest()
+
+
+if __name__ == "__main__":
+    print(fingerprint(json.load(sys.stdin)))

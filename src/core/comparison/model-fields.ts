@@ -1,0 +1,27 @@
+// Pieces of a model's result shared by models fitted here and elsewhere.
+import type { CriteriaValues } from '../criteria.ts';
+import type { Caution } from './cautions.ts';
+import { transformLabel, type ResponseTransformSpec } from './response-transform.ts';
+
+export const finiteOrNull = (x: number | null | undefined): number | null =>
+  typeof x === 'number' && Number.isFinite(x) ? x : null;
+
+export function criteriaFields(logLikelihood: number | null, rss: number | null, criteria: CriteriaValues) {
+  return {
+    logLikelihood: finiteOrNull(logLikelihood),
+    aic: finiteOrNull(criteria.aic),
+    aicc: finiteOrNull(criteria.aicc),
+    bic: finiteOrNull(criteria.bic),
+    hqc: finiteOrNull(criteria.hqc),
+    rss: finiteOrNull(rss),
+    r2: finiteOrNull(criteria.r2),
+    adjustedR2: finiteOrNull(criteria.adjustedR2),
+  };
+}
+
+export function transformCaution(spec: ResponseTransformSpec): Caution {
+  return {
+    code: 'transformed_response',
+    message: `This model describes ${transformLabel(spec)}(response); its log-likelihood includes the Jacobian, so AIC, AICc, BIC and HQC are on the scale of the response and comparable with the other models, but its RSS, R² and adjusted R² are on the transformed scale and are not.`,
+  };
+}

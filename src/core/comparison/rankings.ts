@@ -1,0 +1,18 @@
+// Every criterion's ranking over the models, each entry with its Δ band.
+import { CRITERIA, type CriterionName } from '../criteria.ts';
+import { rankModels, type RankingEntry } from '../ranking.ts';
+import { deltaBand, type Policy } from '../policy.ts';
+import type { ModelResult } from './fitted-model.ts';
+
+export type BandedEntry = RankingEntry & { band: string | null };
+
+export function rankAll(models: readonly ModelResult[], confidenceLevel: number, policy: Policy): Record<CriterionName, BandedEntry[]> {
+  const rankings = {} as Record<CriterionName, BandedEntry[]>;
+  for (const def of CRITERIA) {
+    rankings[def.name] = rankModels(
+      models.map((m) => ({ name: m.name, value: m[def.name] })),
+      { direction: def.direction, weighted: def.weighted, confidenceLevel },
+    ).map((e) => ({ ...e, band: deltaBand(e.delta, def.name, policy) }));
+  }
+  return rankings;
+}

@@ -1,0 +1,43 @@
+// Prometheus metrics, one registry per app so that tests building several apps
+// in one process never share counters. Names follow Prometheus conventions
+// (base units: seconds; counters end in _total).
+import { Counter, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
+
+export interface ServiceMetrics {
+  readonly registry: Registry;
+  readonly httpRequests: Counter<'route' | 'method' | 'status'>;
+  readonly httpDuration: Histogram<'route' | 'method' | 'status'>;
+  readonly comparisons: Counter;
+  readonly modelsFitted: Counter;
+  readonly searches: Counter;
+  readonly auditAppendDuration: Histogram;
+  readonly auditAppendFailures: Counter;
+}
+
+export function createServiceMetrics(options: { processMetrics?: boolean } = {}): ServiceMetrics {
+  const registry = new Registry();
+  // Process metrics (CPU, memory, event loop lag) for the whole process: only the
+  // app that server.ts runs should report them.
+  if (options.processMetrics) collectDefaultMetrics({ register: registry, prefix: 'parsimetry_' });
+  const registers = [registry];
+  return {
+    registry,
+    httpRequests: new Counter({
+      name: 'parsimetry_http_requests_total', help: 'HTTP requests answered, by route pattern, method and status',
+      labelNames: ['route', 'method', 'status'], registers,
+    }),
+    httpDuration: new Histogram({
+      name: 'parsimetry_http_request_duration_seconds', help: 'Time from receiving a request to sending its reply',
+      labelNames: ['route', 'method', 'status'], registers,
+      buckets: [0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30],
+    }),
+    comparisons: new Counter({ name: 'parsimetry_comparisons_total', help: 'Comparisons computed and recorded', registers }),
+    modelsFitted: new Counter({ name: 'parsimetry_models_fitted_total', help: 'Candidate models fitted here by least squares (not those scored from figures fitted elsewhere)', registers }),
+    searches: new Counter({ name: 'parsimetry_searches_total', help: 'Subset searches computed and recorded', registers }),
+    auditAppendDuration: new Histogram({
+      name: 'parsimetry_audit_append_duration_seconds', help: 'Time for the audit store to commit one record',
+      registers, buckets: [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5],
+    }),
+    auditAppendFailures: new Counter({ name: 'parsimetry_audit_append_failures_total', help: 'Records the audit store refused (each turned its reply into a 503)', registers }),
+  };
+}

@@ -1,0 +1,149 @@
+// Reading the audit record back: one stored comparison, and pages of them.
+import type { FastifyReply } from 'fastify';
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { AuditCursorInvalid, AuditQueryInvalid, AuditRecordCorrupt, AuditUnavailable } from '../../audit/errors.ts';
+import type { AuditStore, StoredRecord } from '../../audit/store.ts';
+import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
+import { ProblemSchema } from '../schemas/problem.ts';
+import { ComparisonList, ListQuerySchema, RecordParams, StoredComparison } from '../schemas/record.ts';
+
+/**
+ * A store failure while reading, as a reply: an unreachable store is 503 (try
+ * again), a row that no longer reads back is our fault, never the caller's (500,
+ * saying which record and what to run). Anything else is rethrown.
+ */
+export function replyToStoreReadError(error: unknown, reply: FastifyReply): FastifyReply {
+  if (error instanceof AuditUnavailable) {
+    reply.log.error({ err: error }, 'audit store unavailable for a read');
+    return reply.code(503).header('retry-after', '5').type(PROBLEM_CONTENT_TYPE).send(
+      problem(503, problemTypes.storeUnavailable, 'Audit store unavailable', 'the audit store cannot be read just now; retry later'));
+  }
+  if (error instanceof AuditRecordCorrupt) {
+    reply.log.error({ err: error, seq: error.seq, problems: error.problems }, 'stored audit record is unreadable');
+    return reply.code(500).type(PROBLEM_CONTENT_TYPE).send(
+      problem(500, problemTypes.internal, 'Stored record unreadable',
+        `the stored record ${error.seq} no longer reads back; run GET /v1/audit/verify`, { seq: error.seq }));
+  }
+  throw error;
+}
+
+export function notFound(reply: FastifyReply, id: string): FastifyReply {
+  return reply.code(404).type(PROBLEM_CONTENT_TYPE).send(
+    problem(404, problemTypes.notFound, 'Not found', `no comparison with id ${id}`));
+}
+
+/** The stored comparison, or a reply already sent (404, 500, 503). */
+export async function getComparison(store: AuditStore, id: string, reply: FastifyReply): Promise<StoredRecord | null> {
+  let record: StoredRecord | null;
+  try {
+    record = await store.get(id);
+  } catch (error) {
+    replyToStoreReadError(error, reply);
+    return null;
+  }
+  // Search records live under their own path; here an id names a comparison only.
+  if (!record || record.kind !== 'comparison') {
+    notFound(reply, id);
+    return null;
+  }
+  return record;
+}
+
+/** The POST response exactly: the route stores the result without the fields the envelope holds. */
+export function answeredResult(record: StoredRecord): Record<string, unknown> {
+  return { id: record.id, createdAt: record.createdAt, serviceVersion: record.serviceVersion, ...record.result };
+}
+
+function requestSummary(request: Record<string, unknown> | null) {
+  if (request === null) return null;
+  const data = request.data as { columns?: Record<string, unknown[]> } | undefined;
+  const columns = data?.columns && typeof data.columns === 'object' ? Object.keys(data.columns) : [];
+  const first = columns.length ? data!.columns![columns[0]] : null;
+  const candidates = Array.isArray(request.candidates) ? request.candidates : [];
+  return {
+    candidates: candidates.map((c) => String((c as { name?: unknown })?.name ?? '')),
+    response: typeof request.response === 'string' ? request.response : null,
+    rows: Array.isArray(first) ? first.length : null,
+    columns,
+  };
+}
+
+function chosen(result: Record<string, unknown>): string | null {
+  const verdict = result.verdict as { chosen?: unknown } | undefined;
+  return typeof verdict?.chosen === 'string' ? verdict.chosen : null;
+}
+
+function queryProblem(reply: FastifyReply, path: string, message: string): FastifyReply {
+  return reply.code(400).type(PROBLEM_CONTENT_TYPE).send(
+    problem(400, problemTypes.invalidRequest, 'The request does not match the schema', `${path}: ${message}`,
+      { errors: [{ path, message }] }));
+}
+
+export const recordRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (app, { store }) => {
+  app.get('/v1/comparisons/:id', {
+    schema: {
+      tags: ['audit'],
+      summary: 'One stored comparison: request summary, the result as it was answered, and its place in the audit chain',
+      params: RecordParams,
+      response: { 200: StoredComparison, 400: ProblemSchema, 404: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
+    },
+  }, async (request, reply) => {
+    const record = await getComparison(store, request.params.id, reply);
+    if (!record) return reply;
+    return reply.code(200).send({
+      id: record.id,
+      createdAt: record.createdAt,
+      kind: 'comparison' as const,
+      caller: record.caller,
+      label: record.label,
+      serviceVersion: record.serviceVersion,
+      conventionsVersion: record.conventionsVersion,
+      policy: record.policy,
+      datasetFingerprint: record.datasetFingerprint,
+      requestDigest: record.requestDigest,
+      requestSummary: requestSummary(record.request),
+      request: record.request,
+      result: answeredResult(record),
+      chain: { seq: record.seq, prevHash: record.prevHash, hash: record.hash },
+    });
+  });
+
+  app.get('/v1/comparisons', {
+    schema: {
+      tags: ['audit'],
+      summary: 'Stored comparisons, newest first, in pages',
+      description:
+        'Filters combine (AND). Follow nextCursor until it is null to walk every match; a page may be shorter than limit only at the end.',
+      querystring: ListQuerySchema,
+      response: { 200: ComparisonList, 400: ProblemSchema, 503: ProblemSchema },
+    },
+  }, async (request, reply) => {
+    const q = request.query;
+    let page;
+    try {
+      page = await store.list({ ...q, kind: 'comparison' });
+    } catch (error) {
+      if (error instanceof AuditCursorInvalid) return queryProblem(reply, 'cursor', 'not a cursor this service issued; start again without one');
+      if (error instanceof AuditQueryInvalid) {
+        const [field, ...rest] = error.problems[0].split(': ');
+        return queryProblem(reply, field, rest.join(': ') || error.message);
+      }
+      return replyToStoreReadError(error, reply);
+    }
+    return reply.code(200).send({
+      records: page.records.map((r) => ({
+        id: r.id,
+        createdAt: r.createdAt,
+        kind: 'comparison' as const,
+        caller: r.caller,
+        label: r.label,
+        datasetFingerprint: r.datasetFingerprint,
+        best: chosen(r.result),
+        seq: r.seq,
+        hash: r.hash,
+      })),
+      unreadable: page.corrupt.map((c) => ({ seq: c.seq, id: c.id })),
+      nextCursor: page.nextCursor,
+    });
+  });
+};

@@ -1,0 +1,103 @@
+// POST /v1/comparisons/{id}/replay: the stored request re-run with today's code,
+// and every value of the result that came out differently.
+//
+// A replay appends no audit record. It hands out no new result to rely on (no id,
+// nothing a dashboard would show as "the" answer); it is a read of a record
+// already in the chain, checked against today's code. Recording reads would let
+// anyone lengthen the chain without making a comparison. Whoever wants today's
+// answer on the record POSTs the stored request to /v1/comparisons again.
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import type { AuditStore } from '../../audit/store.ts';
+import { toJsonValue } from '../../audit/chain.ts';
+import type { Config } from '../../config.ts';
+import { compareModels } from '../../core/compare.ts';
+import { diffResults, type JsonValue, type ValueChange } from '../../core/result-diff.ts';
+import { serviceVersion } from '../../version.ts';
+import { toComparisonInput } from '../comparison-input.ts';
+import { issuesProblem, problem, problemTypes, toPointer, PROBLEM_CONTENT_TYPE } from '../problems.ts';
+import { ComparisonRequest } from '../schemas/comparison-request.ts';
+import { ProblemSchema } from '../schemas/problem.ts';
+import { RecordParams, ReplayReport } from '../schemas/record.ts';
+import { getComparison } from './records.ts';
+
+const conflict = 'urn:parsimetry:problem:replay-impossible';
+
+function largest(changes: ValueChange[]): ValueChange | null {
+  let best: ValueChange | null = null;
+  for (const c of changes) {
+    if (c.relativeChange === null) continue;
+    if (!best || Math.abs(c.relativeChange) > Math.abs(best.relativeChange!)) best = c;
+  }
+  return best;
+}
+
+function chosenOf(result: JsonValue): string | null {
+  const verdict = (result as { verdict?: { chosen?: unknown } }).verdict;
+  return typeof verdict?.chosen === 'string' ? verdict.chosen : null;
+}
+
+function summarise(changes: ValueChange[], compared: number, stored: JsonValue, now: JsonValue): string {
+  if (changes.length === 0) return `today's code reproduces all ${compared} values of the stored result exactly`;
+  const parts = [`${changes.length} of ${compared} stored values differ`];
+  const numeric = changes.filter((c) => c.absoluteChange !== null).length;
+  if (numeric) parts.push(`${numeric} of them numbers`);
+  const big = largest(changes);
+  if (big) parts.push(`largest relative change ${big.relativeChange!.toPrecision(3)} at ${big.path}`);
+  const added = changes.filter((c) => c.change === 'added').length;
+  const removed = changes.filter((c) => c.change === 'removed').length;
+  if (added || removed) parts.push(`${added} added and ${removed} removed entries`);
+  const [before, after] = [chosenOf(stored), chosenOf(now)];
+  parts.push(before === after ? `the chosen model is still ${after ?? 'none'}` : `the chosen model changes from ${before ?? 'none'} to ${after ?? 'none'}`);
+  return `${parts.join('; ')}.`;
+}
+
+export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config }> = async (app, { store, config }) => {
+  app.post('/v1/comparisons/:id/replay', {
+    schema: {
+      tags: ['audit'],
+      summary: 'Re-run a stored comparison with today\'s code and report which values changed and by how much',
+      description: [
+        'Send no body. The stored request is validated again under today\'s schema and computed again; every number, string, boolean and null of the result is compared with the stored one.',
+        'Models, ranking entries, coefficients and cautions are matched by name, term or code, so a model that moved in a ranking shows as a change of its rank, not of every entry.',
+        'A replay appends no audit record and returns no new result id: it checks a record against today\'s code. To put today\'s answer on the record, POST the stored request to /v1/comparisons.',
+        '409 when the record kept only the request digest, or the stored request is no longer valid or computable today (the problem lists why).',
+      ].join('\n\n'),
+      params: RecordParams,
+      response: { 200: ReplayReport, 400: ProblemSchema, 404: ProblemSchema, 409: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
+    },
+  }, async (request, reply) => {
+    const record = await getComparison(store, request.params.id, reply);
+    if (!record) return reply;
+    if (record.request === null) {
+      return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Nothing to replay',
+        `comparison ${record.id} was recorded digest-only: the request itself was not kept, so it cannot be run again`));
+    }
+    const parsed = ComparisonRequest.safeParse(record.request);
+    if (!parsed.success) {
+      const errors = parsed.error.issues.slice(0, 50).map((i) => ({ path: toPointer(i.path as PropertyKey[]), message: i.message, code: i.code }));
+      return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Stored request no longer valid',
+        `the stored request of ${record.id} does not pass today's request schema (${errors.length} problem${errors.length === 1 ? '' : 's'}; the first at ${errors[0].path || '(root)'}: ${errors[0].message})`,
+        { errors }));
+    }
+    const outcome = compareModels(toComparisonInput(parsed.data), { maxWorkCells: config.maxWorkCells });
+    if ('issues' in outcome) {
+      const why = issuesProblem(outcome.issues);
+      return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Stored request no longer computes',
+        `today's code cannot compute the stored request of ${record.id}: ${why.detail}`, { errors: why.errors }));
+    }
+    // Compare JSON with JSON: the stored side went through JSON on its way in.
+    const now = toJsonValue(outcome.result);
+    const stored = record.result as JsonValue;
+    const diff = diffResults(stored, now);
+    return reply.code(200).send({
+      id: record.id,
+      replayedAt: new Date().toISOString(),
+      serviceVersion: { stored: record.serviceVersion, now: serviceVersion },
+      conventionsVersion: { stored: record.conventionsVersion, now: outcome.result.conventions.version },
+      identical: diff.changes.length === 0,
+      valuesCompared: diff.leavesCompared,
+      changes: diff.changes,
+      summary: summarise(diff.changes, diff.leavesCompared, stored, now),
+    });
+  });
+};

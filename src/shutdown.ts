@@ -1,0 +1,26 @@
+// Graceful shutdown: on SIGTERM (or SIGINT) the listener stops, requests still
+// arriving are refused (src/http/plugins/closing.ts), requests in flight finish —
+// each commits its audit record before its reply — and only then is the store
+// closed. Past SHUTDOWN_GRACE_MS the process stops anyway, with exit code 1.
+import closeWithGrace from 'close-with-grace';
+import type { FastifyInstance } from 'fastify';
+import type { Logger } from 'pino';
+import type { AuditStore } from './audit/store.ts';
+
+export function closeGracefully({ app, store, logger, graceMs }: {
+  app: FastifyInstance;
+  store: AuditStore;
+  logger: Logger;
+  graceMs: number;
+}): void {
+  closeWithGrace({
+    delay: graceMs,
+    logger: { error: (message: unknown) => logger.error(String(message)) },
+  }, async ({ signal, err }) => {
+    if (err) logger.error({ err }, 'stopping after an unhandled error');
+    else logger.info({ signal }, 'shutting down: finishing requests in flight');
+    await app.close();
+    await store.close();
+    logger.info('stopped');
+  });
+}
