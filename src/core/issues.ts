@@ -45,6 +45,21 @@ export interface IssueFacts {
   data_required: { form: string };
   fingerprint_mismatch: { expected: string; actual: string | null };
   work_limit: { cells: number; limit: number; setting: string };
+  summary_rows_invalid: { rows: number | null };
+  summary_columns_invalid: { column: string };
+  summary_size_mismatch: { length: number; expected: number };
+  summary_value_not_finite: { column: string };
+  summary_not_symmetric: { row: number; column: number };
+  summary_negative_variance: { column: string; value: number };
+  summary_not_positive_semidefinite: { column: string };
+  summary_weights_invalid: { sum: number | null; sumLog: number | null };
+  summary_columns_differ: { first: string[]; second: string[] };
+  summary_weighting_differs: { firstWeighted: string; secondWeighted: string };
+  summary_column_unknown: { column: string };
+  /** A term or candidate form that needs the rows, sent with a data summary. */
+  summary_rows_needed: { form: string; reason: string };
+  search_over_budget: { budget: string; limit: number; required: number; poolTerms: number };
+  nested_test_invalid: { reason: string };
 }
 
 export type IssueCode = keyof IssueFacts;
@@ -130,8 +145,23 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
     f.actual === null
       ? `${at} expects dataset ${f.expected}, but the request has no data to fingerprint.`
       : `${at} expects dataset ${f.expected}, but the rows this comparison uses fingerprint as ${f.actual}; the data differ from what the caller expected.`,
+  nested_test_invalid: (f, at) => `${at} names a pair that cannot be tested: ${f.reason}`,
   work_limit: (f, at) =>
     `${at} asks for ${f.cells} design cells (rows × design columns, summed over candidates), above the limit of ${f.limit} (${f.setting}); send fewer candidates or rows, or a data summary.`,
+  summary_rows_invalid: (f, at) => `${at} is ${f.rows === null ? 'not a number' : f.rows}; a summary's rows must be a whole number of at least 1.`,
+  summary_columns_invalid: (f, at) => `${at} lists ${JSON.stringify(f.column)} more than once or empty; a summary's columns must be distinct, non-empty names.`,
+  summary_size_mismatch: (f, at) => `${at} has ${f.length} entries for ${f.expected} columns; means has one entry per column and centredCrossProducts one row and column per column.`,
+  summary_value_not_finite: (f, at) => `${at} (column ${JSON.stringify(f.column)}) is not a finite number.`,
+  summary_not_symmetric: (f, at) => `${at}: centredCrossProducts[${f.row}][${f.column}] differs from [${f.column}][${f.row}]; centred cross products are symmetric.`,
+  summary_negative_variance: (f, at) => `${at}: the centred sum of squares of ${JSON.stringify(f.column)} is ${f.value}; no rows give a negative sum of squares.`,
+  summary_not_positive_semidefinite: (f, at) => `${at} is not positive semidefinite (it fails at column ${JSON.stringify(f.column)}); no rows have these moments.`,
+  summary_weights_invalid: (_f, at) => `${at}: weights.sum must be a positive number and weights.sumLog a finite number.`,
+  summary_columns_differ: (f, at) => `${at}: the summaries list different columns (${quoteList(f.first)} and ${quoteList(f.second)}); merging needs the same columns in the same order.`,
+  summary_weighting_differs: (f, at) => `${at}: one summary is weighted (${f.firstWeighted}/${f.secondWeighted}) and the other is not; they cannot be merged.`,
+  summary_column_unknown: (f, at) => `${at} lists no column ${JSON.stringify(f.column)}; with a data summary only its listed columns can be used.`,
+  summary_rows_needed: (f, at) => `${at} (${f.form}) cannot be computed from a data summary: ${f.reason}. Send data.columns instead.`,
+  search_over_budget: (f, at) =>
+    `${at}: the search is beyond its compute budget ${f.budget} = ${f.limit} (this pool of ${f.poolTerms} terms needs ${f.required}); narrow the pool or move terms to always.`,
 };
 
 /** Makes an issue with its standard message. */

@@ -102,7 +102,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   await app.register(comparisonRoutes, { store, config, policy });
   await app.register(recordRoutes, { store });
   await app.register(auditRoutes, { store });
-  await app.register(replayRoutes, { store, config });
+  await app.register(replayRoutes, { store, config, policy });
 
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app as unknown as FastifyInstance;

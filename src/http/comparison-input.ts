@@ -33,6 +33,11 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     rankBy: body.options.rankBy,
     confidenceLevel: body.options.confidenceLevel,
     expectedFingerprint: body.datasetFingerprint,
+    extras: {
+      tests: body.options.tests,
+      average: body.options.average,
+      predict: body.options.predict ? { columns: ownColumns(body.options.predict.columns) } : undefined,
+    },
     policy: policy.policy,
     policyHash: policy.hash,
   };

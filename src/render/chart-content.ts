@@ -2,7 +2,8 @@
 // band of each difference, and which model each criterion prefers.
 import { rankedCriteria } from './chart-options.ts';
 import { criterionDisplayName } from './criteria.ts';
-import { bandsApply, supportBandOf } from './delta-bands.ts';
+import { bandLegend, type BandLegend } from './band-legend.ts';
+import { entryBandWording } from './delta-bands.ts';
 import { finiteOrNull } from './number-format.ts';
 import type { CriterionName, RankingEntry, StoredComparisonView } from './types.ts';
 
@@ -11,7 +12,7 @@ export interface ChartRow {
   rank: number | null;
   delta: number | null;
   weight: number | null;
-  /** Wording of the support band, when bands apply and Δ is finite. */
+  /** Wording of the support band: the record's own (entry.band), else ours for records without bands. */
   bandWording: string | null;
 }
 
@@ -28,6 +29,8 @@ export interface ChartContent {
   criterionLabel: string;
   rows: ChartRow[];
   bandsApply: boolean;
+  /** Reference lines, shaded zones and legend wording; null for criteria without bands. */
+  legend: BandLegend | null;
   weightsDefined: boolean;
   best: string | null;
   cells: PreferenceCell[];
@@ -54,7 +57,7 @@ function preferredBy(record: StoredComparisonView, criterion: CriterionName): st
 }
 
 export function chartContent(record: StoredComparisonView, criterion: CriterionName): ChartContent {
-  const applies = bandsApply(criterion);
+  const legend = bandLegend(record, criterion);
   // Array.prototype.sort is stable (ES2019), so equal ranks keep the record's order.
   const entries = [...(record.result.rankings?.[criterion] ?? [])].sort(byRank);
   const rows: ChartRow[] = entries.map((e) => {
@@ -64,7 +67,7 @@ export function chartContent(record: StoredComparisonView, criterion: CriterionN
       rank: finiteOrNull(e.rank),
       delta,
       weight: finiteOrNull(e.weight),
-      bandWording: applies ? (supportBandOf(delta)?.wording ?? null) : null,
+      bandWording: entryBandWording(e, criterion),
     };
   });
   // A model the ranking left out (no finite value) still gets its row, drawn as "no value".
@@ -94,7 +97,8 @@ export function chartContent(record: StoredComparisonView, criterion: CriterionN
     criterion,
     criterionLabel: criterionDisplayName(criterion),
     rows,
-    bandsApply: applies,
+    bandsApply: legend !== null,
+    legend,
     weightsDefined: rows.some((r) => r.weight !== null),
     best,
     cells,

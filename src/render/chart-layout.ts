@@ -46,9 +46,7 @@ export interface ChartLayout {
 const clamp = (x: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, x));
 
 export function legendText(content: ChartContent): string {
-  if (content.bandsApply) {
-    return 'Dashed lines at Δ 2, 4, 7 and 10. Up to 2: about as good as the best · 4 to 7: clearly weaker · over 10: hardly any support · 2 to 4 and 7 to 10: between bands.';
-  }
+  if (content.legend !== null) return content.legend.text;
   const weights = content.weightsDefined ? '' : ' No weights are defined for this criterion.';
   return `Δ is the distance from the best ${content.criterionLabel}; evidence bands apply only to likelihood criteria.${weights}`;
 }

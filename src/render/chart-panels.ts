@@ -3,7 +3,7 @@
 // model each criterion prefers.
 import type { ChartContent, ChartRow } from './chart-content.ts';
 import type { ChartLayout } from './chart-layout.ts';
-import { bandThresholds, supportBands } from './delta-bands.ts';
+import { bandRange } from './band-legend.ts';
 import { formatCriterionDelta, formatPercent } from './number-format.ts';
 import { palette } from './palette.ts';
 import { element, px, textElement } from './svg-markup.ts';
@@ -20,23 +20,30 @@ export function drawBands(content: ChartContent, layout: ChartLayout): string {
   const parts: string[] = [];
   const top = layout.rowsTop;
   const height = layout.rowsBottom - layout.rowsTop;
-  if (content.bandsApply) {
-    for (const band of supportBands) {
-      const fill = zoneFill[band.band];
-      if (!fill || band.from >= layout.axisMax) continue;
-      const x0 = deltaToX(layout, band.from);
-      const x1 = deltaToX(layout, Math.min(band.to, layout.axisMax));
+  const legend = content.legend;
+  if (legend !== null) {
+    legend.rules.forEach((band, i) => {
+      const fill = zoneFill[band.shade];
+      const from = i === 0 ? 0 : (legend.rules[i - 1].maxDelta ?? 0);
+      if (!fill || from >= layout.axisMax) return;
+      const x0 = deltaToX(layout, from);
+      const x1 = deltaToX(layout, Math.min(band.maxDelta ?? Infinity, layout.axisMax));
       parts.push(element('rect', { class: 'band-zone', 'data-band': band.band, x: x0, y: top, width: x1 - x0, height, fill }));
-    }
-    for (const threshold of bandThresholds) {
-      const x = deltaToX(layout, threshold.at);
+    });
+    for (const at of legend.lines) {
+      const x = deltaToX(layout, at);
       const line = element('line', {
         x1: x, y1: layout.tickY + layout.smallFont * 0.3, x2: x, y2: layout.rowsBottom,
         stroke: palette.mutedInk, 'stroke-width': 0.8, 'stroke-dasharray': '3 2',
       });
-      const label = textElement('text', { x, y: layout.tickY, 'text-anchor': 'middle', 'font-size': layout.smallFont, fill: palette.mutedInk }, String(threshold.at));
-      const title = threshold.wording === '' ? '' : textElement('title', {}, `Δ ${threshold.wording}`);
-      parts.push(element('g', { class: 'band-line', 'data-at': threshold.at }, [title, line, label]));
+      const label = textElement('text', { x, y: layout.tickY, 'text-anchor': 'middle', 'font-size': layout.smallFont, fill: palette.mutedInk }, String(at));
+      // The line's tooltip names the band it opens, in the legend's words.
+      const opened = legend.rules.findIndex((r) => r.maxDelta === at) + 1;
+      const words = opened > 0 && opened < legend.rules.length && legend.words !== 'team-policy'
+        ? `${bandRange(legend.rules, opened)}: ${legend.rules[opened].wording}`
+        : `Δ = ${at}`;
+      const title = textElement('title', {}, words);
+      parts.push(element('g', { class: 'band-line', 'data-at': at }, [title, line, label]));
     }
   }
   parts.push(textElement('text', { x: layout.deltaX, y: layout.tickY, 'text-anchor': 'middle', 'font-size': layout.smallFont, fill: palette.mutedInk }, '0'));

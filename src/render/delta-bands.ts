@@ -1,57 +1,95 @@
-// How much support a criterion difference leaves a model, in plain words.
+// How much support a criterion difference leaves a model, in plain words, and
+// where the chart draws its reference lines.
 //
-// Thresholds: the rule of thumb for AIC-type differences in Burnham, K. P. &
-// Anderson, D. R. (2002), Model Selection and Multimodel Inference, 2nd ed.,
-// Springer, section 2.6 (from memory: Δ ≤ 2 substantial support, 4–7
-// considerably less, > 10 essentially none). The gaps 2–4 and 7–10 are not
-// covered by that rule, so they are named neutrally rather than guessed at.
-// The wording below is our own. The same reading is applied to BIC and HQC
-// differences, which share the -2 log-likelihood scale; it is a reading aid,
-// not a test.
-import type { CriterionName } from './types.ts';
+// Two families, as in the team policy (src/core/policy.ts):
+// - AIC, AICc and HQC: the rule of thumb for AIC-type differences in Burnham,
+//   K. P. & Anderson, D. R. (2002), Model Selection and Multimodel Inference,
+//   2nd ed., Springer, section 2.6 (from memory: Δ ≤ 2 substantial support,
+//   4–7 considerably less, > 10 essentially none). Lines at 2, 4, 7 and 10.
+// - BIC: Kass, R. E. & Raftery, A. E. (1995), "Bayes factors", JASA 90, on the
+//   2 ln B scale that ΔBIC approximates (from memory: 0–2 barely worth a
+//   mention, 2–6 positive, 6–10 strong, > 10 very strong). Lines at 2, 6, 10.
+//
+// A stored result names each Δ's band in the team policy's words (entry.band);
+// the pictures repeat those words, so they say what the JSON says. The words
+// below are our own and are used only for records written before results
+// carried bands. The line positions are ours too; test/render/delta-bands.test.ts
+// checks they are the default policy's band edges.
+import type { CriterionName, RankingEntry } from './types.ts';
 
-export type SupportBand = 'close' | 'gap-low' | 'weaker' | 'gap-high' | 'negligible';
+export type BandFamily = 'akaike' | 'bic';
 
-export interface BandDefinition {
-  band: SupportBand;
-  /** Edges of the band on the Δ axis (which edge is included: see supportBandOf). */
-  from: number;
-  to: number;
+/** One band, in the same shape as the policy's DeltaBand. */
+export interface BandRule {
+  /** Key for markup (data-band). */
+  band: string;
+  /** Upper end of the band; null for the last, open-ended band. */
+  maxDelta: number | null;
+  /** Whether a Δ equal to maxDelta falls in this band (true) or the next (false). */
+  includeMax: boolean;
   wording: string;
+  /** How darkly the chart shades the band's zone (none for the bands of good support and the gaps). */
+  shade: 'none' | 'weaker' | 'negligible';
 }
 
-export const supportBands: readonly BandDefinition[] = [
-  { band: 'close', from: 0, to: 2, wording: 'about as good as the best' },
-  { band: 'gap-low', from: 2, to: 4, wording: 'between bands' },
-  { band: 'weaker', from: 4, to: 7, wording: 'clearly weaker' },
-  { band: 'gap-high', from: 7, to: 10, wording: 'between bands' },
-  { band: 'negligible', from: 10, to: Infinity, wording: 'hardly any support' },
-];
+export const ownBands: Readonly<Record<BandFamily, readonly BandRule[]>> = {
+  akaike: [
+    { band: 'close', maxDelta: 2, includeMax: true, wording: 'about as good as the best', shade: 'none' },
+    { band: 'gap-low', maxDelta: 4, includeMax: false, wording: 'between bands', shade: 'none' },
+    { band: 'weaker', maxDelta: 7, includeMax: true, wording: 'clearly weaker', shade: 'weaker' },
+    { band: 'gap-high', maxDelta: 10, includeMax: true, wording: 'between bands', shade: 'none' },
+    { band: 'negligible', maxDelta: null, includeMax: false, wording: 'hardly any support', shade: 'negligible' },
+  ],
+  bic: [
+    { band: 'close', maxDelta: 2, includeMax: true, wording: 'about as good as the best', shade: 'none' },
+    { band: 'positive', maxDelta: 6, includeMax: true, wording: 'some evidence against it', shade: 'none' },
+    { band: 'strong', maxDelta: 10, includeMax: true, wording: 'strong evidence against it', shade: 'weaker' },
+    { band: 'very-strong', maxDelta: null, includeMax: false, wording: 'very strong evidence against it', shade: 'negligible' },
+  ],
+};
 
-/** The reference lines the chart draws, each with the wording of the band it opens. */
-export const bandThresholds: readonly { at: number; wording: string }[] = [
-  { at: 2, wording: 'up to 2: about as good as the best' },
-  { at: 4, wording: '4 to 7: clearly weaker' },
-  { at: 7, wording: '' },
-  { at: 10, wording: 'over 10: hardly any support' },
-];
+/** Where the chart draws its dashed lines: the edges of the family's bands. */
+export const referenceLines: Readonly<Record<BandFamily, readonly number[]>> = {
+  akaike: [2, 4, 7, 10],
+  bic: [2, 6, 10],
+};
 
-/** Criteria on the -2 log-likelihood scale, where the Δ bands apply. */
+/** Criteria on the -2 log-likelihood scale have bands; adjusted R² and leave-one-out do not. */
+export function bandFamily(criterion: CriterionName): BandFamily | null {
+  if (criterion === 'aicc' || criterion === 'aic' || criterion === 'hqc') return 'akaike';
+  if (criterion === 'bic') return 'bic';
+  return null;
+}
+
 export function bandsApply(criterion: CriterionName): boolean {
-  return criterion === 'aicc' || criterion === 'aic' || criterion === 'bic' || criterion === 'hqc';
+  return bandFamily(criterion) !== null;
+}
+
+/** The band of a difference, by the same edge rule as the policy's deltaBand. */
+export function bandOf(delta: number | null, rules: readonly BandRule[]): BandRule | null {
+  if (delta === null || !Number.isFinite(delta) || delta < 0) return null;
+  for (const rule of rules) {
+    if (rule.maxDelta === null) return rule;
+    if (delta < rule.maxDelta || (rule.includeMax && delta === rule.maxDelta)) return rule;
+  }
+  return null;
+}
+
+/** Our own band of an AIC-type difference (kept for callers that know no criterion). */
+export function supportBandOf(delta: number | null): BandRule | null {
+  return bandOf(delta, ownBands.akaike);
 }
 
 /**
- * The band of a difference. The published bands are closed ("≤ 2", "4–7")
- * and the last is open ("> 10"), so 2, 4 and 7 belong to their bands, 10
- * to the gap below it, and only the gaps take the values strictly between.
+ * The words for one ranking entry: the record's own (the team policy's) when
+ * the entry carries a band, nothing when it says there is none (null), and
+ * our own reading only for entries written before results carried bands.
  */
-export function supportBandOf(delta: number | null): BandDefinition | null {
-  if (delta === null || !Number.isFinite(delta) || delta < 0) return null;
-  const [close, gapLow, weaker, gapHigh, negligible] = supportBands;
-  if (delta <= 2) return close;
-  if (delta < 4) return gapLow;
-  if (delta <= 7) return weaker;
-  if (delta <= 10) return gapHigh;
-  return negligible;
+export function entryBandWording(entry: Pick<RankingEntry, 'band' | 'delta'>, criterion: CriterionName): string | null {
+  if (typeof entry.band === 'string') return entry.band === '' ? null : entry.band;
+  if (entry.band === null) return null;
+  const family = bandFamily(criterion);
+  if (family === null) return null;
+  const delta = typeof entry.delta === 'number' ? entry.delta : null;
+  return bandOf(delta, ownBands[family])?.wording ?? null;
 }

@@ -3,7 +3,7 @@
 // browser test) can find it without parsing the text.
 import { rankedCriteria } from './chart-options.ts';
 import { criterionDisplayName } from './criteria.ts';
-import { bandsApply, supportBandOf } from './delta-bands.ts';
+import { bandsApply, entryBandWording } from './delta-bands.ts';
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatCount, formatCriterionDelta, formatFixed, formatPercent, formatSignificant } from './number-format.ts';
 import type { CriterionName, ModelView, RankingEntry, StoredComparisonView } from './types.ts';
@@ -45,9 +45,7 @@ export function modelsTable(record: StoredComparisonView): Html {
 }
 
 function supportWords(criterion: CriterionName, entry: RankingEntry): string {
-  if (typeof entry.band === 'string' && entry.band !== '') return entry.band;
-  if (!bandsApply(criterion)) return '';
-  return supportBandOf(finiteOrNull(entry.delta))?.wording ?? '';
+  return entryBandWording({ band: entry.band, delta: finiteOrNull(entry.delta) }, criterion) ?? '';
 }
 
 function yesNo(value: boolean | null | undefined): string {

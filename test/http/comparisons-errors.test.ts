@@ -1,6 +1,6 @@
 // Every error class of POST /v1/comparisons answers RFC 9457 problem details
 // (api.md "Errors", fixed form) with a field path, and never a 5xx or a stack.
-import t from 'tap';
+import t, { type Test } from 'tap';
 import { buildTestApp } from '../helper.ts';
 
 const columns = {
@@ -14,7 +14,7 @@ const valid = {
   candidates: [{ name: 'linear', terms: ['peakTemp'] }, { name: 'by-kiln', terms: ['peakTemp', 'kiln'] }],
 };
 
-function assertProblem(t: Tap.Test, res: { statusCode: number; headers: Record<string, unknown>; body: string }, status: number) {
+function assertProblem(t: Test, res: { statusCode: number; headers: Record<string, unknown>; body: string }, status: number) {
   t.equal(res.statusCode, status, `status ${status}`);
   t.match(String(res.headers['content-type']), /^application\/problem\+json/, 'problem+json media type');
   const body = JSON.parse(res.body);
@@ -26,8 +26,6 @@ function assertProblem(t: Tap.Test, res: { statusCode: number; headers: Record<s
   return body;
 }
 
-type Tap = typeof t;
-declare namespace Tap { type Test = Parameters<Parameters<typeof t.test>[1]>[0]; }
 
 t.test('a body that is not JSON is a 400 naming the problem', async (t) => {
   const { app } = await buildTestApp(t);

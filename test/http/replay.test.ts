@@ -39,7 +39,9 @@ t.test('a record made by today\'s code replays identically, and the replay is no
   t.same(body.serviceVersion, { stored: record.serviceVersion, now: record.serviceVersion });
   t.same(body.conventionsVersion, { stored: record.conventionsVersion, now: record.conventionsVersion });
   t.ok(Math.abs(Date.parse(body.replayedAt) - Date.now()) < 60_000, 'replayedAt is now');
+  t.same(body.policy, { stored: record.policy, now: record.policy }, 'replayed under the policy it was recorded with');
   t.match(body.summary, /reproduces all \d+ values/);
+  t.notMatch(body.summary, /policy/);
   t.equal(await chainLength(), before, 'no audit record appended');
 });
 
@@ -74,6 +76,8 @@ t.test('an older result: exactly the changed number, the reordered ranking and t
   });
   t.same(byPath['verdict/chosen'], { path: 'verdict/chosen', change: 'value', stored: second.name, now: first.name, absoluteChange: null, relativeChange: null });
   t.match(body.summary, /4 of \d+ stored values differ/);
+  t.equal(body.policy.stored, null, 'a record made before policies');
+  t.match(body.summary, /policy in force differs from the one recorded/);
   t.match(body.summary, new RegExp(`chosen model changes from ${second.name} to ${first.name}`));
 });
 

@@ -3,7 +3,11 @@
 // criteria are derived from each model's RSS and parameter count with the
 // formulas of the public contract (api.md, "Conventions"), so a record is
 // internally consistent, but no test here checks statistics.
+import { DEFAULT_POLICY, deltaBand, type Policy } from '../../src/core/policy.ts';
 import type { CriterionName, ModelView, RankingEntry, StoredComparisonView } from '../../src/render/types.ts';
+
+/** Words for each entry's Δ, as a stored result carries them (entry.band); absent for records older than bands. */
+export type FixtureBands = { policy: Policy } | undefined;
 
 export interface FixtureModel {
   name: string;
@@ -45,7 +49,12 @@ function rank(models: ModelView[], criterion: CriterionName, value: (m: ModelVie
   });
 }
 
-export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss?: number; label?: string; id?: string } = {}): StoredComparisonView {
+/**
+ * bands: label each entry with the policy's words for its Δ, by the policy's own
+ * function (src/core/policy.ts deltaBand), as the service does since results
+ * carry bands; adjusted R² gets null, as in the contract.
+ */
+export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss?: number; label?: string; id?: string; bands?: FixtureBands } = {}): StoredComparisonView {
   const n = options.n ?? 40;
   const tss = options.tss ?? 12.5;
   const views: ModelView[] = models.map((m) => {
@@ -81,6 +90,12 @@ export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss
     hqc: rank(views, 'hqc', (m) => m.hqc ?? null),
     adjustedR2: rank(views, 'adjustedR2', (m) => m.adjustedR2, true),
   };
+  const bands = options.bands;
+  if (bands) {
+    for (const [criterion, entries] of Object.entries(rankings) as [CriterionName, RankingEntry[]][]) {
+      for (const e of entries) e.band = criterion === 'adjustedR2' ? null : deltaBand(e.delta, criterion as Parameters<typeof deltaBand>[1], bands.policy);
+    }
+  }
   const best = Object.fromEntries(Object.entries(rankings).map(([c, entries]) => [c, entries[0]?.name ?? null]));
   const agree = new Set(Object.values(best)).size === 1;
   const id = options.id ?? 'cmp_0001';
@@ -100,12 +115,15 @@ export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss
       rankings,
       verdict: { agree, best, rankBy: 'aicc', summary: agree ? `All criteria prefer ${best.aicc}.` : 'The criteria prefer different models.' },
       cautions: [],
+      ...(bands ? { policy: { name: bands.policy.name, hash: 'sha256:' + 'd'.repeat(64) } } : {}),
     },
   };
 }
 
+export const defaultPolicyBands: FixtureBands = { policy: DEFAULT_POLICY };
+
 /** Five tile-shrinkage candidates on which BIC and adjusted R² part company with AICc. */
-export function kilnRecord(label = 'kiln trial, March'): StoredComparisonView {
+export function kilnRecord(label = 'kiln trial, March', bands?: FixtureBands): StoredComparisonView {
   return fixtureRecord(
     [
       { name: 'linear', rss: 4.1, parameters: 3, terms: ['peakTemp'] },
@@ -114,6 +132,6 @@ export function kilnRecord(label = 'kiln trial, March'): StoredComparisonView {
       { name: 'with-moisture', rss: 3.05, parameters: 8, terms: ['peakTemp', 'moisture', 'holdMinutes', 'kiln[west]', 'peakTemp^2', 'moisture:kiln[west]'] },
       { name: 'hold-only', rss: 9.8, parameters: 3, terms: ['holdMinutes'] },
     ],
-    { label },
+    { label, bands },
   );
 }

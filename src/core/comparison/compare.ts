@@ -16,6 +16,7 @@ import { rankAll, type BandedEntry } from './rankings.ts';
 import { comparisonCautions, type Caution } from './cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
 import { fitAll } from './fit-all.ts';
+import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 
 export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
 
@@ -29,6 +30,7 @@ export interface ComparisonInput {
   rankBy?: CriterionName;
   confidenceLevel?: number;
   expectedFingerprint?: string;
+  extras?: ExtrasOptions;
   policy: Policy;
   policyHash: string;
 }
@@ -43,8 +45,10 @@ export interface ComparisonOutcome {
   policy: { name: string; hash: string };
   dataset: { fingerprint: string | null; observations: number; rowsDropped: number; response: string | null; weights: string | null };
   models: ModelResult[];
-  rankings: Record<CriterionName, BandedEntry[]>;
+  rankings: Record<CriterionName | 'loo', BandedEntry[]>;
   verdict: Verdict;
+  nestedTests: Extras['nestedTests'];
+  averaged: Extras['averaged'];
   cautions: Caution[];
 }
 
@@ -126,6 +130,12 @@ export function compareModels(
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
   const rankings = rankAll(models, confidenceLevel, input.policy);
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
+  const extras = comparisonExtras({
+    columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values,
+    sample: JSON.stringify([input.response, input.weights]), termColumns: used,
+    candidates: input.candidates, fitted, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
+  });
+  if ('issues' in extras) return extras;
 
   return {
     fitted: [...fitted.values()],
@@ -134,8 +144,10 @@ export function compareModels(
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
-      rankings,
+      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })) },
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
+      nestedTests: extras.nestedTests,
+      averaged: extras.averaged,
       cautions: comparisonCautions({ dropped, n: ctx.n, hasData: input.columns !== null, models, requestedRankBy: input.rankBy, ratio, policy: input.policy }),
     },
   };

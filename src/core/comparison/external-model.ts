@@ -128,6 +128,10 @@ export function scoreExternalCandidate(
       coefficients: [],
       aliased: [],
       conditionNumber: null,
+      press: null,
+      looRmse: null,
+      diagnostics: null,
+      predictions: null,
       cautions,
     },
   };

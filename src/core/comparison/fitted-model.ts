@@ -4,6 +4,7 @@ import { fitLeastSquares } from '../fit/index.ts';
 import { gaussianLogLikelihood } from '../likelihood.ts';
 import { computeCriteria } from '../criteria.ts';
 import type { DesignMatrix, LeastSquaresFit, Term } from '../types.ts';
+import type { ModelDiagnostics } from '../diagnostics/index.ts';
 import type { Caution } from './cautions.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
 import { criteriaFields, finiteOrNull, transformCaution } from './model-fields.ts';
@@ -37,6 +38,13 @@ export interface ModelResult {
   coefficients: { term: string; estimate: number | null; standardError: number | null }[];
   aliased: string[];
   conditionNumber: number | null;
+  /** Exact leave-one-out: Σ w (e/(1−h))² from the hat matrix, and sqrt(press/n); null fitted elsewhere. */
+  press: number | null;
+  looRmse: number | null;
+  /** Assumption checks; null for a model fitted elsewhere (no rows to check). */
+  diagnostics: ModelDiagnostics | null;
+  /** Mean-response predictions for options.predict rows; null when none were asked for. */
+  predictions: { estimate: number | null; standardError: number | null }[] | null;
   cautions: Caution[];
 }
 
@@ -117,6 +125,10 @@ export function fitCandidate(
     })),
     aliased: fit.aliased,
     conditionNumber: finiteOrNull(fit.conditionNumber),
+    press: null,
+    looRmse: null,
+    diagnostics: null,
+    predictions: null,
     cautions,
   };
   return { result, fit, design };

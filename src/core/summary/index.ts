@@ -4,3 +4,7 @@ export { summariseRows } from './summarise.ts';
 export { mergeSummaries, type MergeOutcome } from './merge.ts';
 export { validateSummary, SUMMARY_TOLERANCE } from './validate.ts';
 export { fitFromSummary, type SummaryFit, type SummaryFitOutcome } from './fit.ts';
+export { summaryModelResult, ROWS_UNAVAILABLE_CAUTION } from './summary-model.ts';
+export { summaryIssues } from './as-issues.ts';
+export { summaryFingerprint } from './fingerprint.ts';
+export { summaryPredictors, summaryResponseIssues } from './summary-terms.ts';

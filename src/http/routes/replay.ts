@@ -10,6 +10,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { toJsonValue } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
+import type { ActivePolicy } from '../../policy-file.ts';
 import { compareModels } from '../../core/compare.ts';
 import { diffResults, type JsonValue, type ValueChange } from '../../core/result-diff.ts';
 import { serviceVersion } from '../../version.ts';
@@ -51,13 +52,13 @@ function summarise(changes: ValueChange[], compared: number, stored: JsonValue, 
   return `${parts.join('; ')}.`;
 }
 
-export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config }> = async (app, { store, config }) => {
+export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config; policy: ActivePolicy }> = async (app, { store, config, policy }) => {
   app.post('/v1/comparisons/:id/replay', {
     schema: {
       tags: ['audit'],
       summary: 'Re-run a stored comparison with today\'s code and report which values changed and by how much',
       description: [
-        'Send no body. The stored request is validated again under today\'s schema and computed again; every number, string, boolean and null of the result is compared with the stored one.',
+        'Send no body. The stored request is validated again under today\'s schema and computed again under the team policy in force today; every number, string, boolean and null of the result is compared with the stored one. `policy` says whether that policy is the one recorded (same hash).',
         'Models, ranking entries, coefficients and cautions are matched by name, term or code, so a model that moved in a ranking shows as a change of its rank, not of every entry.',
         'A replay appends no audit record and returns no new result id: it checks a record against today\'s code. To put today\'s answer on the record, POST the stored request to /v1/comparisons.',
         '409 when the record kept only the request digest, or the stored request is no longer valid or computable today (the problem lists why).',
@@ -79,7 +80,7 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Co
         `the stored request of ${record.id} does not pass today's request schema (${errors.length} problem${errors.length === 1 ? '' : 's'}; the first at ${errors[0].path || '(root)'}: ${errors[0].message})`,
         { errors }));
     }
-    const outcome = compareModels(toComparisonInput(parsed.data), { maxWorkCells: config.maxWorkCells });
+    const outcome = compareModels(toComparisonInput(parsed.data, policy), { maxWorkCells: config.maxWorkCells });
     if ('issues' in outcome) {
       const why = issuesProblem(outcome.issues);
       return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Stored request no longer computes',
@@ -94,10 +95,12 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Co
       replayedAt: new Date().toISOString(),
       serviceVersion: { stored: record.serviceVersion, now: serviceVersion },
       conventionsVersion: { stored: record.conventionsVersion, now: outcome.result.conventions.version },
+      policy: { stored: record.policy, now: outcome.result.policy },
       identical: diff.changes.length === 0,
       valuesCompared: diff.leavesCompared,
       changes: diff.changes,
-      summary: summarise(diff.changes, diff.leavesCompared, stored, now),
+      summary: summarise(diff.changes, diff.leavesCompared, stored, now)
+        + (record.policy?.hash === outcome.result.policy.hash ? '' : ' The team policy in force differs from the one recorded, so differences may come from the policy rather than the code.'),
     });
   });
 };

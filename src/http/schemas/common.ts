@@ -46,3 +46,6 @@ export const Term = z
     description:
       'A column name (numeric: one column; text: a factor), or a power, product, transform or factor of columns.',
   });
+
+export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2'] as const;
+export const Criterion = z.enum(criterionNames).meta({ id: 'Criterion' });

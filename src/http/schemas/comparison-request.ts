@@ -1,10 +1,10 @@
 // POST /v1/comparisons request: the single source of its validation, its
 // TypeScript type and its part of the OpenAPI document.
 import { z } from 'zod';
-import { ColumnName, FiniteNumber, Term } from './common.ts';
+import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
+import { PairToTest } from './comparison-extras.ts';
 
-export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2'] as const;
-export const Criterion = z.enum(criterionNames).meta({ id: 'Criterion' });
+export { Criterion, criterionNames } from './common.ts';
 
 const ColumnValuesSchema = z
   .array(
@@ -139,6 +139,12 @@ export const ComparisonOptions = z
   .strictObject({
     rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise).' }),
     confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
+    tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
+    average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
+    predict: z
+      .strictObject({ columns: z.record(ColumnName, z.array(z.union([FiniteNumber, z.string().max(200), z.null()])).max(100_000)) })
+      .optional()
+      .meta({ description: 'New rows (same columns as the data) at which every fitted model and the average predict the mean response.' }),
   })
   .meta({ id: 'ComparisonOptions' });
 
@@ -151,7 +157,7 @@ export const ComparisonRequest = z
     datasetFingerprint: z.string().regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits').optional().meta({
       description: 'The fingerprint the caller expects (README: dataset fingerprint); a mismatch is a 422.',
     }),
-    options: ComparisonOptions.default({}),
+    options: ComparisonOptions.default({ average: 'all' }),
     label: z.string().max(1000).optional(),
   })
   .superRefine((request, ctx) => {

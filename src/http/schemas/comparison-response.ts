@@ -2,6 +2,7 @@
 // or Infinity, and a caution says why.
 import { z } from 'zod';
 import { Criterion } from './comparison-request.ts';
+import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -49,6 +50,10 @@ export const ModelResult = z
     coefficients: z.array(Coefficient),
     aliased: z.array(z.string()).meta({ description: 'Design columns that are (numerically) linear combinations of the columns before them; their estimates are null.' }),
     conditionNumber: nullableNumber.meta({ description: 'Condition number estimate of the centred, scaled design the solver factorised.' }),
+    press: nullableNumber.meta({ description: 'Exact leave-one-out prediction error sum of squares Σ w (e/(1−h))² from the hat matrix; null fitted elsewhere.' }),
+    looRmse: nullableNumber.meta({ description: 'sqrt(press / n), in units of the response.' }),
+    diagnostics: Diagnostics.nullable(),
+    predictions: z.array(Prediction).nullable(),
     cautions: z.array(Caution),
   })
   .meta({ id: 'ModelResult' });
@@ -133,8 +138,11 @@ export const ComparisonResult = z
       bic: Ranking,
       hqc: Ranking,
       adjustedR2: Ranking,
+      loo: Ranking.meta({ description: 'By looRmse, smaller is better; no weights.' }),
     }),
     verdict: Verdict,
+    nestedTests: z.array(NestedTest),
+    averaged: Averaged.nullable(),
     cautions: z.array(Caution),
   })
   .meta({ id: 'ComparisonResult' });

@@ -149,6 +149,7 @@ export const ReplayChange = z
   .meta({ id: 'ReplayChange' });
 
 const VersionPair = z.strictObject({ stored: z.string(), now: z.string() });
+const PolicyRefSchema = z.strictObject({ name: z.string(), hash: z.string() });
 
 export const ReplayReport = z
   .strictObject({
@@ -156,6 +157,9 @@ export const ReplayReport = z
     replayedAt: z.string(),
     serviceVersion: VersionPair,
     conventionsVersion: VersionPair,
+    policy: z.strictObject({ stored: PolicyRefSchema.nullable(), now: PolicyRefSchema }).meta({
+      description: 'The team policy recorded with the comparison (null for records made before policies) and the one the replay ran under.',
+    }),
     identical: z.boolean().meta({ description: 'Every value of the result is reproduced exactly.' }),
     valuesCompared: z.number().int(),
     changes: z.array(ReplayChange).meta({

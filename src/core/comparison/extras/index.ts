@@ -1,0 +1,103 @@
+// After the ranking: nested-model tests, leave-one-out error and its ranking,
+// assumption checks, predictions and model averaging — the numbers a
+// practitioner needs once the criteria have spoken.
+import { nestedTests as findNestedTests, type NestedTest } from '../../inference/nested.ts';
+import { rankByLeaveOneOut } from '../../loo.ts';
+import { predictMeanResponse } from '../../predict.ts';
+import { issue, type Issue } from '../../issues.ts';
+import type { CriterionName } from '../../criteria.ts';
+import type { RankingEntry } from '../../ranking.ts';
+import type { Columns } from '../../types.ts';
+import type { FittedModel, ModelResult } from '../fitted-model.ts';
+import type { CandidateInput } from '../compare.ts';
+import type { BandedEntry } from '../rankings.ts';
+import { modelChecks } from './model-checks.ts';
+import { checkPredictionRows, predictionDesign, type PredictionColumns } from './prediction-rows.ts';
+import { averagedModels, type AveragedResult } from './averaging.ts';
+
+export interface ExtrasOptions {
+  tests?: { smaller: string; larger: string }[];
+  average?: 'all' | 'confidenceSet';
+  predict?: { columns: PredictionColumns };
+}
+
+export interface Extras {
+  nestedTests: NestedTest[];
+  averaged: AveragedResult | null;
+  loo: RankingEntry[];
+}
+
+export interface ExtrasInput {
+  columns: Columns | null;
+  rows: readonly number[] | null;
+  weights: Float64Array | undefined;
+  /** Identity of the response, its weights and rows, shared by every candidate. */
+  sample: string;
+  termColumns: readonly string[];
+  candidates: readonly CandidateInput[];
+  fitted: ReadonlyMap<number, FittedModel>;
+  models: ModelResult[];
+  rankings: Record<CriterionName, BandedEntry[]>;
+  rankBy: CriterionName;
+  options: ExtrasOptions;
+}
+
+/** Adds press, looRmse, diagnostics and predictions to the models in place; returns the comparison-wide extras. */
+export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[] } {
+  const { fitted, models, options } = input;
+  const byName = new Map(models.map((m) => [m.name, m]));
+  const predictions = new Map<string, { estimate: number | null; standardError: number | null }[]>();
+  let predictCount: number | null = null;
+  if (options.predict) {
+    if (!input.columns || !input.rows) return { issues: [issue('data_required', ['options', 'predict'], { form: 'predictions' })] };
+    const checked = checkPredictionRows(input.columns, input.rows, input.termColumns, options.predict.columns);
+    if ('issues' in checked) return checked;
+    predictCount = checked.count;
+  }
+  const issues: Issue[] = [];
+  for (const [index, model] of fitted) {
+    const result = byName.get(model.result.name)!;
+    const checks = modelChecks(model, input.rows!, input.weights);
+    result.press = checks.press;
+    result.looRmse = checks.looRmse;
+    result.diagnostics = checks.diagnostics;
+    result.cautions.push(...checks.cautions);
+    if (checks.looNote) result.cautions.push({ code: 'press_undefined', message: checks.looNote });
+    if (predictCount !== null) {
+      const c = input.candidates[index];
+      if (c.form !== 'fit') continue;
+      const built = predictionDesign(input.columns!, input.rows!, options.predict!.columns, predictCount, c.terms, c.intercept, index);
+      if ('issues' in built) {
+        issues.push(...built.issues);
+        continue;
+      }
+      const p = predictMeanResponse(model.fit, model.design, built.design, input.weights);
+      result.predictions = p.predictions;
+      predictions.set(result.name, p.predictions);
+      for (const note of p.issues) result.cautions.push({ code: note.code, message: note.message });
+    }
+  }
+  if (issues.length > 0) return { issues };
+
+  const nested = findNestedTests(
+    [...fitted].map(([index, m]) => {
+      const c = input.candidates[index];
+      return { name: m.result.name, labels: m.design.labels, fit: m.fit, sample: `${input.sample}|${JSON.stringify(c.response ?? null)}` };
+    }),
+    options.tests ?? [],
+  );
+  if (nested.issues.length > 0) {
+    return {
+      issues: nested.issues.map((n) => {
+        const i = (options.tests ?? []).findIndex((t) => t.smaller === n.facts.smaller && t.larger === n.facts.larger);
+        return issue('nested_test_invalid', ['options', 'tests', Math.max(0, i)], { reason: n.message });
+      }),
+    };
+  }
+  const loo = rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: m.looRmse ?? null })));
+  const ranking = input.rankings[input.rankBy];
+  const averaged = ranking.some((e) => e.weight !== null)
+    ? averagedModels(models, ranking, input.rankBy, options.average ?? 'all', predictions)
+    : null;
+  return { nestedTests: nested.tests, averaged, loo };
+}

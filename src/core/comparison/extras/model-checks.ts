@@ -1,0 +1,36 @@
+// Per fitted model: the exact leave-one-out error (PRESS from the hat matrix,
+// no refits) and the assumption checks behind every criterion, with row
+// numbers mapped back to the caller's data rows.
+import { leaveOneOutError } from '../../loo.ts';
+import { diagnoseFit, type ModelDiagnostics } from '../../diagnostics/index.ts';
+import type { FittedModel } from '../fitted-model.ts';
+import type { Caution } from '../cautions.ts';
+
+export interface ModelChecks {
+  press: number | null;
+  looRmse: number | null;
+  looNote: string | null;
+  diagnostics: ModelDiagnostics;
+  cautions: Caution[];
+}
+
+export function modelChecks(model: FittedModel, rows: readonly number[], weights: Float64Array | undefined): ModelChecks {
+  const loo = leaveOneOutError(model.fit, model.design, weights);
+  const d = diagnoseFit(model.fit, model.design, weights);
+  const dataRow = (i: number | null) => (i === null ? null : rows[i]);
+  const diagnostics: ModelDiagnostics = {
+    ...d,
+    influence: {
+      ...d.influence,
+      maxCooksDistanceRow: dataRow(d.influence.maxCooksDistanceRow),
+      highLeverageRowIndices: d.influence.highLeverageRowIndices.map((i) => rows[i]),
+    },
+  };
+  return {
+    press: loo.press,
+    looRmse: loo.looRmse,
+    looNote: loo.reason,
+    diagnostics,
+    cautions: d.cautions.map((message) => ({ code: 'assumption_check', message })),
+  };
+}

@@ -1,0 +1,81 @@
+// New rows to predict, validated like data: every column a fitted candidate
+// uses, of the same kind as in the data, no missing values, factor levels the
+// data know. Each candidate's prediction design is built together with the
+// data's rows so factor coding (levels, reference) is exactly the data's.
+import { buildDesign } from '../../design/index.ts';
+import { factorLevels } from '../../design/index.ts';
+import { issue, type Issue } from '../../issues.ts';
+import type { Columns, DesignMatrix, Term } from '../../types.ts';
+
+export type PredictionColumns = Readonly<Record<string, ReadonlyArray<number | string | null>>>;
+
+const at = (column: string, row?: number) => ['options', 'predict', 'columns', column, ...(row === undefined ? [] : [row])];
+
+export function checkPredictionRows(
+  data: Columns,
+  rows: readonly number[],
+  used: readonly string[],
+  predict: PredictionColumns,
+): { count: number } | { issues: Issue[] } {
+  const issues: Issue[] = [];
+  let count: number | null = null;
+  for (const name of used) {
+    if (!Object.prototype.hasOwnProperty.call(predict, name)) {
+      issues.push(issue('unknown_column', ['options', 'predict', 'columns'], { column: name }));
+      continue;
+    }
+    const values = predict[name];
+    if (count === null) count = values.length;
+    else if (values.length !== count) issues.push(issue('column_length_mismatch', at(name), { column: name, length: values.length, expected: count }));
+    const numeric = typeof data[name].find((v) => v !== null) === 'number';
+    const levels = numeric ? null : new Set(factorLevels(data[name], rows));
+    values.forEach((v, r) => {
+      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r }));
+      else if (numeric && typeof v !== 'number') issues.push(issue('column_mixed_types', at(name, r), { column: name, row: r }));
+      else if (!numeric && (typeof v !== 'string' || !levels!.has(v))) {
+        issues.push(issue('factor_level_unknown', at(name, r), { column: name, level: String(v), levels: [...levels!] }));
+      }
+    });
+  }
+  if (issues.length > 0) return { issues: issues.slice(0, 50) };
+  return { count: count ?? 0 };
+}
+
+/** The design of the prediction rows for one candidate, coded as the data are. */
+export function predictionDesign(
+  data: Columns,
+  rows: readonly number[],
+  predict: PredictionColumns,
+  count: number,
+  terms: readonly Term[],
+  intercept: boolean,
+  candidateIndex: number,
+): { design: DesignMatrix } | { issues: Issue[] } {
+  const total = Math.max(0, ...Object.values(data).map((v) => v.length));
+  const combined: Record<string, ReadonlyArray<number | string | null>> = Object.create(null);
+  for (const name of Object.keys(predict)) {
+    if (Object.prototype.hasOwnProperty.call(data, name)) combined[name] = [...data[name], ...new Array(total - data[name].length).fill(null), ...predict[name]];
+  }
+  const newRows = Array.from({ length: count }, (_, j) => total + j);
+  const built = buildDesign(combined, terms, intercept, [...rows, ...newRows], ['candidates', candidateIndex]);
+  if ('issues' in built) {
+    // A domain problem on a new row is the prediction's, not the candidate's.
+    return {
+      issues: built.issues.map((i) => ('row' in i && typeof i.row === 'number' && i.row >= total && 'column' in i
+        ? { ...i, path: at(String(i.column), i.row - total), row: i.row - total }
+        : i)) as Issue[],
+    };
+  }
+  const d = built.design;
+  const n = rows.length;
+  return {
+    design: {
+      rows: count,
+      labels: d.labels,
+      high: d.high.map((c) => c.slice(n)),
+      low: d.low.map((c) => c.slice(n)),
+      intercept: d.intercept,
+      termOfColumn: d.termOfColumn,
+    },
+  };
+}

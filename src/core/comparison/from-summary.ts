@@ -1,0 +1,114 @@
+// A comparison computed from a data summary (data.summary) instead of rows:
+// candidates fitted here are solved from the centred cross products; rss and
+// logLikelihood candidates join as usual, since they need no rows. Residuals
+// candidates and response transforms need the rows and are refused with the
+// reason. Rankings, verdict, conventions and cautions are the comparison's own.
+import type { CriterionName } from '../criteria.ts';
+import { issue, type Issue } from '../issues.ts';
+import { chooseRankBy, type Policy } from '../policy.ts';
+import { verdict } from '../verdict.ts';
+import {
+  fitFromSummary,
+  summaryFingerprint,
+  summaryIssues,
+  summaryModelResult,
+  summaryPredictors,
+  summaryResponseIssues,
+  validateSummary,
+  type DataSummary,
+} from '../summary/index.ts';
+import type { CandidateInput, ComparisonOutcome } from './compare.ts';
+import { comparisonCautions, type Caution } from './cautions.ts';
+import { conventions } from './conventions.ts';
+import { estimationIssues } from './estimation-rules.ts';
+import { scoreExternalCandidate, type ScoringContext } from './external-model.ts';
+import type { ModelResult } from './fitted-model.ts';
+import { rankAll } from './rankings.ts';
+import { rankByLeaveOneOut } from '../loo.ts';
+
+export interface SummaryComparisonInput {
+  summary: DataSummary;
+  response: string;
+  candidates: CandidateInput[];
+  rankBy?: CriterionName;
+  confidenceLevel?: number;
+  expectedFingerprint?: string;
+  policy: Policy;
+  policyHash: string;
+}
+
+export const SUMMARY_INPUT_CAUTION: Caution = {
+  code: 'summary_input',
+  message:
+    'The data came as a summary (rows, means, centred cross products), so no rows were dropped or checked here; numbers that need the rows (residual diagnostics, leave-one-out, nested tests and model averaging, which this service computes from the fitted rows) are unavailable, and the dataset fingerprint is that of the summary.',
+};
+
+function fittedFromSummary(input: SummaryComparisonInput, c: CandidateInput & { form: 'fit' }, i: number): { result: ModelResult } | { issues: Issue[] } {
+  if (c.response) {
+    return { issues: [issue('summary_rows_needed', ['candidates', i, 'response'], { form: 'a response transform', reason: 'its Jacobian sums ln g\'(y) over the rows' })] };
+  }
+  const terms = summaryPredictors(input.summary, c.terms, ['candidates', i, 'terms']);
+  if ('issues' in terms) return terms;
+  if (terms.predictors.length + (c.intercept ? 1 : 0) > input.summary.rows) {
+    return { issues: [issue('too_few_rows', ['candidates', i], { rows: input.summary.rows, parameters: terms.predictors.length + (c.intercept ? 1 : 0) })] };
+  }
+  const fit = fitFromSummary(input.summary, input.response, terms.predictors, c.intercept);
+  if (!fit.ok) return { issues: summaryIssues(fit.issues) };
+  return { result: summaryModelResult(c.name, fit.fit, input.summary, input.response, c.intercept) };
+}
+
+export function compareFromSummary(input: SummaryComparisonInput): { result: ComparisonOutcome } | { issues: Issue[] } {
+  const { summary } = input;
+  const invalid = validateSummary(summary);
+  if (invalid.length > 0) return { issues: summaryIssues(invalid) };
+  const issues: Issue[] = [...summaryResponseIssues(summary, input.response)];
+  issues.push(...estimationIssues(input.candidates.map((c, index) => ({
+    name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
+  }))));
+  if (issues.length > 0) return { issues };
+  const ctx: ScoringContext = {
+    n: summary.rows,
+    rows: null,
+    dataRows: null,
+    y: null,
+    weights: summary.weights ? { values: new Float64Array(0), sumLogWeights: summary.weights.sumLog } : null,
+    nSource: 'the summary states rows',
+  };
+  const models: ModelResult[] = [];
+  input.candidates.forEach((c, i) => {
+    const scored = c.form === 'fit'
+      ? fittedFromSummary(input, c, i)
+      : c.form === 'residuals'
+        ? { issues: [issue('summary_rows_needed', ['candidates', i, 'residuals'], { form: 'a residuals candidate', reason: 'residuals line up with rows, which a summary does not have; send its rss instead' })] }
+        : scoreExternalCandidate(c, ['candidates', i], ctx);
+    if ('issues' in scored) issues.push(...scored.issues);
+    else models.push(scored.result);
+  });
+  if (issues.length > 0) return { issues };
+  const fingerprint = summaryFingerprint(summary);
+  if (input.expectedFingerprint && input.expectedFingerprint !== fingerprint) {
+    return { issues: [issue('fingerprint_mismatch', ['datasetFingerprint'], { expected: input.expectedFingerprint, actual: fingerprint })] };
+  }
+  const largestK = Math.max(...models.map((m) => m.parameters));
+  const ratio = largestK > 0 ? summary.rows / largestK : null;
+  const choice = chooseRankBy(input.rankBy, input.policy, ratio);
+  const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
+  const rankings = rankAll(models, confidenceLevel, input.policy);
+  const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
+  const cautions = comparisonCautions({ dropped: 0, n: summary.rows, hasData: true, models, requestedRankBy: input.rankBy, ratio, policy: input.policy });
+  cautions.splice(1, 0, SUMMARY_INPUT_CAUTION);
+  return {
+    result: {
+      conventions: conventions(choice, confidenceLevel),
+      policy: { name: input.policy.name, hash: input.policyHash },
+      dataset: { fingerprint, observations: summary.rows, rowsDropped: 0, response: input.response, weights: summary.weights ? '(summary)' : null },
+      models,
+      // Leave-one-out needs the rows: every model without a value, so the ranking says so.
+      rankings: { ...rankings, loo: rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: null }))).map((e) => ({ ...e, band: null })) },
+      verdict: verdict(rankings, choice.rankBy, { parameters, observations: summary.rows }),
+      nestedTests: [],
+      averaged: null,
+      cautions,
+    },
+  };
+}

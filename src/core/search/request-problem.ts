@@ -1,0 +1,123 @@
+// A search request (rows or a data summary) reduced to the kernel's problem,
+// with everything needed afterwards to refit the best subsets exactly as a
+// comparison would. Problems with the request come back as issues.
+import { buildDesign, columnsUsedBy, commonRows, responseValues, weightValues } from '../design/index.ts';
+import { termLabel } from '../design/labels.ts';
+import { datasetFingerprint } from '../fingerprint.ts';
+import { issue, type Issue, type IssueFacts, type IssuePath } from '../issues.ts';
+import type { Columns, Term } from '../types.ts';
+import { summaryFingerprint, summaryIssues, summaryPredictors, summaryResponseIssues, validateSummary, type DataSummary } from '../summary/index.ts';
+import { hierarchyRules, noHierarchy, type HierarchyRules } from './hierarchy.ts';
+import { subsetProblemFromDesign, subsetProblemFromSummary } from './problem.ts';
+import type { SubsetProblem } from './types.ts';
+
+export interface SearchRequestInput {
+  /** Exactly one of columns and summary. */
+  columns: Columns | null;
+  summary: DataSummary | null;
+  response: string;
+  weights: string | null;
+  pool: Term[];
+  always: Term[];
+  hierarchy: boolean;
+  intercept: boolean;
+  top: number;
+}
+
+export type SearchSource =
+  | { kind: 'rows'; columns: Columns; rows: number[]; y: Float64Array; weights: { values: Float64Array; sumLogWeights: number } | null; dropped: number }
+  | { kind: 'summary'; summary: DataSummary; pool: string[]; always: string[] };
+
+export interface PreparedSearch {
+  input: SearchRequestInput;
+  problem: SubsetProblem;
+  rules: HierarchyRules;
+  source: SearchSource;
+  fingerprint: string;
+}
+
+/** buildDesign reports terms/j of the combined list [...pool, ...always]; point back into the request. */
+function intoRequest(found: Issue, poolSize: number): Issue {
+  const { code, path, message: _message, ...facts } = found as Issue & Record<string, unknown>;
+  let at: IssuePath = path;
+  if (path[0] === 'terms' && typeof path[1] === 'number') {
+    const j = path[1];
+    at = j < poolSize ? ['pool', j, ...path.slice(2)] : ['always', j - poolSize, ...path.slice(2)];
+  }
+  return issue(code, at, facts as unknown as IssueFacts[typeof code]);
+}
+
+function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyRules, maxWorkCells: number): PreparedSearch | { issues: Issue[] } {
+  const terms = [...input.pool, ...input.always];
+  const used = columnsUsedBy(terms);
+  const { rows, dropped } = commonRows(columns, [input.response, ...(input.weights ? [input.weights] : []), ...used]);
+  const issues: Issue[] = [];
+  const y = responseValues(columns, input.response, rows);
+  if ('issues' in y) issues.push(...y.issues);
+  const w = input.weights ? weightValues(columns, input.weights, rows) : null;
+  if (w && 'issues' in w) issues.push(...w.issues);
+  if (rows.length === 0) issues.push(issue('all_rows_dropped', ['data', 'columns'], { rows: dropped, dropped }));
+  if (issues.length > 0) return { issues };
+  const built = buildDesign(columns, terms, input.intercept, rows);
+  if ('issues' in built) return { issues: built.issues.map((i) => intoRequest(i, input.pool.length)) };
+  // The design is summarised once and the best `top` subsets are refitted on the rows.
+  const cells = rows.length * built.design.labels.length * (input.top + 1);
+  if (cells > maxWorkCells) return { issues: [issue('work_limit', ['pool'], { cells, limit: maxWorkCells, setting: 'MAX_WORK_CELLS' })] };
+  const weights = w && 'values' in w ? w : null;
+  const values = (y as { values: Float64Array }).values;
+  return {
+    input,
+    rules,
+    problem: subsetProblemFromDesign(built.design, values, weights?.values ?? null, input.pool.length, rules),
+    source: { kind: 'rows', columns, rows, y: values, weights, dropped },
+    fingerprint: datasetFingerprint({ columns, response: input.response, weights: input.weights, used, rows }),
+  };
+}
+
+function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
+  const invalid = validateSummary(summary);
+  if (invalid.length > 0) return { issues: summaryIssues(invalid) };
+  const issues = summaryResponseIssues(summary, input.response);
+  const pool = summaryPredictors(summary, input.pool, ['pool']);
+  const always = summaryPredictors(summary, input.always, ['always']);
+  if ('issues' in pool) issues.push(...pool.issues);
+  if ('issues' in always) issues.push(...always.issues);
+  if ('issues' in pool || 'issues' in always || issues.length > 0) return { issues };
+  const seen = new Map<string, number>();
+  [...pool.predictors, ...always.predictors].forEach((name, j) => {
+    const first = seen.get(name);
+    const at: IssuePath = j < pool.predictors.length ? ['pool', j] : ['always', j - pool.predictors.length];
+    if (first !== undefined) issues.push(issue('duplicate_term', at, { label: name, first }));
+    else seen.set(name, j);
+  });
+  if (issues.length > 0) return { issues };
+  const built = subsetProblemFromSummary(summary, {
+    response: input.response,
+    pool: pool.predictors.map((p) => [p]),
+    always: always.predictors,
+    intercept: input.intercept,
+    requires: rules.requires,
+    blocked: rules.unreachable.map((u) => u.term),
+  });
+  if (!built.ok) return { issues: summaryIssues(built.issues) };
+  return {
+    input,
+    rules,
+    problem: built.problem,
+    source: { kind: 'summary', summary, pool: pool.predictors, always: always.predictors },
+    fingerprint: summaryFingerprint(summary),
+  };
+}
+
+export function prepareSearch(input: SearchRequestInput, limits: { maxWorkCells: number }): PreparedSearch | { issues: Issue[] } {
+  const rules = input.hierarchy ? hierarchyRules(input.pool, input.always) : noHierarchy(input.pool.length);
+  if (input.summary) return fromSummary(input, input.summary, rules);
+  if (input.columns) return fromRows(input, input.columns, rules, limits.maxWorkCells);
+  return { issues: [issue('data_required', ['data'], { form: 'a search' })] };
+}
+
+/** A subset's readable name: its terms' labels joined by " + ". */
+export function subsetName(terms: readonly Term[], intercept: boolean): string {
+  if (terms.length === 0) return intercept ? '(intercept only)' : '(no terms)';
+  return terms.map(termLabel).join(' + ');
+}

@@ -1,0 +1,91 @@
+// The parts of a comparison response that come after the ranking: nested-model
+// tests, model averaging, leave-one-out, assumption checks and predictions.
+import { z } from 'zod';
+import { Criterion } from './common.ts';
+
+const n = z.number().nullable();
+
+export const NestedTest = z
+  .strictObject({
+    smaller: z.string(),
+    larger: z.string(),
+    df: z.number().int().meta({ description: 'Rank difference: numerator df of F and df of the χ² test.' }),
+    residualDf: z.number().int().meta({ description: 'Denominator df of F: n − rank of the larger model.' }),
+    fStatistic: n.meta({ description: 'Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf).' }),
+    fPValue: n.meta({ description: 'Upper tail of F(df, residualDf), via the regularised incomplete beta function.' }),
+    lrStatistic: n.meta({ description: 'Likelihood ratio 2(logL_l − logL_s).' }),
+    lrPValue: n.meta({ description: 'Upper tail of χ²(df), via the regularised incomplete gamma function.' }),
+    reason: z.string().nullable().meta({ description: 'Why statistics are null, when they are.' }),
+  })
+  .meta({ id: 'NestedTest', description: 'A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows).' });
+
+const Estimate = z.strictObject({ estimate: n, standardError: n });
+
+export const Prediction = Estimate.meta({ id: 'Prediction', description: 'Estimated mean response at a new row, with its standard error (not a prediction interval for a new observation). On the model\'s response scale.' });
+
+export const AveragedTerm = z
+  .strictObject({
+    term: z.string(),
+    importance: z.number().meta({ description: 'Summed weight of the averaged models that contain the term.' }),
+    estimate: z.number().meta({ description: 'Average over all averaged models, zero where a model lacks the term.' }),
+    unconditionalStandardError: n,
+    overModelsWithTerm: z.strictObject({ estimate: z.number(), unconditionalStandardError: n }).meta({
+      description: 'Average over the models containing the term only, weights renormalised over them.',
+    }),
+  })
+  .meta({ id: 'AveragedTerm' });
+
+export const Averaged = z
+  .strictObject({
+    criterion: Criterion,
+    over: z.enum(['all', 'confidenceSet']),
+    models: z.array(z.string()),
+    excluded: z.array(z.strictObject({ name: z.string(), reason: z.string() })),
+    estimator: z.enum(['eq6.12', 'eq4.9']),
+    estimatorDescription: z.string(),
+    averages: z.strictObject({ estimate: z.string(), overModelsWithTerm: z.string() }),
+    terms: z.array(AveragedTerm),
+    predictions: z.array(Estimate).meta({ description: 'Averaged mean-response predictions with the unconditional standard error.' }),
+    notes: z.array(z.string()),
+  })
+  .meta({ id: 'Averaged', description: 'Model-averaged coefficients (Burnham & Anderson 2002) over the ranking criterion\'s weights.' });
+
+const Check = { passed: z.boolean().nullable() };
+
+export const Diagnostics = z
+  .strictObject({
+    available: z.boolean(),
+    reason: z.string().nullable(),
+    residualNormality: z.strictObject({
+      test: z.literal('Jarque–Bera'), statistic: n, df: z.literal(2), pValue: n, skewness: n, kurtosis: n, alpha: z.number(), ...Check, note: z.string(),
+    }),
+    heteroscedasticity: z.strictObject({
+      test: z.literal('Breusch–Pagan (studentised, Koenker)'), statistic: n, df: z.number().int().nullable(), pValue: n, alpha: z.number(), ...Check, note: z.string().nullable(),
+    }),
+    autocorrelation: z.strictObject({
+      test: z.literal('Durbin–Watson'), statistic: n, acceptableRange: z.tuple([z.number(), z.number()]), ...Check,
+      note: z.string().meta({ description: 'Durbin–Watson is meaningful only when the row order is time (or another sequence) order.' }),
+    }),
+    multicollinearity: z.strictObject({
+      varianceInflationFactors: z.array(z.strictObject({ term: z.string(), vif: n })),
+      maxVarianceInflation: n,
+      varianceInflationThreshold: z.number(),
+      conditionNumber: n,
+      conditionNumberThreshold: z.number(),
+      ...Check,
+      note: z.string().nullable(),
+    }),
+    influence: z.strictObject({
+      maxCooksDistance: n,
+      maxCooksDistanceRow: z.number().int().nullable().meta({ description: 'Data row (0-based, as sent) of the largest Cook\'s distance.' }),
+      cooksDistanceThreshold: z.number(),
+      leverageThreshold: z.number().meta({ description: '2p/n (rule of thumb).' }),
+      highLeverageRows: z.number().int(),
+      highLeverageRowIndices: z.array(z.number().int()).meta({ description: 'Data rows (0-based, as sent) above the leverage threshold.' }),
+      ...Check,
+    }),
+    cautions: z.array(z.string()),
+  })
+  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors.' });
+
+export const PairToTest = z.strictObject({ smaller: z.string().min(1), larger: z.string().min(1) });
