@@ -15,3 +15,5 @@ export type { BandLegend } from './band-legend.ts';
 export { escapeText, escapeAttribute, toCarriableText } from './escape.ts';
 export type { StoredComparisonView, ComparisonResultView, ModelView, RankingEntry, CriterionName } from './types.ts';
 export { criterionNames } from './types.ts';
+export { storedComparisonView } from './stored-view.ts';
+export type { StoredRecordLike } from './stored-view.ts';

@@ -2,7 +2,8 @@ import t from 'tap';
 import { parseChartOptions } from '../../src/render/chart-options.ts';
 import { renderChartSvg } from '../../src/render/chart-svg.ts';
 import type { StoredComparisonView } from '../../src/render/types.ts';
-import { fixtureRecord, kilnRecord, type FixtureModel } from './fixture-record.ts';
+import { DEFAULT_POLICY } from '../../src/core/policy.ts';
+import { defaultPolicyBands, fixtureRecord, kilnRecord, type FixtureModel } from './fixture-record.ts';
 import { summariseSvg, type SvgSummary } from './parse-with-python.ts';
 
 function draw(record: StoredComparisonView, query: Record<string, unknown> = {}): { svg: string; parsed: SvgSummary } {
@@ -43,18 +44,67 @@ t.test('one Δ bar and one weight bar per model, in ranking order, values writte
 });
 
 t.test('band lines at 2, 4, 7 and 10 with their wording; none for adjusted R²', async (t) => {
+  // A record without bands (older than bands in results): our own wording.
   const { parsed } = draw(kilnRecord());
   t.same(marked(parsed, 'band-line').map((l) => l.data.at), ['2', '4', '7', '10']);
   const legend = marked(parsed, 'band-legend')[0].text;
-  t.match(legend, /Up to 2: about as good as the best/);
-  t.match(legend, /4 to 7: clearly weaker/);
-  t.match(legend, /over 10: hardly any support/);
-  t.match(legend, /between bands/);
+  t.match(legend, /Dashed lines at Δ 2, 4, 7 and 10\./);
+  t.match(legend, /Δ ≤ 2: about as good as the best/);
+  t.match(legend, /4 ≤ Δ ≤ 7: clearly weaker/);
+  t.match(legend, /Δ > 10: hardly any support/);
+  t.match(legend, /2 < Δ < 4: between bands/);
   const adjusted = draw(kilnRecord(), { criterion: 'adjustedR2' }).parsed;
   t.equal(marked(adjusted, 'band-line').length, 0);
   t.equal(marked(adjusted, 'weight-bar').length, 0, 'adjusted R² has no weights to draw');
   t.equal(marked(adjusted, 'delta-bar').length, 5);
   t.match(marked(adjusted, 'band-legend')[0].text, /No weights are defined/);
+});
+
+// The default team policy (src/core/policy.ts DEFAULT_POLICY): Burnham & Anderson's
+// rule of thumb for AIC-type Δ, Kass & Raftery's scale for ΔBIC. A record whose
+// entries carry its words shows those words, beside the bars and in the legend.
+t.test('a record carrying the default policy\'s bands: the bars and legend use its words', async (t) => {
+  const record = kilnRecord('kiln trial, March', defaultPolicyBands);
+  const { parsed } = draw(record);
+  const legend = marked(parsed, 'band-legend')[0].text;
+  t.match(legend, /In the words of policy “parsimetry-default”: Δ ≤ 2: substantial support · 2 < Δ < 4: between substantial and considerably less support · 4 ≤ Δ ≤ 7: considerably less support · 7 < Δ ≤ 10: between considerably less and essentially no support · Δ > 10: essentially no support\./);
+  t.notMatch(legend, /about as good as the best|clearly weaker|hardly any support/, 'none of our own words');
+  t.match(parsed.desc, /linear: Δ 3\.29 \(between substantial and considerably less support\)/);
+  const bar = marked(parsed, 'delta-bar').find((b) => b.data.model === 'with-moisture')!;
+  t.match(bar.title, /considerably less support/);
+  for (const entry of record.result.rankings.aicc!) t.match(parsed.desc, `(${entry.band})`, `${entry.name}: the JSON's words`);
+});
+
+t.test('BIC: lines at 2, 6 and 10 (Kass & Raftery), worded as the record\'s BIC bands', async (t) => {
+  const banded = draw(kilnRecord('kiln trial, March', defaultPolicyBands), { criterion: 'bic' }).parsed;
+  t.same(marked(banded, 'band-line').map((l) => l.data.at), ['2', '6', '10']);
+  const legend = marked(banded, 'band-legend')[0].text;
+  t.match(legend, /Dashed lines at Δ 2, 6 and 10\./);
+  t.match(legend, /Δ ≤ 2: evidence against it barely worth a mention · 2 < Δ ≤ 6: positive evidence against it · 6 < Δ ≤ 10: strong evidence against it · Δ > 10: very strong evidence against it/);
+  t.match(banded.desc, /with-moisture: Δ 8\.68 \(strong evidence against it\)/);
+  t.same(marked(banded, 'band-zone').map((z) => z.data.band), ['strong', 'very-strong'], 'zones shaded from 6 and from 10');
+  // Without bands in the record, BIC still gets its own edges, in our words.
+  const bare = draw(kilnRecord(), { criterion: 'bic' }).parsed;
+  t.same(marked(bare, 'band-line').map((l) => l.data.at), ['2', '6', '10']);
+  t.match(bare.desc, /with-moisture: Δ 8\.68 \(strong evidence against it\)/);
+  t.match(bare.desc, /linear: Δ 2\.07 \(some evidence against it\)/);
+});
+
+t.test('a team policy with words of its own: the bars carry its words, the legend says whose they are', async (t) => {
+  const teamPolicy = {
+    ...DEFAULT_POLICY,
+    name: 'glaze-line',
+    akaikeBands: [
+      { maxDelta: 3, includeMax: true, wording: 'keep in view' },
+      { maxDelta: null, includeMax: false, wording: 'set aside' },
+    ],
+  };
+  const { parsed } = draw(kilnRecord('kiln trial, March', { policy: teamPolicy }));
+  const legend = marked(parsed, 'band-legend')[0].text;
+  t.match(legend, /The words beside the bars are those of policy “glaze-line”/);
+  t.notMatch(legend, /substantial support|about as good as the best/, 'no wording the bars do not use');
+  t.match(parsed.desc, /by-kiln: Δ 1\.25 \(keep in view\)/);
+  t.match(parsed.desc, /linear: Δ 3\.29 \(set aside\)/);
 });
 
 t.test('the strip names the model each criterion prefers and marks disagreement without colour', async (t) => {

@@ -1,0 +1,52 @@
+// What a reader of a search result needs to be told: the standing caution,
+// the optimism of choosing the best of many subsets, and everything the
+// search passed over, pruned or could not score.
+import { STANDING_CAUTION, type Caution } from '../comparison/cautions.ts';
+import { SUMMARY_INPUT_CAUTION } from '../comparison/from-summary.ts';
+import { subsetName, type PreparedSearch } from './request-problem.ts';
+import type { SearchOutcome } from './result.ts';
+
+export function searchCautions(prepared: PreparedSearch, outcome: SearchOutcome): Caution[] {
+  const out: Caution[] = [
+    STANDING_CAUTION,
+    {
+      code: 'selection_optimism',
+      message: `The best of ${outcome.evaluated} subsets was chosen on these same data, so its criterion and R² are optimistic about how it will predict new data (selection bias); confirm the chosen model on data the search did not see.`,
+    },
+  ];
+  const { source, rules, input } = prepared;
+  if (source.kind === 'rows' && source.dropped > 0) {
+    const n = prepared.problem.observations;
+    out.push({
+      code: 'rows_dropped',
+      message: `${source.dropped} of ${n + source.dropped} rows have a missing value in the response, the weights or a column some pool or always term uses, and were left out of every subset, so all subsets are scored on the same ${n} rows.`,
+    });
+  }
+  if (source.kind === 'summary') out.push(SUMMARY_INPUT_CAUTION);
+  if (rules.unreachable.length > 0) {
+    const list = rules.unreachable.map((u) => `${subsetName([input.pool[u.term]], true)} (missing ${u.missing.map((m) => m.join(':')).join(', ')})`);
+    out.push({
+      code: 'hierarchy_unreachable',
+      message: `Under the hierarchy rule these pool terms can never enter, because a term they are built from is in neither the pool nor always: ${list.join('; ')}.`,
+    });
+  }
+  if (!outcome.weightsCoverAllSubsets) {
+    out.push({
+      code: 'weights_over_evaluated_subsets',
+      message: `Branch and bound proved ${outcome.pruned} subsets unable to enter the best ${input.top} and did not score them, so delta is exact but weight and importance are over the ${outcome.evaluated} evaluated subsets only (they overstate the true weights).`,
+    });
+  }
+  if (outcome.rankDeficient > 0) {
+    out.push({
+      code: 'rank_deficient_subsets',
+      message: `${outcome.rankDeficient} subsets have aliased design columns; each is scored with k = its numerical rank + 1, as a comparison would, so it repeats the score of a smaller subset with one more term.`,
+    });
+  }
+  if (outcome.unscorable > 0) {
+    out.push({
+      code: 'unscorable_subsets',
+      message: `${outcome.unscorable} subsets have no value of the ranking criterion (too few rows for their parameters; AICc needs n - k - 1 > 0) and take no part in weights or importance.`,
+    });
+  }
+  return out;
+}

@@ -1,0 +1,55 @@
+// POST /v1/searches response: the best subsets with the fields of a
+// comparison's models plus their terms, delta and weight over every
+// evaluated subset; term importance; the budget the search ran under.
+import { z } from 'zod';
+import { Term } from './common.ts';
+import { Caution, Conventions, Dataset, ModelResult } from './comparison-response.ts';
+
+export const SearchModel = ModelResult.extend({
+  terms: z.array(Term).meta({ description: 'The subset\'s terms in the request\'s forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit.' }),
+  delta: z.number().meta({ description: 'Criterion value minus the best over all evaluated subsets (>= 0).' }),
+  weight: z.number().meta({ description: 'Akaike weight over all evaluated subsets: exp(−Δ/2) / Σ exp(−Δ_j/2).' }),
+}).meta({ id: 'SearchModel' });
+
+export const SearchBudgetSchema = z
+  .strictObject({
+    maxSubsets: z.number().int().meta({ description: 'Most subsets one exhaustive search may score (2^m for m pool terms).' }),
+    maxBranchAndBoundTerms: z.number().int().meta({ description: 'Largest pool branch and bound accepts.' }),
+    maxNodes: z.number().int().meta({ description: 'Most tree nodes branch and bound may visit.' }),
+    estimatedFlops: z.number().nullable().meta({ description: 'Exhaustive: about 2 d² multiply-adds per subset (d design columns); null for branch and bound.' }),
+    nodes: z.number().int().meta({ description: 'Branch-and-bound nodes visited (0 exhaustive).' }),
+    elapsedMs: z.number().meta({ description: 'Wall time of the subset scoring (not the refits).' }),
+  })
+  .meta({ id: 'SearchBudget' });
+
+export const SearchResult = z
+  .strictObject({
+    id: z.string(),
+    createdAt: z.string(),
+    serviceVersion: z.string(),
+    conventions: Conventions,
+    policy: z.strictObject({ name: z.string(), hash: z.string() }),
+    dataset: Dataset,
+    method: z.enum(['exhaustive', 'branchAndBound']),
+    evaluated: z.number().int().meta({ description: 'Subsets scored; delta, weights and importance are over exactly these.' }),
+    subsets: z.number().int().meta({ description: '2^m: every subset of the pool.' }),
+    weightsCoverAllSubsets: z.boolean().meta({ description: 'True when no admissible subset was pruned, so weights and importance are over all of them.' }),
+    passedOver: z
+      .strictObject({
+        notHierarchical: z.number().int(),
+        unscorable: z.number().int(),
+        pruned: z.number().int(),
+      })
+      .meta({ description: 'Subsets not scored: outside the hierarchy rule, without a criterion value, or proven out of the top by branch and bound.' }),
+    rankDeficient: z.number().int().meta({ description: 'Evaluated subsets with aliased design columns.' }),
+    budget: SearchBudgetSchema,
+    threads: z.number().int().meta({ description: 'Worker threads the subsets were scored on.' }),
+    models: z.array(SearchModel).meta({ description: 'The best `top` subsets by conventions.rankBy, best first.' }),
+    importance: z
+      .array(z.strictObject({ term: Term, label: z.string(), weight: z.number() }))
+      .meta({ description: 'Per pool term, in pool order: the summed weight of the evaluated subsets that hold it.' }),
+    cautions: z.array(Caution),
+  })
+  .meta({ id: 'SearchResult' });
+
+export type SearchResult = z.output<typeof SearchResult>;
