@@ -29,6 +29,10 @@ RUN groupadd --system parsimetry \
 USER parsimetry
 VOLUME ["/app/data"]
 EXPOSE 8080
+# SIGTERM starts the graceful shutdown (src/shutdown.ts): in-flight requests
+# finish and commit their audit records within SHUTDOWN_GRACE_MS (20 s); give
+# the orchestrator's stop timeout a little more than that (compose: stop_grace_period).
+STOPSIGNAL SIGTERM
 # HOST=0.0.0.0 needs API keys (API_KEYS_FILE): without them the service refuses
 # to listen beyond loopback.
 HEALTHCHECK --interval=15s --timeout=3s --start-period=20s --retries=3 \

@@ -1,9 +1,10 @@
 // npm run demo: start the service in-process on a free port with a throwaway
 // audit file, post the demo comparison over real HTTP, print the ranking as an
-// aligned table, and stop.
-import { mkdtempSync, rmSync } from 'node:fs';
+// aligned table, fetch the comparison's chart and report as a user would and
+// write them to out/, and stop.
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, relative, resolve } from 'node:path';
 import { defaultConfig } from '../src/config.ts';
 import { openAuditStore } from '../src/audit/open.ts';
 import { buildApp } from '../src/http/app.ts';
@@ -27,6 +28,20 @@ try {
     process.exitCode = 1;
   } else {
     process.stdout.write(formatRankingTable(body));
+    const outDir = resolve(import.meta.dirname, '../out');
+    mkdirSync(outDir, { recursive: true });
+    for (const [path, file] of [['chart.svg', 'demo-chart.svg'], ['report', 'demo-report.html']]) {
+      const picture = await fetch(`${address}/v1/comparisons/${body.id}/${path}`);
+      const text = await picture.text();
+      if (!picture.ok) {
+        process.stderr.write(`demo: GET ${path} answered ${picture.status}: ${text}\n`);
+        process.exitCode = 1;
+        continue;
+      }
+      const target = join(outDir, file);
+      writeFileSync(target, text);
+      process.stdout.write(`${(path === 'report' ? 'report:' : 'chart:').padEnd(8)}${relative(process.cwd(), target) || target}\n`);
+    }
   }
 } finally {
   await app.close();

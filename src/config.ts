@@ -18,6 +18,9 @@ const ConfigSchema = z.object({
   // rows × design columns × candidates: a bound on the least-squares work one
   // request may ask for (about 2 s of CPU at this size on one core).
   MAX_WORK_CELLS: positiveInt(60_000_000),
+  // POST /v1/summaries streams rows and keeps only their summary, so its body
+  // may be far larger than any JSON request: 2 GiB holds ~10^7 rows of NDJSON.
+  SUMMARY_BODY_LIMIT_BYTES: positiveInt(2 * 1024 * 1024 * 1024),
   // Exact origins ("https://dash.example.org"), comma-separated; none by default,
   // so no browser page elsewhere can read a reply until someone decides it may.
   CORS_ORIGINS: z.string().default('').transform((s, ctx) => {
@@ -47,6 +50,7 @@ export type Config = Readonly<{
   logLevel: z.infer<typeof ConfigSchema>['LOG_LEVEL'];
   bodyLimitBytes: number;
   maxWorkCells: number;
+  summaryBodyLimitBytes: number;
   corsOrigins: ReadonlyArray<string>;
   rateLimitPerMinute: number;
   requestTimeoutMs: number;
@@ -72,6 +76,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     logLevel: c.LOG_LEVEL,
     bodyLimitBytes: c.BODY_LIMIT_BYTES,
     maxWorkCells: c.MAX_WORK_CELLS,
+    summaryBodyLimitBytes: c.SUMMARY_BODY_LIMIT_BYTES,
     corsOrigins: Object.freeze(c.CORS_ORIGINS),
     rateLimitPerMinute: c.RATE_LIMIT_PER_MINUTE,
     requestTimeoutMs: c.REQUEST_TIMEOUT_MS,

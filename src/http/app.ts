@@ -26,8 +26,11 @@ import { loadKeysFile } from './security/keys-file.ts';
 import { healthRoutes } from './routes/health.ts';
 import { comparisonRoutes } from './routes/comparisons.ts';
 import { recordRoutes } from './routes/records.ts';
+import { pictureRoutes } from './routes/pictures.ts';
 import { auditRoutes } from './routes/audit.ts';
 import { replayRoutes } from './routes/replay.ts';
+import { searchRoutes } from './routes/searches.ts';
+import { summaryRoutes } from './streaming/summary-route.ts';
 
 export interface AppDependencies {
   config: Config;
@@ -89,6 +92,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
       info: openapiInfo,
       tags: [
         { name: 'comparisons', description: 'Fit, score and rank candidate models' },
+        { name: 'searches', description: 'Search subsets of a pool of terms; fold streamed rows into a data summary' },
         { name: 'audit', description: 'Stored comparisons, chain verification and replay' },
         { name: 'operations', description: 'Health and readiness' },
       ],
@@ -101,8 +105,11 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   await app.register(healthRoutes, { store });
   await app.register(comparisonRoutes, { store, config, policy });
   await app.register(recordRoutes, { store });
+  await app.register(pictureRoutes, { store });
   await app.register(auditRoutes, { store });
   await app.register(replayRoutes, { store, config, policy });
+  await app.register(searchRoutes, { store, config, policy });
+  await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes });
 
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app as unknown as FastifyInstance;

@@ -26,7 +26,7 @@ function candidateInput(c: RequestCandidate): CandidateInput {
 
 export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy): ComparisonInput {
   return {
-    columns: body.data ? ownColumns(body.data.columns) : null,
+    columns: body.data && 'columns' in body.data ? ownColumns(body.data.columns) : null,
     response: body.response ?? null,
     weights: body.weights ?? null,
     candidates: body.candidates.map(candidateInput),

@@ -52,8 +52,11 @@ function listOfNumbers(values: readonly number[]): string {
   return words.length <= 1 ? words.join('') : `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`;
 }
 
-function describe(rules: readonly BandRule[]): string {
-  return rules.map((rule, i) => `${bandRange(rules, i)}: ${rule.wording}`).join(' · ');
+/** "Δ ≤ 2: … · 2 < Δ < 4: … · …": every band with its range. */
+export function describeBands(rules: readonly BandRule[]): string {
+  // No-break spaces inside a range and before each separator, so a wrapped
+  // legend never parts "7 < Δ ≤ 10" or starts a line with "·".
+  return rules.map((rule, i) => `${bandRange(rules, i).replace(/ /g, '\u00a0')}: ${rule.wording}`).join('\u00a0· ');
 }
 
 function quotedPolicyName(record: StoredComparisonView): string {
@@ -70,14 +73,14 @@ export function bandLegend(record: StoredComparisonView, criterion: CriterionNam
   const carried = entries.filter((e) => typeof e.band === 'string' && e.band !== '');
 
   if (carried.length === 0) {
-    return { family, lines, rules: ownBands[family], words: 'own', text: `${drawn} ${describe(ownBands[family])}.` };
+    return { family, lines, rules: ownBands[family], words: 'own', text: `${drawn} ${describeBands(ownBands[family])}.` };
   }
   const policyRules = defaultPolicyRules(family);
   const matchesDefault =
     policyRules !== null &&
     carried.every((e) => typeof e.delta === 'number' && e.band === deltaBand(e.delta, criterion as Parameters<typeof deltaBand>[1], DEFAULT_POLICY));
   if (matchesDefault) {
-    return { family, lines, rules: policyRules, words: 'default-policy', text: `${drawn} In the words of ${quotedPolicyName(record)}: ${describe(policyRules)}.` };
+    return { family, lines, rules: policyRules, words: 'default-policy', text: `${drawn} In the words of ${quotedPolicyName(record)}: ${describeBands(policyRules)}.` };
   }
   return {
     family,

@@ -12,6 +12,13 @@ import { element, textElement } from './svg-markup.ts';
 import { truncateToWidth } from './text-measure.ts';
 import type { StoredComparisonView } from './types.ts';
 
+/**
+ * For the chart served on its own: it draws with presentation attributes
+ * only, so it needs nothing at all; no script, style sheet, image or font
+ * may load, whatever a name in it says.
+ */
+export const chartContentSecurityPolicy = "default-src 'none'";
+
 /** Element ids unique to the record, so several charts inlined in one page do not collide. */
 function idPrefix(record: StoredComparisonView): string {
   const safe = String(record.id ?? '').replace(/[^A-Za-z0-9_-]/g, '').slice(0, 32);

@@ -2,7 +2,7 @@
 // SVG or HTML text. The HTTP routes call these; nothing here knows HTTP.
 export { parseChartOptions, rankedCriteria, defaultCriterion, sizePresets, widthRange, heightRange } from './chart-options.ts';
 export type { ChartOptions, ChartOptionIssue, ChartOptionsResult, SizePreset } from './chart-options.ts';
-export { renderChartSvg, chartDescription, chartTitle } from './chart-svg.ts';
+export { renderChartSvg, chartDescription, chartTitle, chartContentSecurityPolicy } from './chart-svg.ts';
 export { renderReportHtml, reportContentSecurityPolicy, jobSentence } from './report-html.ts';
 export type { ReportOptions } from './report-html.ts';
 export { defaultChainVerification } from './report-chain.ts';

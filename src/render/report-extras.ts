@@ -1,5 +1,5 @@
 // Parts of the report that appear only when the record has them: nested
-// tests, averaged estimates, diagnostics; and the cautions, which always
+// tests and averaged estimates (diagnostics: report-diagnostics.ts); and the cautions, which always
 // appear because one of them stands for every comparison.
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatPValue, formatSignificant } from './number-format.ts';
@@ -89,15 +89,6 @@ export function averagedSection(record: StoredComparisonView): Html | null {
       ))),
     )),
     predictions.length === 0 ? null : predictionsTable(predictions),
-  );
-}
-
-export function diagnosticsSection(record: StoredComparisonView): Html | null {
-  const models = (record.result.models ?? []).filter((m) => m.diagnostics !== undefined && m.diagnostics !== null);
-  if (models.length === 0) return null;
-  return fragment(
-    tag('h2', { id: 'diagnostics' }, 'Diagnostics'),
-    ...models.map((m) => tag('section', { class: 'diagnostics', 'data-model': m.name }, tag('h3', {}, m.name), valueTree(m.diagnostics))),
   );
 }
 

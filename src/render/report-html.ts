@@ -8,9 +8,10 @@ import { criterionDisplayName } from './criteria.ts';
 import { fragment, raw, tag, type Html } from './html-markup.ts';
 import { formatCount } from './number-format.ts';
 import { chainSection, defaultChainVerification, type ChainVerification } from './report-chain.ts';
-import { averagedSection, cautionsSection, diagnosticsSection, nestedTestsSection, valueTree } from './report-extras.ts';
+import { diagnosticsSection } from './report-diagnostics.ts';
+import { averagedSection, cautionsSection, nestedTestsSection, valueTree } from './report-extras.ts';
 import { reportStyle } from './report-style.ts';
-import { coefficientTables, modelsTable, rankingTables } from './report-tables.ts';
+import { coefficientTables, modelsTable, rankingTables, supportNote } from './report-tables.ts';
 import type { StoredComparisonView } from './types.ts';
 
 export interface ReportOptions {
@@ -94,6 +95,7 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
     chart === '' ? tag('p', { class: 'note' }, 'No ranking to draw.') : tag('figure', { class: 'chart', style: 'margin:0' }, raw(chart.trim())),
     tag('h2', { id: 'rankings' }, 'Rankings'),
     tag('p', { class: 'note' }, 'One table per criterion. Δ is the distance from the best model; weights are shares of support summing to 100% over the candidates ranked.'),
+    supportNote(record),
     rankingTables(record),
     tag('h2', { id: 'models-heading' }, 'Models'),
     modelsTable(record),

@@ -25,7 +25,10 @@ caption { text-align: left; font-weight: bold; padding: .2rem 0; }
 th, td { padding: .28rem .55rem; border-bottom: 1px solid ${palette.faintRule}; text-align: right; vertical-align: top; }
 th { background: ${palette.wash}; border-bottom: 1px solid ${palette.rule}; font-weight: bold; }
 th:first-child, td:first-child, td.name, th.name, td.words, th.words { text-align: left; }
-td.name { overflow-wrap: anywhere; min-width: 9rem; max-width: 22rem; }
+/* break-word, not anywhere: a name breaks inside a word only when it cannot fit whole, so columns keep names readable. */
+td.name { overflow-wrap: break-word; min-width: 9rem; max-width: 22rem; }
+td.support { min-width: 9rem; }
+td.flagged { font-weight: bold; }
 tr.leader td { font-weight: bold; }
 .chart svg { display: block; max-width: 100%; height: auto; }
 ul.cautions { padding-left: 1.2rem; }

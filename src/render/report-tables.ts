@@ -3,7 +3,8 @@
 // browser test) can find it without parsing the text.
 import { rankedCriteria } from './chart-options.ts';
 import { criterionDisplayName } from './criteria.ts';
-import { bandsApply, entryBandWording } from './delta-bands.ts';
+import { describeBands } from './band-legend.ts';
+import { bandsApply, entryBandWording, ownBands } from './delta-bands.ts';
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatCount, formatCriterionDelta, formatFixed, formatPercent, formatSignificant } from './number-format.ts';
 import type { CriterionName, ModelView, RankingEntry, StoredComparisonView } from './types.ts';
@@ -62,7 +63,7 @@ export function rankingTable(record: StoredComparisonView, criterion: CriterionN
     { heading: 'Δ', cell: (e) => formatCriterionDelta(criterion, e.delta, 'n/a') },
   ];
   if (bandsApply(criterion) || entries.some((e) => typeof e.band === 'string')) {
-    columns.push({ heading: 'support', cell: (e) => supportWords(criterion, e), className: 'words' });
+    columns.push({ heading: 'support', cell: (e) => supportWords(criterion, e), className: 'words support' });
   }
   if (weighted) {
     columns.push(
@@ -74,6 +75,20 @@ export function rankingTable(record: StoredComparisonView, criterion: CriterionN
   }
   const caption = `Ranked by ${criterionDisplayName(criterion)}` + (criterion === 'adjustedR2' ? ' (larger is better; Δ is the shortfall from the best)' : ' (smaller is better)');
   return table(caption, columns, entries, (e) => ({ 'data-model': e.name, 'data-criterion': criterion, class: finiteOrNull(e.rank) === 1 ? 'leader' : null }), { 'data-ranking': criterion });
+}
+
+/** Whose words the support columns carry: the record's policy, or (for records older than bands) this page's. */
+export function supportNote(record: StoredComparisonView): Html | null {
+  const ranked = rankedCriteria(record);
+  const carried = ranked.some((c) => (record.result.rankings?.[c] ?? []).some((e) => typeof e.band === 'string' && e.band !== ''));
+  const name = record.result.policy?.name;
+  if (carried) {
+    const whose = typeof name === 'string' && name !== '' ? `policy “${name}”` : 'the team policy';
+    return tag('p', { class: 'note', 'data-support': 'policy' }, `The support column gives the words of ${whose} for each Δ, exactly as the stored result does.`);
+  }
+  if (!ranked.some((c) => bandsApply(c))) return null;
+  return tag('p', { class: 'note', 'data-support': 'own' },
+    `This record names no support bands (it predates them); the support column is this page's reading of Δ. For AIC, AICc and HQC: ${describeBands(ownBands.akaike)}. For BIC: ${describeBands(ownBands.bic)}.`);
 }
 
 export function rankingTables(record: StoredComparisonView): Html {

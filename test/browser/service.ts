@@ -1,16 +1,14 @@
-// The one place the browser test gets its service from. For now it serves the
-// renderers' output from a fixture record with node:http; when the HTTP
-// routes exist, replace the body of startServiceForBrowserTest with:
-//   build the fastify app (temporary audit store), listen on 127.0.0.1:0,
-//   POST /v1/comparisons with the same candidates, and return
-//   `${base}/v1/comparisons/${id}/report` and `.../chart.svg`.
-// The test itself needs nothing else changed.
-import { createServer } from 'node:http';
-import type { AddressInfo } from 'node:net';
-import { parseChartOptions } from '../../src/render/chart-options.ts';
-import { renderChartSvg } from '../../src/render/chart-svg.ts';
-import { renderReportHtml, reportContentSecurityPolicy } from '../../src/render/report-html.ts';
-import { fixtureRecord } from '../render/fixture-record.ts';
+// The one place the browser test gets its service from: the real fastify app
+// over a temporary SQLite audit file, listening on a loopback port. The
+// comparison is posted over HTTP like any client would, with one candidate
+// whose name is markup, and the test opens the stored record's report.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { defaultConfig } from '../../src/config.ts';
+import { openAuditStore } from '../../src/audit/open.ts';
+import { buildApp } from '../../src/http/app.ts';
+import { demoComparison } from '../../scripts/demo-data.ts';
 
 export interface BrowserTestService {
   reportUrl: string;
@@ -24,40 +22,35 @@ export interface BrowserTestService {
 export const hostileModelName = '<img src=x onerror="document.title=\'pwned\'">';
 
 export async function startServiceForBrowserTest(): Promise<BrowserTestService> {
-  const record = fixtureRecord(
-    [
-      { name: 'linear', rss: 4.1, parameters: 3, terms: ['peakTemp'] },
-      { name: 'quadratic', rss: 3.55, parameters: 4, terms: ['peakTemp', 'peakTemp^2'] },
-      { name: 'by-kiln', rss: 3.2, parameters: 6, terms: ['peakTemp', 'kiln[west]', 'peakTemp:kiln[west]', 'holdMinutes'] },
-      { name: hostileModelName, rss: 3.9, parameters: 4, terms: ['moisture'] },
-    ],
-    { id: 'cmp_browser', label: 'browser check <b>not bold</b>' },
-  );
-  const id = record.id;
-  const options = parseChartOptions({}, record);
-  if (!options.ok) throw new Error('fixture record cannot be drawn');
-  const chart = renderChartSvg(record, options.options);
-  const report = renderReportHtml(record, { chartSvg: chart });
-
-  const server = createServer((request, response) => {
-    if (request.method === 'GET' && request.url === `/v1/comparisons/${id}/report`) {
-      response.writeHead(200, { 'content-type': 'text/html; charset=utf-8', 'content-security-policy': reportContentSecurityPolicy });
-      response.end(report);
-    } else if (request.method === 'GET' && request.url === `/v1/comparisons/${id}/chart.svg`) {
-      response.writeHead(200, { 'content-type': 'image/svg+xml; charset=utf-8', 'content-security-policy': "default-src 'none'; style-src 'unsafe-inline'" });
-      response.end(chart);
-    } else {
-      response.writeHead(404, { 'content-type': 'text/plain' });
-      response.end('not found');
-    }
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const { port } = server.address() as AddressInfo;
-  const base = `http://127.0.0.1:${port}`;
-  return {
-    reportUrl: `${base}/v1/comparisons/${id}/report`,
-    chartUrl: `${base}/v1/comparisons/${id}/chart.svg`,
-    modelNames: record.result.models.map((m) => m.name),
-    close: () => new Promise<void>((resolve, reject) => server.close((e) => (e ? reject(e) : resolve()))),
+  const dir = mkdtempSync(join(tmpdir(), 'parsimetry-browser-'));
+  const config = defaultConfig({ auditDb: join(dir, 'audit.sqlite'), port: 0 });
+  const store = await openAuditStore(config.auditDb);
+  const app = await buildApp({ config, store, logger: false });
+  const close = async () => {
+    await app.close();
+    await store.close();
+    rmSync(dir, { recursive: true, force: true });
   };
+  try {
+    const base = await app.listen({ host: '127.0.0.1', port: 0 });
+    const request = demoComparison();
+    request.candidates.push({ name: hostileModelName, terms: ['peakTemp', 'holdMinutes'] } as (typeof request.candidates)[number]);
+    request.label = 'browser check <b>not bold</b>';
+    const response = await fetch(`${base}/v1/comparisons`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify(request),
+    });
+    const body = await response.json();
+    if (!response.ok) throw new Error(`the service refused the comparison: ${response.status} ${JSON.stringify(body)}`);
+    return {
+      reportUrl: `${base}/v1/comparisons/${body.id}/report`,
+      chartUrl: `${base}/v1/comparisons/${body.id}/chart.svg`,
+      modelNames: (body.models as { name: string }[]).map((m) => m.name),
+      close,
+    };
+  } catch (error) {
+    await close();
+    throw error;
+  }
 }

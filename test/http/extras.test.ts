@@ -7,6 +7,7 @@ import { buildTestApp } from '../helper.ts';
 import { demoComparison } from '../../scripts/demo-data.ts';
 import { buildDesign } from '../../src/core/design/index.ts';
 import { fitLeastSquares } from '../../src/core/fit/index.ts';
+import type { Term } from '../../src/core/types.ts';
 
 const nist = (name: string) => JSON.parse(readFileSync(new URL(`../reference/nist/${name}.json`, import.meta.url), 'utf8'));
 
@@ -57,7 +58,7 @@ t.test('the demo comparison carries nested tests, leave-one-out, diagnostics and
   const model = body.models.find((m: { name: string }) => m.name === 'curve+moisture+kiln');
   const cols = request.data.columns as Record<string, (number | string | null)[]>;
   const rows = cols.shrinkage.map((_, i) => i).filter((i) => Object.values(cols).every((c) => c[i] !== null));
-  const terms = request.candidates[2].terms;
+  const terms = request.candidates[2].terms as Term[];
   const all = (buildDesign(cols, terms, true, rows) as { design: { high: Float64Array[]; low: Float64Array[] } }).design;
   let press = 0;
   rows.forEach((out, i) => {

@@ -47,7 +47,7 @@ t.test('band lines at 2, 4, 7 and 10 with their wording; none for adjusted R²',
   // A record without bands (older than bands in results): our own wording.
   const { parsed } = draw(kilnRecord());
   t.same(marked(parsed, 'band-line').map((l) => l.data.at), ['2', '4', '7', '10']);
-  const legend = marked(parsed, 'band-legend')[0].text;
+  const legend = marked(parsed, 'band-legend')[0].text.replace(/\u00a0/g, ' ');
   t.match(legend, /Dashed lines at Δ 2, 4, 7 and 10\./);
   t.match(legend, /Δ ≤ 2: about as good as the best/);
   t.match(legend, /4 ≤ Δ ≤ 7: clearly weaker/);
@@ -66,7 +66,7 @@ t.test('band lines at 2, 4, 7 and 10 with their wording; none for adjusted R²',
 t.test('a record carrying the default policy\'s bands: the bars and legend use its words', async (t) => {
   const record = kilnRecord('kiln trial, March', defaultPolicyBands);
   const { parsed } = draw(record);
-  const legend = marked(parsed, 'band-legend')[0].text;
+  const legend = marked(parsed, 'band-legend')[0].text.replace(/\u00a0/g, ' ');
   t.match(legend, /In the words of policy “parsimetry-default”: Δ ≤ 2: substantial support · 2 < Δ < 4: between substantial and considerably less support · 4 ≤ Δ ≤ 7: considerably less support · 7 < Δ ≤ 10: between considerably less and essentially no support · Δ > 10: essentially no support\./);
   t.notMatch(legend, /about as good as the best|clearly weaker|hardly any support/, 'none of our own words');
   t.match(parsed.desc, /linear: Δ 3\.29 \(between substantial and considerably less support\)/);
@@ -78,7 +78,7 @@ t.test('a record carrying the default policy\'s bands: the bars and legend use i
 t.test('BIC: lines at 2, 6 and 10 (Kass & Raftery), worded as the record\'s BIC bands', async (t) => {
   const banded = draw(kilnRecord('kiln trial, March', defaultPolicyBands), { criterion: 'bic' }).parsed;
   t.same(marked(banded, 'band-line').map((l) => l.data.at), ['2', '6', '10']);
-  const legend = marked(banded, 'band-legend')[0].text;
+  const legend = marked(banded, 'band-legend')[0].text.replace(/\u00a0/g, ' ');
   t.match(legend, /Dashed lines at Δ 2, 6 and 10\./);
   t.match(legend, /Δ ≤ 2: evidence against it barely worth a mention · 2 < Δ ≤ 6: positive evidence against it · 6 < Δ ≤ 10: strong evidence against it · Δ > 10: very strong evidence against it/);
   t.match(banded.desc, /with-moisture: Δ 8\.68 \(strong evidence against it\)/);
@@ -100,7 +100,7 @@ t.test('a team policy with words of its own: the bars carry its words, the legen
     ],
   };
   const { parsed } = draw(kilnRecord('kiln trial, March', { policy: teamPolicy }));
-  const legend = marked(parsed, 'band-legend')[0].text;
+  const legend = marked(parsed, 'band-legend')[0].text.replace(/\u00a0/g, ' ');
   t.match(legend, /The words beside the bars are those of policy “glaze-line”/);
   t.notMatch(legend, /substantial support|about as good as the best/, 'no wording the bars do not use');
   t.match(parsed.desc, /by-kiln: Δ 1\.25 \(keep in view\)/);

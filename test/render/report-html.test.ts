@@ -127,3 +127,38 @@ t.test('names and labels with markup are shown as text, never run', async (t) =>
 t.test('identical bytes for the same record', async (t) => {
   t.equal(renderReportHtml(kilnRecord()), renderReportHtml(structuredClone(kilnRecord())));
 });
+
+// The shape of src/core/diagnostics/types.ts ModelDiagnostics; numbers invented.
+function diagnostics(over: { bpP: number; bpPassed: boolean; cautions: string[] }) {
+  return {
+    available: true,
+    reason: null,
+    residualNormality: { test: 'Jarque–Bera', statistic: 1.7, df: 2, pValue: 0.42, skewness: 0.06, kurtosis: 2.4, alpha: 0.05, passed: true, note: 'Jarque–Bera is a large-sample test.' },
+    heteroscedasticity: { test: 'Breusch–Pagan (studentised, Koenker)', statistic: 7.2, df: 1, pValue: over.bpP, alpha: 0.05, passed: over.bpPassed, note: null },
+    autocorrelation: { test: 'Durbin–Watson', statistic: 1.77, acceptableRange: [1.5, 2.5], passed: true, note: 'Only meaningful in time order.' },
+    multicollinearity: { varianceInflationFactors: [{ term: 'peakTemp', vif: 1 }], maxVarianceInflation: 1, varianceInflationThreshold: 10, conditionNumber: 78.3, conditionNumberThreshold: 30, passed: false, note: null },
+    influence: { maxCooksDistance: 0.088, maxCooksDistanceRow: 1, cooksDistanceThreshold: 1, leverageThreshold: 0.034, highLeverageRows: 0, highLeverageRowIndices: [], passed: true },
+    cautions: over.cautions,
+  };
+}
+
+t.test('diagnostics: one table row per model, flags in words, each note and caution said once', async (t) => {
+  const record = kilnRecord();
+  const shared = 'These checks screen models; they do not validate them.';
+  record.result.models[0].diagnostics = diagnostics({ bpP: 0.0071, bpPassed: false, cautions: ['The spread of the residuals changes.', shared] });
+  record.result.models[1].diagnostics = diagnostics({ bpP: 0.31, bpPassed: true, cautions: [shared] });
+  record.result.models[2].diagnostics = { available: false, reason: 'fitted elsewhere', residualNormality: {}, heteroscedasticity: {}, autocorrelation: {}, multicollinearity: {}, influence: {}, cautions: [] };
+  const html = renderReportHtml(record);
+  const parsed = summariseHtml(html);
+  // Only the diagnostics table has rows with data-model and no table id.
+  const diag = parsed.rows.filter((r) => r.table === null);
+  t.same(diag.map((r) => r.model), ['linear', 'quadratic', 'by-kiln'], 'a row per model with diagnostics');
+  t.equal(diag[0].cells[2], '0.0071 · flagged', 'a failed check says so in words');
+  t.equal(diag[1].cells[2], '0.3100', 'p-values to four decimals, as elsewhere in the report');
+  t.equal(diag[2].cells[1], 'not available: fitted elsewhere');
+  const count = (s: string) => parsed.text.split(s).length - 1;
+  t.equal(count('Jarque–Bera is a large-sample test.'), 1, 'a note said once, not per model');
+  t.equal(count(shared), 1, 'a shared caution said once');
+  t.match(parsed.text, /linear, quadratic: These checks screen models/, 'with the models it concerns');
+  t.match(parsed.text, /Flagged when: p below 0\.05 is flagged; Durbin–Watson outside 1\.5 to 2\.5/);
+});

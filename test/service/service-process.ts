@@ -5,6 +5,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 
 const REPO = fileURLToPath(new URL('../../', import.meta.url));
+const EXIT_WITH_PARENT = new URL('./exit-with-parent.ts', import.meta.url).href;
 
 export interface ServiceProcess {
   child: ChildProcess;
@@ -15,7 +16,8 @@ export interface ServiceProcess {
 
 /** Starts the service and resolves once it listens (fastify logs "Server listening at <url>" as JSON). */
 export function startService(env: Record<string, string>, startupMs = 30_000): Promise<ServiceProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
+  // exit-with-parent: a test that dies half-way must not leave a service listening.
+  const child = spawn(process.execPath, ['--import', 'tsx', '--import', EXIT_WITH_PARENT, 'src/server.ts'], {
     cwd: REPO,
     env: {
       ...process.env,
@@ -27,7 +29,7 @@ export function startService(env: Record<string, string>, startupMs = 30_000): P
       RATE_LIMIT_PER_MINUTE: '1000000',
       ...env,
     },
-    stdio: ['ignore', 'pipe', 'pipe'],
+    stdio: ['pipe', 'pipe', 'pipe'],
   });
   let out = '';
   const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) =>
@@ -109,7 +111,8 @@ export interface LoadRun {
 export async function driveLoad(base: string, total: number, inFlight: number, options: {
   offset?: number;
   shouldStop?: () => boolean;
-  onAck?: (count: number) => void;
+  /** Called after each acknowledgement with the run so far. */
+  onAck?: (run: LoadRun) => void;
   requestTimeoutMs?: number;
 } = {}): Promise<LoadRun> {
   const run: LoadRun = { acked: [], failed: 0, sent: 0 };
@@ -129,7 +132,7 @@ export async function driveLoad(base: string, total: number, inFlight: number, o
         if (res.status === 200) {
           const body = JSON.parse(text) as Record<string, unknown>;
           run.acked.push({ id: body.id as string, body });
-          options.onAck?.(run.acked.length);
+          options.onAck?.(run);
         } else run.failed += 1;
       } catch {
         run.failed += 1;
@@ -152,4 +155,17 @@ export async function stopService(service: ServiceProcess, graceMs = 10_000): Pr
   const timer = setTimeout(() => service.child.kill('SIGKILL'), graceMs);
   await service.exited;
   clearTimeout(timer);
+}
+
+function sortKeys(v: unknown): unknown {
+  if (Array.isArray(v)) return v.map(sortKeys);
+  if (v !== null && typeof v === 'object') {
+    return Object.fromEntries(Object.keys(v).sort().map((k) => [k, sortKeys((v as Record<string, unknown>)[k])]));
+  }
+  return v;
+}
+
+/** Deep equality of two JSON values, key order aside (cheap enough for hundreds of results). */
+export function sameJson(a: unknown, b: unknown): boolean {
+  return JSON.stringify(sortKeys(a)) === JSON.stringify(sortKeys(b));
 }

@@ -9,6 +9,12 @@ export function refuseWhileClosing(app: FastifyInstance): void {
   app.addHook('preClose', async () => {
     closing = true;
   });
+  // Replies to requests already in flight close their connection, so that no
+  // keep-alive socket holds the server open once its last reply is sent.
+  app.addHook('onSend', async (_request, reply, payload) => {
+    if (closing) reply.header('connection', 'close');
+    return payload;
+  });
   app.addHook('onRequest', async () => {
     if (!closing) return;
     throw refusal(503, refusalTypes.shuttingDown, 'Shutting down',

@@ -5,6 +5,7 @@ import type { AuditStore } from '../../audit/store.ts';
 import { requestDigest } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import { compareModels } from '../../core/compare.ts';
+import { compareFromSummary } from '../../core/comparison/from-summary.ts';
 import { serviceVersion } from '../../version.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
 import { ComparisonResult } from '../schemas/comparison-response.ts';
@@ -24,7 +25,10 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
     },
   }, async (request, reply) => {
     const body = request.body;
-    const outcome = compareModels(toComparisonInput(body, policy), { maxWorkCells: config.maxWorkCells });
+    const input = toComparisonInput(body, policy);
+    const outcome = body.data && 'summary' in body.data
+      ? compareFromSummary({ ...input, summary: body.data.summary, response: body.response! })
+      : compareModels(input, { maxWorkCells: config.maxWorkCells });
     if ('issues' in outcome) {
       return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
     }

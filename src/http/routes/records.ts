@@ -2,10 +2,10 @@
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { AuditCursorInvalid, AuditQueryInvalid, AuditRecordCorrupt, AuditUnavailable } from '../../audit/errors.ts';
-import type { AuditStore, StoredRecord } from '../../audit/store.ts';
+import type { AuditStore, RecordKind, StoredRecord } from '../../audit/store.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
-import { ComparisonList, ListQuerySchema, RecordParams, StoredComparison } from '../schemas/record.ts';
+import { ComparisonList, ListQuerySchema, RecordParams, StoredComparison, StoredSearch } from '../schemas/record.ts';
 
 /**
  * A store failure while reading, as a reply: an unreachable store is 503 (try
@@ -27,13 +27,13 @@ export function replyToStoreReadError(error: unknown, reply: FastifyReply): Fast
   throw error;
 }
 
-export function notFound(reply: FastifyReply, id: string): FastifyReply {
+export function notFound(reply: FastifyReply, id: string, kind: RecordKind = 'comparison'): FastifyReply {
   return reply.code(404).type(PROBLEM_CONTENT_TYPE).send(
-    problem(404, problemTypes.notFound, 'Not found', `no comparison with id ${id}`));
+    problem(404, problemTypes.notFound, 'Not found', `no ${kind} with id ${id}`));
 }
 
-/** The stored comparison, or a reply already sent (404, 500, 503). */
-export async function getComparison(store: AuditStore, id: string, reply: FastifyReply): Promise<StoredRecord | null> {
+/** The stored record of that kind, or a reply already sent (404, 500, 503). */
+export async function getRecord(store: AuditStore, id: string, reply: FastifyReply, kind: RecordKind): Promise<StoredRecord | null> {
   let record: StoredRecord | null;
   try {
     record = await store.get(id);
@@ -41,13 +41,15 @@ export async function getComparison(store: AuditStore, id: string, reply: Fastif
     replyToStoreReadError(error, reply);
     return null;
   }
-  // Search records live under their own path; here an id names a comparison only.
-  if (!record || record.kind !== 'comparison') {
-    notFound(reply, id);
+  // Comparisons and searches each live under their own path.
+  if (!record || record.kind !== kind) {
+    notFound(reply, id, kind);
     return null;
   }
   return record;
 }
+
+export const getComparison = (store: AuditStore, id: string, reply: FastifyReply) => getRecord(store, id, reply, 'comparison');
 
 /** The POST response exactly: the route stores the result without the fields the envelope holds. */
 export function answeredResult(record: StoredRecord): Record<string, unknown> {
@@ -79,6 +81,24 @@ function queryProblem(reply: FastifyReply, path: string, message: string): Fasti
       { errors: [{ path, message }] }));
 }
 
+/** What every stored record answers besides its kind and result. */
+function envelope(record: StoredRecord) {
+  return {
+    id: record.id,
+    createdAt: record.createdAt,
+    caller: record.caller,
+    label: record.label,
+    serviceVersion: record.serviceVersion,
+    conventionsVersion: record.conventionsVersion,
+    policy: record.policy,
+    datasetFingerprint: record.datasetFingerprint,
+    requestDigest: record.requestDigest,
+    requestSummary: requestSummary(record.request),
+    request: record.request,
+    chain: { seq: record.seq, prevHash: record.prevHash, hash: record.hash },
+  };
+}
+
 export const recordRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (app, { store }) => {
   app.get('/v1/comparisons/:id', {
     schema: {
@@ -90,23 +110,22 @@ export const recordRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async 
   }, async (request, reply) => {
     const record = await getComparison(store, request.params.id, reply);
     if (!record) return reply;
-    return reply.code(200).send({
-      id: record.id,
-      createdAt: record.createdAt,
-      kind: 'comparison' as const,
-      caller: record.caller,
-      label: record.label,
-      serviceVersion: record.serviceVersion,
-      conventionsVersion: record.conventionsVersion,
-      policy: record.policy,
-      datasetFingerprint: record.datasetFingerprint,
-      requestDigest: record.requestDigest,
-      requestSummary: requestSummary(record.request),
-      request: record.request,
-      result: answeredResult(record),
-      chain: { seq: record.seq, prevHash: record.prevHash, hash: record.hash },
-    });
+    return reply.code(200).send({ ...envelope(record), kind: 'comparison' as const, result: answeredResult(record) });
   });
+
+  app.get('/v1/searches/:id', {
+    schema: {
+      tags: ['searches'],
+      summary: 'One stored search: request summary, the result as it was answered, and its place in the audit chain',
+      params: RecordParams,
+      response: { 200: StoredSearch, 400: ProblemSchema, 404: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
+    },
+  }, async (request, reply) => {
+    const record = await getRecord(store, request.params.id, reply, 'search');
+    if (!record) return reply;
+    return reply.code(200).send({ ...envelope(record), kind: 'search' as const, result: answeredResult(record) });
+  });
+
 
   app.get('/v1/comparisons', {
     schema: {

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
+import { SummaryData } from './summary.ts';
 
 export { Criterion, criterionNames } from './common.ts';
 
@@ -150,7 +151,9 @@ export const ComparisonOptions = z
 
 export const ComparisonRequest = z
   .strictObject({
-    data: DataSchema.optional().meta({ description: 'Required unless every candidate is sent by rss or logLikelihood.' }),
+    data: z.union([DataSchema, SummaryData]).optional().meta({
+      description: 'Rows as columns, or a summary of them (data.summary) for data too large to send; required unless every candidate is sent by rss or logLikelihood.',
+    }),
     response: ColumnName.optional().meta({ description: 'The numeric response column (required with data).' }),
     weights: ColumnName.nullable().optional(),
     candidates: z.array(Candidate).min(1, 'at least one candidate is needed').max(200),

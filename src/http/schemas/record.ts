@@ -88,6 +88,11 @@ export const StoredComparison = z
   })
   .meta({ id: 'StoredComparison' });
 
+export const StoredSearch = StoredComparison.extend({
+  kind: z.literal('search'),
+  result: jsonObject.meta({ description: 'The result exactly as POST /v1/searches answered it.' }),
+}).meta({ id: 'StoredSearch' });
+
 export const ComparisonListItem = z
   .strictObject({
     id: z.string(),

@@ -1,7 +1,7 @@
 // The access contract (issue 7): every route × every role × no key × a wrong key
 // answers exactly 2xx / 401 / 403 as route-roles.ts says. Routes are taken from
 // the app itself, so a route added later is checked without editing this file.
-import t from 'tap';
+import t, { type Test } from 'tap';
 import { buildTestApp } from '../../helper.ts';
 import { demoColumns, demoComparison } from '../../../scripts/demo-data.ts';
 import { accessFor, isListed, ROLES, type Role } from '../../../src/http/security/route-roles.ts';
@@ -10,29 +10,35 @@ import { bearer, newKey, testKeys } from './test-keys.ts';
 const { ring, secrets } = testKeys({ scorer: ['score'], reader: ['read'], auditor: ['admin'] });
 const keyFor: Record<Role, string> = { score: secrets.scorer, read: secrets.reader, admin: secrets.auditor };
 
+interface Sample { query?: string; payload?: string | object; headers?: Record<string, string> }
+
 /** A request each known route answers with 2xx given the right role. */
-function sampleBody(method: string, url: string): object | undefined {
-  if (method !== 'POST') return undefined;
-  if (url === '/v1/comparisons') return demoComparison();
+function sampleRequest(method: string, url: string): Sample {
+  if (method !== 'POST') return {};
+  if (url === '/v1/comparisons') return { payload: demoComparison() };
   if (url === '/v1/searches') {
-    return { data: { columns: demoColumns() }, response: 'shrinkage', pool: ['peakTemp', 'holdMinutes', 'moisture'], rankBy: 'aicc', top: 3 };
+    return { payload: { data: { columns: demoColumns() }, response: 'shrinkage', pool: ['peakTemp', 'holdMinutes', 'moisture'], rankBy: 'aicc', top: 3 } };
   }
-  return undefined;
+  if (url === '/v1/summaries') {
+    return { query: '?columns=shrinkage,peakTemp', payload: 'shrinkage,peakTemp\n0.41,1180\n0.44,1195\n0.47,1210\n', headers: { 'content-type': 'text/csv' } };
+  }
+  return {};
 }
 
-async function routesUnderTest(t: Tap.Test) {
+async function routesUnderTest(t: Test) {
   const { app, store } = await buildTestApp(t, { rateLimitPerMinute: 100_000 }, { keys: ring });
   const created = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: demoComparison(), headers: bearer(secrets.scorer) });
   t.equal(created.statusCode, 200, 'a record to read, chart and replay');
   const id = created.json().id as string;
+  const searched = await app.inject({ method: 'POST', url: '/v1/searches', payload: sampleRequest('POST', '/v1/searches').payload as object, headers: bearer(secrets.scorer) });
+  t.equal(searched.statusCode, 200, 'a search record to read');
+  const searchId = searched.json().id as string;
   const routes = app.registeredRoutes
     .filter((r) => r.method !== 'HEAD' && !r.url.startsWith('/docs'))
-    .map((r) => ({ ...r, path: r.url.replace(/:id\b/g, id) }));
+    .map((r) => ({ ...r, path: r.url.replace(/:id\b/g, r.url.startsWith('/v1/searches/') ? searchId : id) }));
   return { app, store, id, routes };
 }
 
-// tap's Test type, without importing tap's internals.
-declare namespace Tap { type Test = Parameters<Parameters<typeof t.test>[1]>[0]; }
 
 t.test('every registered route is in the route table (default-deny would make it admin-only)', async (t) => {
   const { app } = await buildTestApp(t);
@@ -47,8 +53,9 @@ t.test('role matrix: 2xx with the role, 403 without it, 401 with no key or a wro
   const { app, routes } = await routesUnderTest(t);
   for (const route of routes) {
     const access = accessFor(route.method, route.url);
+    const sample = sampleRequest(route.method, route.url);
     const send = (headers: Record<string, string>) =>
-      app.inject({ method: route.method as 'GET', url: route.path, payload: sampleBody(route.method, route.url), headers });
+      app.inject({ method: route.method as 'GET', url: route.path + (sample.query ?? ''), payload: sample.payload, headers: { ...sample.headers, ...headers } });
     const name = `${route.method} ${route.url}`;
 
     if (access.kind === 'public') {
@@ -91,7 +98,8 @@ t.test('the key id is the caller in the audit record; no keys: "anonymous"', asy
 t.test('with no keys configured every route is open', async (t) => {
   const { app } = await buildTestApp(t);
   for (const r of app.registeredRoutes.filter((x) => x.method !== 'HEAD' && !x.url.includes(':'))) {
-    const res = await app.inject({ method: r.method as 'GET', url: r.url, payload: sampleBody(r.method, r.url) });
+    const sample = sampleRequest(r.method, r.url);
+    const res = await app.inject({ method: r.method as 'GET', url: r.url + (sample.query ?? ''), payload: sample.payload, headers: sample.headers });
     t.not(res.statusCode, 401, `${r.method} ${r.url}`);
     t.not(res.statusCode, 403, `${r.method} ${r.url}`);
   }

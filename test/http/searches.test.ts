@@ -1,0 +1,128 @@
+// POST /v1/searches against POST /v1/comparisons with every subset of the
+// pool as a candidate (the brute force the issue asks for): the same best
+// models with the same numbers (the refits are the comparison's own QR fits,
+// so to the last digit), weights and importance over every subset to 1e-9
+// (weights by their definition in api.md: exp(-Δ/2) / Σ exp(-Δ_j/2)).
+// Data: the demo scenario's generator (scripts/demo-data.ts).
+import t from 'tap';
+import { buildTestApp } from '../helper.ts';
+import { demoColumns } from '../../scripts/demo-data.ts';
+import type { Term } from '../../src/core/types.ts';
+
+const close = (a: number, b: number, tol = 1e-9) => Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
+
+const pool12: Term[] = [
+  'peakTemp', 'holdMinutes', 'moisture', { kind: 'factor', of: 'kiln' },
+  { kind: 'power', of: 'peakTemp', degree: 2 }, { kind: 'power', of: 'holdMinutes', degree: 2 },
+  { kind: 'power', of: 'moisture', degree: 2 }, { kind: 'product', of: ['peakTemp', 'holdMinutes'] },
+  { kind: 'product', of: ['peakTemp', 'moisture'] }, { kind: 'product', of: ['holdMinutes', 'moisture'] },
+  { kind: 'product', of: ['peakTemp', 'kiln'] }, { kind: 'product', of: ['moisture', 'kiln'] },
+];
+
+/** The marginality rule written out for these term forms (independent of src/core/search/hierarchy.ts). */
+function admissible(terms: Term[]): boolean {
+  const has = (column: string) => terms.some((u) => u === column || (typeof u === 'object' && u.kind === 'factor' && u.of === column));
+  return terms.every((u) => typeof u === 'string' || u.kind === 'factor' || (u.kind === 'power' ? has(u.of) : u.kind === 'product' ? u.of.every(has) : true));
+}
+
+type Model = { name: string; terms: Term[]; aic: number; aicc: number; bic: number; hqc: number; rss: number; logLikelihood: number; parameters: number; coefficients: unknown[]; delta: number; weight: number };
+
+/** Every subset of `pool` (admissible ones only with hierarchy), scored by comparisons of at most 200 candidates. */
+async function bruteForce(app: Awaited<ReturnType<typeof buildTestApp>>['app'], pool: Term[], hierarchy: boolean, criterion: 'aicc' | 'bic') {
+  const columns = demoColumns();
+  const subsets: Term[][] = [];
+  for (let mask = 0; mask < 2 ** pool.length; mask++) {
+    const terms = pool.filter((_, j) => (mask >>> j) & 1);
+    if (!hierarchy || admissible(terms)) subsets.push(terms);
+  }
+  const models: Model[] = [];
+  for (let from = 0; from < subsets.length; from += 200) {
+    const candidates = subsets.slice(from, from + 200).map((terms, i) => ({ name: `s${from + i}`, terms }));
+    const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { data: { columns }, response: 'shrinkage', candidates } });
+    if (res.statusCode !== 200) throw new Error(res.body);
+    res.json().models.forEach((m: Model, i: number) => models.push({ ...m, terms: candidates[i].terms }));
+  }
+  const best = Math.min(...models.map((m) => m[criterion]));
+  const total = models.reduce((s, m) => s + Math.exp(-(m[criterion] - best) / 2), 0);
+  for (const m of models) {
+    m.delta = m[criterion] - best;
+    m.weight = Math.exp(-m.delta / 2) / total;
+  }
+  models.sort((a, b) => a[criterion] - b[criterion] || a.terms.length - b.terms.length);
+  const importance = pool.map((term) => models.filter((m) => m.terms.some((u) => JSON.stringify(u) === JSON.stringify(term))).reduce((s, m) => s + m.weight, 0));
+  return { models, importance };
+}
+
+for (const [name, pool, hierarchy, criterion, top] of [
+  ['6-term pool, every subset', pool12.slice(0, 6), false, 'aicc', 64],
+  ['12-term pool with hierarchy', pool12, true, 'bic', 25],
+] as const) {
+  t.test(`search equals a comparison of every subset: ${name}`, async (t) => {
+    // Thousands of candidates keep the event loop busy; load shedding would refuse them.
+    const { app, store } = await buildTestApp(t, { eventLoopMaxDelayMs: 0 });
+    const res = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: demoColumns() }, response: 'shrinkage', pool, hierarchy, rankBy: criterion, top } });
+    t.equal(res.statusCode, 200, res.body.slice(0, 400));
+    const body = res.json();
+    const reference = await bruteForce(app, [...pool], hierarchy, criterion);
+    t.equal(body.evaluated, reference.models.length, 'every admissible subset evaluated');
+    t.equal(body.subsets, 2 ** pool.length);
+    t.ok(body.weightsCoverAllSubsets);
+    t.equal(body.models.length, Math.min(top, reference.models.length));
+    body.models.forEach((m: Model, i: number) => {
+      const r = reference.models[i];
+      t.same(m.terms, r.terms, `model ${i}: same terms`);
+      for (const key of ['aic', 'aicc', 'bic', 'hqc', 'rss', 'logLikelihood', 'parameters'] as const) t.equal(m[key], r[key], `model ${i}: ${key} to the last digit`);
+      t.same(m.coefficients, r.coefficients, `model ${i}: coefficients`);
+      t.ok(close(m.delta, r.delta), `model ${i}: delta`);
+      t.ok(close(m.weight, r.weight), `model ${i}: weight ${m.weight} vs ${r.weight}`);
+    });
+    t.ok(body.importance.every((x: { weight: number }, j: number) => close(x.weight, reference.importance[j])), 'importance over every subset');
+    t.same(body.importance.map((x: { term: Term }) => x.term), pool, 'importance per pool term, in the request\'s forms');
+    const record = await store.get(body.id);
+    t.equal(record?.kind, 'search', 'an audit record of kind search');
+    t.equal((record?.result as { evaluated?: number }).evaluated, body.evaluated);
+  });
+}
+
+t.test('budget, rankBy and the request\'s problems', async (t) => {
+  const { app } = await buildTestApp(t);
+  const rows = 40;
+  const columns: Record<string, number[]> = { y: Array.from({ length: rows }, (_, i) => Math.sin(i)) };
+  const pool = Array.from({ length: 25 }, (_, j) => `x${j}`);
+  for (const c of pool) columns[c] = Array.from({ length: rows }, (_, i) => Math.cos(i * (pool.indexOf(c) + 2)));
+  const over = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns }, response: 'y', pool, exhaustive: true } });
+  t.equal(over.statusCode, 422);
+  t.equal(over.json().errors[0].code, 'search_over_budget');
+  t.equal(over.json().errors[0].budget, 'maxSubsets', 'the 422 names the budget');
+  t.equal(over.json().errors[0].required, 2 ** 25);
+  const wide = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: { ...columns, ...Object.fromEntries(Array.from({ length: 20 }, (_, j) => [`z${j}`, columns.y.map((v, i) => v * ((i * (j + 3)) % 7))])) } }, response: 'y', pool: [...pool, ...Array.from({ length: 20 }, (_, j) => `z${j}`)] } });
+  t.equal(wide.json().errors?.[0]?.budget, 'maxBranchAndBoundTerms', 'a 45-term pool is beyond branch and bound');
+  const r2 = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns }, response: 'y', pool: ['x1'], rankBy: 'adjustedR2' } });
+  t.equal(r2.statusCode, 400);
+  t.match(r2.json().detail, /adjustedR2 has no Akaike weights/);
+  const unknown = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns }, response: 'y', pool: ['x1', 'nope'] } });
+  t.equal(unknown.statusCode, 422);
+  t.equal(unknown.json().errors[0].path, 'pool/1', 'issues point into the pool');
+});
+
+t.test('Accept: text/event-stream streams progress and ends with the recorded result', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  const res = await app.inject({
+    method: 'POST', url: '/v1/searches', headers: { accept: 'text/event-stream' },
+    payload: { data: { columns: demoColumns() }, response: 'shrinkage', pool: pool12, top: 5 },
+  });
+  t.equal(res.statusCode, 200);
+  t.match(res.headers['content-type'], /^text\/event-stream/);
+  const events = res.body.trim().split('\n\n').map((block) => {
+    const [event, data] = block.split('\n');
+    return { event: event.replace('event: ', ''), data: JSON.parse(data.replace('data: ', '')) };
+  });
+  t.ok(events.length >= 2);
+  t.ok(events.slice(0, -1).every((e) => e.event === 'progress' && e.data.covered <= e.data.total && e.data.total === 4096), 'progress events first');
+  const last = events.at(-1)!;
+  t.equal(last.event, 'result');
+  t.equal(last.data.models.length, 5);
+  t.equal((await store.get(last.data.id))?.kind, 'search', 'recorded before the result was sent');
+  const bad = await app.inject({ method: 'POST', url: '/v1/searches', headers: { accept: 'text/event-stream' }, payload: { data: { columns: demoColumns() }, response: 'nope', pool: ['peakTemp'] } });
+  t.equal(bad.statusCode, 422, 'a search that cannot start is answered with its status, not a stream');
+});
