@@ -1,7 +1,9 @@
 // The validated request body as the core's input. Columns go into an object
 // without a prototype, so a term naming "toString" or "constructor" finds no
 // inherited property where the caller has no column.
-import type { ComparisonInput, CandidateInput } from '../core/compare.ts';
+import { compareModels, type ComparisonInput, type CandidateInput } from '../core/compare.ts';
+import { compareFromSummary } from '../core/comparison/from-summary.ts';
+import type { Config } from '../config.ts';
 import type { Columns } from '../core/types.ts';
 import type { ActivePolicy } from '../policy-file.ts';
 import type { ComparisonRequest } from './schemas/comparison-request.ts';
@@ -41,4 +43,12 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     policy: policy.policy,
     policyHash: policy.hash,
   };
+}
+
+/** One comparison, from rows or from a summary: what POST and replay both run. */
+export function computeComparison(body: ComparisonRequest, policy: ActivePolicy, config: Pick<Config, 'maxWorkCells'>) {
+  const input = toComparisonInput(body, policy);
+  return body.data && 'summary' in body.data
+    ? compareFromSummary({ ...input, summary: body.data.summary, response: body.response! })
+    : compareModels(input, { maxWorkCells: config.maxWorkCells });
 }

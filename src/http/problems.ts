@@ -33,6 +33,7 @@ export const problemTypes = {
   notFound: 'urn:parsimetry:problem:not-found',
   methodNotAllowed: 'urn:parsimetry:problem:method-not-allowed',
   storeUnavailable: 'urn:parsimetry:problem:audit-store-unavailable',
+  replayImpossible: 'urn:parsimetry:problem:replay-impossible',
   internal: 'urn:parsimetry:problem:internal',
 } as const;
 

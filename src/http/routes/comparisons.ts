@@ -4,14 +4,12 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { requestDigest } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
-import { compareModels } from '../../core/compare.ts';
-import { compareFromSummary } from '../../core/comparison/from-summary.ts';
 import { serviceVersion } from '../../version.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
 import { ComparisonResult } from '../schemas/comparison-response.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
-import { toComparisonInput } from '../comparison-input.ts';
+import { computeComparison } from '../comparison-input.ts';
 import { appendOr503 } from '../audit-append.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
@@ -25,10 +23,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
     },
   }, async (request, reply) => {
     const body = request.body;
-    const input = toComparisonInput(body, policy);
-    const outcome = body.data && 'summary' in body.data
-      ? compareFromSummary({ ...input, summary: body.data.summary, response: body.response! })
-      : compareModels(input, { maxWorkCells: config.maxWorkCells });
+    const outcome = computeComparison(body, policy, config);
     if ('issues' in outcome) {
       return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
     }

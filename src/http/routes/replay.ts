@@ -11,17 +11,16 @@ import type { AuditStore } from '../../audit/store.ts';
 import { toJsonValue } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
-import { compareModels } from '../../core/compare.ts';
 import { diffResults, type JsonValue, type ValueChange } from '../../core/result-diff.ts';
 import { serviceVersion } from '../../version.ts';
-import { toComparisonInput } from '../comparison-input.ts';
+import { computeComparison } from '../comparison-input.ts';
 import { issuesProblem, problem, problemTypes, toPointer, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { RecordParams, ReplayReport } from '../schemas/record.ts';
 import { getComparison } from './records.ts';
 
-const conflict = 'urn:parsimetry:problem:replay-impossible';
+const conflict = problemTypes.replayImpossible;
 
 function largest(changes: ValueChange[]): ValueChange | null {
   let best: ValueChange | null = null;
@@ -80,7 +79,7 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Co
         `the stored request of ${record.id} does not pass today's request schema (${errors.length} problem${errors.length === 1 ? '' : 's'}; the first at ${errors[0].path || '(root)'}: ${errors[0].message})`,
         { errors }));
     }
-    const outcome = compareModels(toComparisonInput(parsed.data, policy), { maxWorkCells: config.maxWorkCells });
+    const outcome = computeComparison(parsed.data, policy, config);
     if ('issues' in outcome) {
       const why = issuesProblem(outcome.issues);
       return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Stored request no longer computes',
