@@ -1,7 +1,7 @@
 // Emits one SQL query that computes a data summary of a table in the fixed
 // form of POST /v1/comparisons and /v1/searches (data.summary): rows, means
 // and centred cross products of the listed columns, optionally weighted.
-//   npx tsx scripts/summary-sql.ts TABLE COL1 COL2 ... [--weight W]
+//   npx tsx scripts/summary-sql.ts [--postgres-json] TABLE COL1 COL2 ... [--weight W]
 // Means are formed first in a CTE, then sums of products of deviations
 // from them. The one-pass SUM(x*y) - n*AVG(x)*AVG(y) form is not used: with
 // means large against spreads (a kiln temperature of ~1200 °C varying by a
@@ -53,6 +53,28 @@ FROM kept CROSS JOIN m;
 `;
 }
 
+/**
+ * PostgreSQL only: the same query wrapped so that it answers the request's
+ * `data` object itself, {"summary": {...}}, ready to post. float8 prints
+ * with round-trip precision (PostgreSQL 12 and later), so no digits are lost.
+ */
+export function summaryJsonSqlPostgres(table: string | string[], columns: string[], weight?: string): string {
+  const p = columns.length;
+  const literal = (name: string) => `'${name.replace(/'/g, "''")}'`;
+  const cross = Array.from({ length: p }, (_, i) =>
+    `json_build_array(${Array.from({ length: p }, (_, j) => `s.cp_${Math.min(i, j)}_${Math.max(i, j)}`).join(', ')})`);
+  const weights = weight === undefined ? '' : `,\n  'weights', json_build_object('sum', s.weight_sum, 'sumLog', s.weight_sum_log)`;
+  return `SELECT json_build_object('summary', json_build_object(
+  'rows', s.rows,
+  'columns', json_build_array(${columns.map(literal).join(', ')}),
+  'means', json_build_array(${columns.map((_, i) => `s.mean_${i}`).join(', ')}),
+  'centredCrossProducts', json_build_array(${cross.join(', ')})${weights}))
+FROM (
+${summarySql(table, columns, weight).replace(/;\s*$/, '')}
+) AS s;
+`;
+}
+
 /** The fixed summary form from the query's one result row. */
 export function summaryFromRow(row: Record<string, unknown>, columns: string[], weighted: boolean) {
   const num = (k: string) => Number(row[k]);
@@ -68,14 +90,17 @@ export function summaryFromRow(row: Record<string, unknown>, columns: string[], 
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
-  const args = process.argv.slice(2);
+  const all = process.argv.slice(2);
+  const json = all.includes('--postgres-json');
+  const args = all.filter((a) => a !== '--postgres-json');
   const wi = args.indexOf('--weight');
   const weight = wi >= 0 ? args[wi + 1] : undefined;
   const rest = wi >= 0 ? [...args.slice(0, wi), ...args.slice(wi + 2)] : args;
   const [table, ...columns] = rest;
   if (!table || columns.length === 0) {
-    process.stderr.write('usage: tsx scripts/summary-sql.ts TABLE COLUMN... [--weight COLUMN]\n');
+    process.stderr.write('usage: tsx scripts/summary-sql.ts [--postgres-json] TABLE COLUMN... [--weight COLUMN]\n');
     process.exit(2);
   }
-  process.stdout.write(summarySql(table.includes('.') ? table.split('.') : table, columns, weight));
+  const target = table.includes('.') ? table.split('.') : table;
+  process.stdout.write(json ? summaryJsonSqlPostgres(target, columns, weight) : summarySql(target, columns, weight));
 }

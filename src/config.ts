@@ -12,6 +12,9 @@ const ConfigSchema = z.object({
   API_KEYS_FILE: z.string().min(1).optional(),
   // A team's agreed defaults for ranking (README: team policy); none: the built-in default.
   POLICY_FILE: z.string().min(1).optional(),
+  // 'digest' keeps only the SHA-256 of each request in the audit record, for
+  // data too sensitive to store; such records cannot be replayed.
+  AUDIT_REQUESTS: z.enum(['full', 'digest']).default('full'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // 32 MiB holds about two million numbers as JSON: real data sets, not toy ones.
   BODY_LIMIT_BYTES: positiveInt(32 * 1024 * 1024),
@@ -47,6 +50,7 @@ export type Config = Readonly<{
   auditDb: string;
   apiKeysFile: string | undefined;
   policyFile: string | undefined;
+  auditRequests: 'full' | 'digest';
   logLevel: z.infer<typeof ConfigSchema>['LOG_LEVEL'];
   bodyLimitBytes: number;
   maxWorkCells: number;
@@ -73,6 +77,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     auditDb: c.AUDIT_DB,
     apiKeysFile: c.API_KEYS_FILE,
     policyFile: c.POLICY_FILE,
+    auditRequests: c.AUDIT_REQUESTS,
     logLevel: c.LOG_LEVEL,
     bodyLimitBytes: c.BODY_LIMIT_BYTES,
     maxWorkCells: c.MAX_WORK_CELLS,

@@ -5,8 +5,8 @@
 // the PRESS statistic is Allen 1974). The weighted form follows by applying
 // the unweighted identity to the rows scaled by sqrt(w_i).
 import type { DesignMatrix, LeastSquaresFit } from './types.ts';
-import { estimableRow, quadraticForm, weightAt } from './inference/design-rows.ts';
-import { basisLeverage, weightedBasis } from './inference/orthonormal-basis.ts';
+import { weightAt } from './inference/design-rows.ts';
+import { modelGeometry, type ModelGeometry } from './inference/model-geometry.ts';
 import { rankModels, type RankingEntry } from './ranking.ts';
 
 /**
@@ -33,27 +33,25 @@ export interface LeaveOneOutError {
  * h_ii = w_i x_i' (X'WX)^-1 x_i over the estimable columns, evaluated as the
  * squared row norms of an orthonormal basis of sqrt(W) X (see
  * orthonormal-basis.ts for why); the fit's unscaledCovariance is the
- * fallback should the basis find the columns dependent.
+ * fallback should the basis find the columns dependent. Pass the model's
+ * geometry when it is already at hand: it holds the leverages.
  */
-export function leverages(fit: LeastSquaresFit, design: DesignMatrix, weights?: ArrayLike<number>): Float64Array {
-  const h = new Float64Array(design.rows);
-  const basis = weightedBasis(fit, design, weights);
-  for (let i = 0; i < design.rows; i++) {
-    if (basis) {
-      h[i] = basisLeverage(basis, i);
-      continue;
-    }
-    h[i] = weightAt(weights, i) * quadraticForm(fit.unscaledCovariance, estimableRow(design, fit, i));
-  }
-  return h;
+export function leverages(
+  fit: LeastSquaresFit,
+  design: DesignMatrix,
+  weights?: ArrayLike<number>,
+  geometry: ModelGeometry = modelGeometry(fit, design, weights),
+): Float64Array {
+  return geometry.leverages;
 }
 
 export function leaveOneOutError(
   fit: LeastSquaresFit,
   design: DesignMatrix,
   weights?: ArrayLike<number>,
+  geometry: ModelGeometry = modelGeometry(fit, design, weights),
 ): LeaveOneOutError {
-  const h = leverages(fit, design, weights);
+  const h = geometry.leverages;
   const unitLeverageRows: number[] = [];
   let press = 0;
   for (let i = 0; i < design.rows; i++) {

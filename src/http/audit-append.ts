@@ -3,6 +3,7 @@
 // team's record does not hold.
 import type { FastifyReply } from 'fastify';
 import type { AuditStore, NewRecord, StoredRecord } from '../audit/store.ts';
+import type { Config } from '../config.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 
 export async function appendOr503(store: AuditStore, reply: FastifyReply, record: NewRecord): Promise<StoredRecord | null> {
@@ -20,4 +21,9 @@ export async function appendOr503(store: AuditStore, reply: FastifyReply, record
     reply.code(503).header('retry-after', '5').type(PROBLEM_CONTENT_TYPE).send(body);
     return null;
   }
+}
+
+/** The request as the audit record keeps it: whole, or (AUDIT_REQUESTS=digest) only by its digest. */
+export function keptRequest(config: Pick<Config, 'auditRequests'>, body: unknown): Record<string, unknown> | null {
+  return config.auditRequests === 'full' ? (body as Record<string, unknown>) : null;
 }

@@ -8,7 +8,7 @@ export const reportStyle = `
 :root { color-scheme: light; }
 * { box-sizing: border-box; }
 body { margin: 0; background: ${palette.paper}; color: ${palette.ink}; font: 15px/1.5 ${fontStack}; }
-main { max-width: 62rem; margin: 0 auto; padding: 1.5rem 1.25rem 3rem; }
+main { max-width: 68rem; margin: 0 auto; padding: 1.5rem 1.25rem 3rem; }
 h1 { font-size: 1.45rem; margin: 0 0 .35rem; line-height: 1.25; overflow-wrap: anywhere; }
 h2 { font-size: 1.1rem; margin: 2rem 0 .6rem; padding-bottom: .2rem; border-bottom: 2px solid ${palette.ink}; }
 h3 { font-size: .98rem; margin: 1.3rem 0 .4rem; overflow-wrap: anywhere; }
@@ -25,8 +25,8 @@ caption { text-align: left; font-weight: bold; padding: .2rem 0; }
 th, td { padding: .28rem .55rem; border-bottom: 1px solid ${palette.faintRule}; text-align: right; vertical-align: top; }
 th { background: ${palette.wash}; border-bottom: 1px solid ${palette.rule}; font-weight: bold; }
 th:first-child, td:first-child, td.name, th.name, td.words, th.words { text-align: left; }
-/* break-word, not anywhere: a name breaks inside a word only when it cannot fit whole, so columns keep names readable. */
-td.name { overflow-wrap: break-word; min-width: 9rem; max-width: 22rem; }
+/* The min-width keeps ordinary names (up to about 24 characters) whole; only longer words break anywhere. */
+td.name { overflow-wrap: anywhere; min-width: 13rem; max-width: 22rem; }
 td.support { min-width: 9rem; }
 td.flagged { font-weight: bold; }
 tr.leader td { font-weight: bold; }
@@ -48,6 +48,12 @@ footer { margin-top: 2.5rem; color: ${palette.mutedInk}; font-size: .85rem; }
   thead { display: table-header-group; }
   tr, .chart, .standing, dl.facts { break-inside: avoid; page-break-inside: avoid; }
   .table-wrap { overflow: visible; }
+  /* Paper cannot scroll: narrower cells so the widest table (models) fits the text width. */
+  table { font-size: 7.5pt; }
+  table#models { font-size: 6.5pt; }
+  th, td { padding: .15rem .2rem; }
+  td.name { min-width: 6rem; }
+  td.support { min-width: 5rem; }
   .standing { background: none; border-left-color: #000; }
   .summary, .note, dl.facts dt, footer, .facts-inline { color: #333; }
 }

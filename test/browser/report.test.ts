@@ -67,6 +67,12 @@ if (!existsSync(chromiumPath)) {
     t.notMatch(dom.title, /pwned/);
     t.equal(dom.bars, service.modelNames.length, 'the inlined chart has one bar per model');
 
+    // At a desktop width every ranking table fits its column: no sideways scrolling to read a weight.
+    const overflowing = await page.$$eval('table[data-ranking]', (tables) =>
+      tables.filter((table) => table.parentElement!.scrollWidth > table.parentElement!.clientWidth).map((table) => table.getAttribute('data-ranking')),
+    );
+    t.same(overflowing, [], 'no ranking table wider than the page column at 1100 px');
+
     mkdirSync(browserOutputDir, { recursive: true });
     const screenshot = join(browserOutputDir, 'report-screenshot.png');
     await page.screenshot({ path: screenshot, fullPage: true });
@@ -76,6 +82,11 @@ if (!existsSync(chromiumPath)) {
     await page.emulateMedia({ media: 'print' });
     const printBackground = await page.evaluate(() => getComputedStyle(document.body).backgroundColor);
     t.equal(printBackground, 'rgb(255, 255, 255)', 'print rules take the page to white');
+    // A4 less 14 mm margins each side is 182 mm, about 688 px at 96 px per inch: paper cannot scroll.
+    await page.setViewportSize({ width: 680, height: 900 });
+    const cut = await page.$$eval('table', (tables) => tables.filter((table) => table.getBoundingClientRect().width > 681).map((table) => table.id || table.getAttribute('data-ranking') || table.getAttribute('data-section')));
+    t.same(cut, [], 'printed at A4 text width, no table is cut off');
+    await page.setViewportSize({ width: 1100, height: 900 });
     const pdf = join(browserOutputDir, 'report-print.pdf');
     await page.pdf({ path: pdf, format: 'A4', printBackground: true });
     t.ok(statSync(pdf).size > 10_000, `printed to ${pdf}`);

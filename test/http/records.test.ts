@@ -216,3 +216,17 @@ t.test('every bad query is a 400 naming its field', async (t) => {
   }
   t.equal((await app.inject({ method: 'GET', url: '/v1/comparisons?limit=100' })).statusCode, 200, 'limit 100 is allowed');
 });
+
+t.test('AUDIT_REQUESTS=digest keeps only the request digest: the record reads back, replay explains why it cannot run', async (t) => {
+  const { app, store } = await buildTestApp(t, { auditRequests: 'digest' });
+  const posted = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: demoComparison() });
+  t.equal(posted.statusCode, 200);
+  const record = await store.get(posted.json().id);
+  t.equal(record!.request, null, 'no request body stored');
+  t.match(record!.requestDigest, /^[0-9a-f]{64}$/);
+  const back = (await app.inject({ method: 'GET', url: `/v1/comparisons/${posted.json().id}` })).json();
+  t.equal(back.requestSummary, null);
+  const replay = await app.inject({ method: 'POST', url: `/v1/comparisons/${posted.json().id}/replay` });
+  t.equal(replay.statusCode, 409);
+  t.match(replay.json().detail, /digest-only/);
+});

@@ -10,7 +10,7 @@ import { ComparisonResult } from '../schemas/comparison-response.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { computeComparison } from '../comparison-input.ts';
-import { appendOr503 } from '../audit-append.ts';
+import { appendOr503, keptRequest } from '../audit-append.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
 export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config; policy: ActivePolicy }> = async (app, { store, config, policy }) => {
@@ -37,7 +37,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
       policy: result.policy,
       datasetFingerprint: result.dataset.fingerprint,
       requestDigest: requestDigest(body),
-      request: body as unknown as Record<string, unknown>,
+      request: keptRequest(config, body),
       result: result as unknown as Record<string, unknown>,
     });
     if (!record) return reply;

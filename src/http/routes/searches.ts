@@ -8,6 +8,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { requestDigest } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
+import { keptRequest } from '../audit-append.ts';
 import type { Issue } from '../../core/issues.ts';
 import { DEFAULT_SEARCH_BUDGET, planSearch, type BudgetIssue, type SearchBudget } from '../../core/search/index.ts';
 import { prepareSearch, type SearchRequestInput } from '../../core/search/request-problem.ts';
@@ -136,7 +137,7 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
         policy: report.policy,
         datasetFingerprint: report.dataset.fingerprint,
         requestDigest: requestDigest(body),
-        request: body as unknown as Record<string, unknown>,
+        request: keptRequest(config, body),
         result: answer as unknown as Record<string, unknown>,
       });
     } catch (error) {
