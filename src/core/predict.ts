@@ -12,6 +12,7 @@ import type { DesignMatrix, LeastSquaresFit } from './types.ts';
 import { estimableRow, quadraticForm, weightAt } from './inference/design-rows.ts';
 import type { StatisticsIssue } from './inference/issue.ts';
 import { basisQuadraticForm, weightedBasis } from './inference/orthonormal-basis.ts';
+import type { ModelGeometry } from './inference/model-geometry.ts';
 
 export interface MeanPrediction {
   estimate: number | null;
@@ -54,6 +55,7 @@ export function predictMeanResponse(
   data: DesignMatrix,
   rows: DesignMatrix,
   weights?: ArrayLike<number>,
+  geometry?: ModelGeometry,
 ): { predictions: MeanPrediction[]; issues: StatisticsIssue[] } {
   const issues: StatisticsIssue[] = [];
   if (rows.labels.length !== data.labels.length || rows.labels.some((l, j) => l !== data.labels[j])) {
@@ -67,8 +69,9 @@ export function predictMeanResponse(
   const relations = aliasRelations(fit, data, weights);
   // x' (X'WX)^-1 x through an orthonormal basis of the data design, which
   // keeps its accuracy on ill-conditioned designs; the fit's explicit
-  // inverse is the fallback.
-  const basis = weightedBasis(fit, data, weights);
+  // inverse is the fallback. The model's geometry, when passed, already
+  // holds that basis.
+  const basis = geometry ? geometry.basis : weightedBasis(fit, data, weights);
   const varianceFactor = (x: Float64Array) =>
     basis ? basisQuadraticForm(basis, x) : quadraticForm(fit.unscaledCovariance, x);
   const predictions: MeanPrediction[] = [];

@@ -17,6 +17,7 @@ import { serviceVersion } from '../version.ts';
 import { errorHandler } from './errors.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 import { zodValidatorCompiler } from './validation.ts';
+import { problemMediaTypes } from './openapi-problems.ts';
 import { loadPolicyFile, type ActivePolicy } from '../policy-file.ts';
 import { withRefusals } from './plugins/refusal.ts';
 import { requestTimeoutOptions } from './plugins/request-timeout.ts';
@@ -96,9 +97,19 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
         { name: 'audit', description: 'Stored comparisons, chain verification and replay' },
         { name: 'operations', description: 'Health and readiness' },
       ],
+      components: {
+        securitySchemes: {
+          apiKey: {
+            type: 'http',
+            scheme: 'bearer',
+            description: 'An API key from API_KEYS_FILE, sent as Authorization: Bearer <key>. With no keys configured the service is open (and listens on loopback only).',
+          },
+        },
+      },
+      security: [{ apiKey: [] }],
     },
     transform: jsonSchemaTransform,
-    transformObject: jsonSchemaTransformObject,
+    transformObject: (input) => problemMediaTypes(jsonSchemaTransformObject(input)),
   });
   await app.register(swaggerUi, { routePrefix: '/docs' });
 

@@ -47,8 +47,8 @@ export function chainSection(record: StoredComparisonView, rule: ChainVerificati
     ),
     tag('p', {},
       `To check this record yourself: its hash is ${rule.algorithm} over ${rule.hashedInput}, written in ${rule.encoding}. `,
-      'Recompute it from the stored record (',
-      tag('code', {}, `GET /v1/comparisons/${record.id}`),
+      'Recompute it from the record exactly as stored (',
+      tag('code', {}, `GET /v1/audit/records/${record.id}`),
       first
         ? '); it must equal the hash above, and the next record must name it as its previous hash.'
         : '); it must equal the hash above, its previous hash must equal the hash of the record before it, and the next record must name this hash as its previous one.',

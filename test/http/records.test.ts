@@ -15,6 +15,11 @@ import { demoComparison } from '../../scripts/demo-data.ts';
 
 const GENESIS = '0'.repeat(64);
 
+/** Canonical JSON written out again for the tests: sorted keys, no white space. */
+const sorted = (v: unknown): string => Array.isArray(v) ? `[${v.map(sorted).join(',')}]`
+  : v !== null && typeof v === 'object' ? `{${Object.keys(v).sort().map((k) => `${JSON.stringify(k)}:${sorted((v as Record<string, unknown>)[k])}`).join(',')}}`
+    : JSON.stringify(v);
+
 /** An app over an SQLite file whose clock steps 1 s per record, so time filters have distinct instants. */
 async function appWithClock(t: Test, startMs = Date.UTC(2026, 2, 1, 8, 0, 0)) {
   const dir = mkdtempSync(join(tmpdir(), 'parsimetry-records-'));
@@ -84,9 +89,6 @@ t.test('POST then GET: the result is the POST response exactly, with request sum
   t.equal(body.chain.prevHash, GENESIS);
   const stored = await store.get(posted.id);
   const { prevHash, hash: _h, ...rest } = stored!;
-  const sorted = (v: unknown): string => Array.isArray(v) ? `[${v.map(sorted).join(',')}]`
-    : v !== null && typeof v === 'object' ? `{${Object.keys(v).sort().map((k) => `${JSON.stringify(k)}:${sorted((v as Record<string, unknown>)[k])}`).join(',')}}`
-      : JSON.stringify(v);
   t.equal(body.chain.hash, createHash('sha256').update(prevHash + sorted(rest), 'utf8').digest('hex'));
   const verify = (await app.inject({ method: 'GET', url: '/v1/audit/verify' })).json();
   t.same(verify.head, { seq: 1, id: posted.id, hash: body.chain.hash }, 'the record is the chain head verify reports');
@@ -229,4 +231,20 @@ t.test('AUDIT_REQUESTS=digest keeps only the request digest: the record reads ba
   const replay = await app.inject({ method: 'POST', url: `/v1/comparisons/${posted.json().id}/replay` });
   t.equal(replay.statusCode, 409);
   t.match(replay.json().detail, /digest-only/);
+});
+
+t.test('GET /v1/audit/records/{id} answers the record exactly as hashed: its hash recomputes outside the store', async (t) => {
+  const { app } = await buildTestApp(t);
+  const first = (await app.inject({ method: 'POST', url: '/v1/comparisons', payload: demoComparison() })).json();
+  const second = (await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { ...demoComparison(), label: 'second' } })).json();
+  const a = (await app.inject({ method: 'GET', url: `/v1/audit/records/${first.id}` })).json();
+  const b = (await app.inject({ method: 'GET', url: `/v1/audit/records/${second.id}` })).json();
+  for (const raw of [a, b]) {
+    const { prevHash, hash, ...rest } = raw;
+    // The rule of src/audit/README.md, reimplemented here with node:crypto and a separate canonical JSON.
+    t.equal(hash, createHash('sha256').update(prevHash + sorted(rest), 'utf8').digest('hex'), `record ${raw.seq}`);
+  }
+  t.equal(a.prevHash, GENESIS, 'the first record follows 64 zeros');
+  t.equal(b.prevHash, a.hash, 'the second names the first');
+  t.equal((await app.inject({ method: 'GET', url: `/v1/audit/records/${'0'.repeat(8)}-0000-7000-8000-${'0'.repeat(12)}` })).statusCode, 404);
 });

@@ -1,61 +1,39 @@
 // Assumption checks of one least-squares fit: residual normality,
 // heteroscedasticity, autocorrelation, multicollinearity and influence.
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
-import { leverages as leveragesOf } from '../loo.ts';
+import { modelGeometry, type ModelGeometry } from '../inference/model-geometry.ts';
 import { diagnosticCautions } from './cautions.ts';
-import { scaledConditionNumber, varianceInflationFactors } from './collinearity.ts';
 import { cooksDistances } from './influence.ts';
-import { breuschPaganKoenker, durbinWatson, jarqueBera } from './residual-tests.ts';
+import { designColumn, multicollinearityCheck } from './multicollinearity.ts';
+import { breuschPaganFromAuxiliary, breuschPaganKoenker, durbinWatson, jarqueBera } from './residual-tests.ts';
 import { DIAGNOSTIC_THRESHOLDS as T } from './thresholds.ts';
 import type { ModelDiagnostics } from './types.ts';
 
 export type { ModelDiagnostics } from './types.ts';
 export { DIAGNOSTIC_THRESHOLDS } from './thresholds.ts';
 export { diagnosticCautions } from './cautions.ts';
-export { jarqueBera, breuschPaganKoenker, durbinWatson } from './residual-tests.ts';
+export { jarqueBera, breuschPaganKoenker, breuschPaganFromAuxiliary, durbinWatson } from './residual-tests.ts';
 export { varianceInflationFactors, scaledConditionNumber } from './collinearity.ts';
 export { cooksDistances } from './influence.ts';
 
 const NORMALITY_NOTE = 'Jarque–Bera compares the residuals\' skewness and kurtosis with a normal distribution; its chi-square p-value is a large-sample approximation and is lenient below about 30 rows.';
 const TIME_ORDER_NOTE = 'Durbin–Watson is meaningful only when the row order is time (or another sequence) order; otherwise ignore it.';
 
-function column(design: DesignMatrix, j: number): Float64Array {
-  return design.high[j].map((x, i) => x + design.low[j][i]);
-}
-
+/**
+ * Every check from one pass over the design: the model's geometry (R factor
+ * and leverages, see inference/model-geometry.ts) is computed here unless the
+ * caller passes the one it already has for the leave-one-out error.
+ */
 export function diagnoseFit(
   fit: LeastSquaresFit,
   design: DesignMatrix,
   weights?: ArrayLike<number>,
+  geometry: ModelGeometry = modelGeometry(fit, design, weights),
 ): ModelDiagnostics {
   const n = fit.observations;
   const p = fit.rank;
-  const estimableColumns = fit.estimable.map((j) => column(design, j));
-  const slopeIndices = fit.estimable.filter((j) => design.termOfColumn[j] !== -1);
-  const slopeColumns = slopeIndices.map((j) => column(design, j));
   const leverageThreshold = (T.leverageMultiple * p) / n;
-
-  const vifs = varianceInflationFactors(slopeColumns, weights);
-  const conditionNumber = scaledConditionNumber(estimableColumns, weights);
-  const finiteVifs = vifs.filter((v): v is number => v !== null);
-  // A null VIF on a column that varies means exact collinearity once centred
-  // (possible only without an intercept): inflation without bound.
-  const unbounded = vifs.some((v, k) => v === null && !slopeColumns[k].every((x) => x === slopeColumns[k][0]));
-  const maxVif = unbounded || finiteVifs.length === 0 ? null : Math.max(...finiteVifs);
-  const notes: string[] = [];
-  if (!design.intercept) notes.push('The model has no intercept; the variance inflation factors are computed on centred columns all the same.');
-  if (unbounded) notes.push('Once centred, some columns are exactly collinear, so their variance inflation is unbounded.');
-  const multicollinearity = {
-    varianceInflationFactors: slopeIndices.map((j, k) => ({ term: design.labels[j], vif: vifs[k] })),
-    maxVarianceInflation: maxVif,
-    varianceInflationThreshold: T.varianceInflation,
-    conditionNumber,
-    conditionNumberThreshold: T.conditionNumber,
-    passed: conditionNumber === null
-      ? null
-      : !unbounded && (maxVif === null || maxVif <= T.varianceInflation) && conditionNumber <= T.conditionNumber,
-    note: notes.length ? notes.join(' ') : null,
-  };
+  const multicollinearity = multicollinearityCheck(fit, design, weights, geometry);
 
   const residualsUsable = fit.sigma !== null && !fit.exactFit && n > p;
   if (!residualsUsable) {
@@ -76,17 +54,22 @@ export function diagnoseFit(
 
   const standardised = fit.residuals.map((e, i) => Math.sqrt(weights ? weights[i] : 1) * e);
   const jb = jarqueBera(standardised);
-  const bp = breuschPaganKoenker(standardised, slopeColumns);
+  // The geometry holds the auxiliary regression when the model's basis spans
+  // it (no weights, an intercept); otherwise the regressors are factorised here.
+  const bp = geometry.squaredResidualRegression
+    ? breuschPaganFromAuxiliary(standardised.length, geometry.squaredResidualRegression)
+    : breuschPaganKoenker(standardised, fit.estimable.filter((j) => design.termOfColumn[j] !== -1).map((j) => designColumn(design, j)));
   const dw = durbinWatson(standardised);
-  const h = leveragesOf(fit, design, weights);
+  const h = geometry.leverages;
   const cooks = cooksDistances(fit.residuals, h, p, fit.sigma as number, weights);
   let maxCooks: number | null = null;
   let maxCooksRow: number | null = null;
-  cooks.forEach((d, i) => {
+  for (let i = 0; i < cooks.length; i++) {
+    const d = cooks[i];
     if (d !== null && (maxCooks === null || d > maxCooks)) { maxCooks = d; maxCooksRow = i; }
-  });
+  }
   const highLeverageRowIndices: number[] = [];
-  h.forEach((x, i) => { if (x > leverageThreshold) highLeverageRowIndices.push(i); });
+  for (let i = 0; i < h.length; i++) if (h[i] > leverageThreshold) highLeverageRowIndices.push(i);
 
   const partial = {
     available: true,

@@ -2,7 +2,7 @@
 // standardised residuals sqrt(w_i) e_i, which share one variance when the
 // weights are right.
 import { chiSquareUpperTail } from '../inference/distributions.ts';
-import { auxiliaryRSquared } from './scaled-svd.ts';
+import { auxiliaryRSquared } from './scaled-factor.ts';
 
 /**
  * Jarque & Bera (1987): JB = n/6 (S^2 + (K - 3)^2 / 4) with the moment
@@ -37,15 +37,22 @@ export function jarqueBera(residuals: ArrayLike<number>): {
  * the original Breusch & Pagan (1979) statistic it does not assume normal
  * errors.
  */
-export function breuschPaganKoenker(residuals: ArrayLike<number>, regressors: readonly Float64Array[]): {
+export function breuschPaganKoenker(residuals: ArrayLike<number>, regressors: readonly ArrayLike<number>[]): {
   statistic: number; df: number; pValue: number | null;
 } {
   const n = residuals.length;
   const squared = new Float64Array(n);
   for (let i = 0; i < n; i++) squared[i] = residuals[i] * residuals[i];
-  const { rSquared, slopes } = auxiliaryRSquared(regressors, squared);
-  const statistic = n * rSquared;
-  return { statistic, df: slopes, pValue: slopes > 0 ? chiSquareUpperTail(statistic, slopes) : null };
+  return breuschPaganFromAuxiliary(n, auxiliaryRSquared(regressors, squared));
+}
+
+/** The same test from an auxiliary regression already made (rows n). */
+export function breuschPaganFromAuxiliary(n: number, auxiliary: { rSquared: number; slopes: number }): {
+  statistic: number; df: number; pValue: number | null;
+} {
+  const statistic = n * auxiliary.rSquared;
+  const df = auxiliary.slopes;
+  return { statistic, df, pValue: df > 0 ? chiSquareUpperTail(statistic, df) : null };
 }
 
 /**

@@ -104,7 +104,32 @@ export function streamedR(v: ScaledColumns): Float64Array {
       const inv = 1 / head;
       for (let i = 0; i < length; i++) block[ok + i] *= inv;
       r[k * p + k] = beta;
-      for (let j = k + 1; j < p; j++) {
+      let j = k + 1;
+      // Four later columns per sweep: the reflection vector is read a quarter as often.
+      for (; j + 3 < p; j += 4) {
+        const oa = j * BLOCK_ROWS, ob = oa + BLOCK_ROWS, oc = ob + BLOCK_ROWS, od = oc + BLOCK_ROWS;
+        let sa = r[k * p + j], sb = r[k * p + j + 1], sc = r[k * p + j + 2], sd = r[k * p + j + 3];
+        for (let i = 0; i < length; i++) {
+          const u = block[ok + i];
+          sa += u * block[oa + i];
+          sb += u * block[ob + i];
+          sc += u * block[oc + i];
+          sd += u * block[od + i];
+        }
+        sa *= tau; sb *= tau; sc *= tau; sd *= tau;
+        r[k * p + j] -= sa;
+        r[k * p + j + 1] -= sb;
+        r[k * p + j + 2] -= sc;
+        r[k * p + j + 3] -= sd;
+        for (let i = 0; i < length; i++) {
+          const u = block[ok + i];
+          block[oa + i] -= sa * u;
+          block[ob + i] -= sb * u;
+          block[oc + i] -= sc * u;
+          block[od + i] -= sd * u;
+        }
+      }
+      for (; j < p; j++) {
         const oj = j * BLOCK_ROWS;
         let s = r[k * p + j];
         for (let i = 0; i < length; i++) s += block[ok + i] * block[oj + i];
@@ -148,9 +173,17 @@ export function visitOrthonormalRows(
     loadBlock(v, start, length, z);
     for (let k = 0; k < p; k++) {
       const ok = k * BLOCK_ROWS;
-      for (let m = 0; m < k; m++) {
+      let m = 0;
+      // Four earlier columns per sweep: a quarter of the loads and stores of z_k.
+      for (; m + 3 < k; m += 4) {
+        const r0 = r[m * p + k], r1 = r[(m + 1) * p + k], r2 = r[(m + 2) * p + k], r3 = r[(m + 3) * p + k];
+        const o0 = m * BLOCK_ROWS, o1 = o0 + BLOCK_ROWS, o2 = o1 + BLOCK_ROWS, o3 = o2 + BLOCK_ROWS;
+        for (let i = 0; i < length; i++) {
+          z[ok + i] -= r0 * z[o0 + i] + r1 * z[o1 + i] + r2 * z[o2 + i] + r3 * z[o3 + i];
+        }
+      }
+      for (; m < k; m++) {
         const rmk = r[m * p + k];
-        if (rmk === 0) continue;
         const om = m * BLOCK_ROWS;
         for (let i = 0; i < length; i++) z[ok + i] -= rmk * z[om + i];
       }

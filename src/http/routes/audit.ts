@@ -2,8 +2,8 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
-import { VerifyReportSchema } from '../schemas/record.ts';
-import { replyToStoreReadError } from './records.ts';
+import { RawRecord, RecordParams, VerifyReportSchema } from '../schemas/record.ts';
+import { notFound, replyToStoreReadError } from './records.ts';
 
 export const auditRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (app, { store }) => {
   app.get('/v1/audit/verify', {
@@ -23,6 +23,25 @@ export const auditRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (
   }, async (_request, reply) => {
     try {
       return reply.code(200).send(await store.verify());
+    } catch (error) {
+      return replyToStoreReadError(error, reply);
+    }
+  });
+
+  app.get('/v1/audit/records/:id', {
+    schema: {
+      tags: ['audit'],
+      summary: 'One audit record exactly as it is hashed, to check its hash outside the service',
+      description:
+        'hash = hex SHA-256 of the UTF-8 bytes of prevHash followed by the canonical JSON (sorted keys, no white space, numbers as ECMAScript prints them; RFC 8785 for these values) of this object without its prevHash and hash fields. The first record\'s prevHash is 64 zeros.',
+      params: RecordParams,
+      response: { 200: RawRecord, 400: ProblemSchema, 404: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
+    },
+  }, async (request, reply) => {
+    try {
+      const record = await store.get(request.params.id);
+      if (!record) return notFound(reply, request.params.id, 'record');
+      return reply.code(200).send(record);
     } catch (error) {
       return replyToStoreReadError(error, reply);
     }

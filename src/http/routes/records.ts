@@ -27,7 +27,7 @@ export function replyToStoreReadError(error: unknown, reply: FastifyReply): Fast
   throw error;
 }
 
-export function notFound(reply: FastifyReply, id: string, kind: RecordKind = 'comparison'): FastifyReply {
+export function notFound(reply: FastifyReply, id: string, kind: RecordKind | 'record' = 'comparison'): FastifyReply {
   return reply.code(404).type(PROBLEM_CONTENT_TYPE).send(
     problem(404, problemTypes.notFound, 'Not found', `no ${kind} with id ${id}`));
 }

@@ -173,3 +173,14 @@ export const ReplayReport = z
     summary: z.string(),
   })
   .meta({ id: 'ReplayReport' });
+
+/** The stored record itself: every field the hash covers, plus prevHash and hash. */
+export const RawRecord = z
+  .looseObject({
+    id: z.string(),
+    seq: z.number().int(),
+    kind: z.enum(['comparison', 'search']),
+    prevHash: hex64,
+    hash: hex64,
+  })
+  .meta({ id: 'RawRecord', description: 'An audit record exactly as stored and hashed.' });

@@ -27,6 +27,7 @@ export const routeRoles: Readonly<Record<string, Access>> = Object.freeze({
   'GET /v1/comparisons': role('read'),
   'GET /v1/comparisons/:id': role('read'),
   'GET /v1/searches/:id': role('read'),
+  'GET /v1/audit/records/:id': role('read'),
   'GET /v1/comparisons/:id/chart.svg': role('read'),
   'GET /v1/comparisons/:id/report': role('read'),
   'GET /v1/audit/verify': role('admin'),

@@ -4,6 +4,7 @@
 import { nestedTests as findNestedTests, type NestedTest } from '../../inference/nested.ts';
 import { rankByLeaveOneOut } from '../../loo.ts';
 import { predictMeanResponse } from '../../predict.ts';
+import { modelGeometry } from '../../inference/model-geometry.ts';
 import { issue, type Issue } from '../../issues.ts';
 import type { CriterionName } from '../../criteria.ts';
 import type { RankingEntry } from '../../ranking.ts';
@@ -57,7 +58,9 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   const issues: Issue[] = [];
   for (const [index, model] of fitted) {
     const result = byName.get(model.result.name)!;
-    const checks = modelChecks(model, input.rows!, input.weights);
+    // One factorisation of the design serves the checks and the predictions.
+    const geometry = modelGeometry(model.fit, model.design, input.weights);
+    const checks = modelChecks(model, input.rows!, input.weights, geometry);
     result.press = checks.press;
     result.looRmse = checks.looRmse;
     result.diagnostics = checks.diagnostics;
@@ -71,7 +74,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
         issues.push(...built.issues);
         continue;
       }
-      const p = predictMeanResponse(model.fit, model.design, built.design, input.weights);
+      const p = predictMeanResponse(model.fit, model.design, built.design, input.weights, geometry);
       result.predictions = p.predictions;
       predictions.set(result.name, p.predictions);
       for (const note of p.issues) result.cautions.push({ code: note.code, message: note.message });

@@ -1,7 +1,9 @@
 // Per fitted model: the exact leave-one-out error (PRESS from the hat matrix,
 // no refits) and the assumption checks behind every criterion, with row
-// numbers mapped back to the caller's data rows.
+// numbers mapped back to the caller's data rows. Both read one geometry of
+// the model (its R factor and leverages), factorised once.
 import { leaveOneOutError } from '../../loo.ts';
+import { modelGeometry, type ModelGeometry } from '../../inference/model-geometry.ts';
 import { diagnoseFit, type ModelDiagnostics } from '../../diagnostics/index.ts';
 import type { FittedModel } from '../fitted-model.ts';
 import type { Caution } from '../cautions.ts';
@@ -14,9 +16,14 @@ export interface ModelChecks {
   cautions: Caution[];
 }
 
-export function modelChecks(model: FittedModel, rows: readonly number[], weights: Float64Array | undefined): ModelChecks {
-  const loo = leaveOneOutError(model.fit, model.design, weights);
-  const d = diagnoseFit(model.fit, model.design, weights);
+export function modelChecks(
+  model: FittedModel,
+  rows: readonly number[],
+  weights: Float64Array | undefined,
+  geometry: ModelGeometry = modelGeometry(model.fit, model.design, weights),
+): ModelChecks {
+  const loo = leaveOneOutError(model.fit, model.design, weights, geometry);
+  const d = diagnoseFit(model.fit, model.design, weights, geometry);
   const dataRow = (i: number | null) => (i === null ? null : rows[i]);
   const diagnostics: ModelDiagnostics = {
     ...d,
