@@ -13,7 +13,9 @@ import type { ActivePolicy } from '../src/policy-file.ts';
 /** keys: API keys for the app (default none: open, as on loopback); policy: a team policy (default built in). */
 export async function buildTestApp(t: Test, overrides: Partial<Config> = {}, options: { keys?: KeyRing; policy?: ActivePolicy } = {}) {
   const dir = mkdtempSync(join(tmpdir(), 'parsimetry-test-'));
-  const config = defaultConfig({ auditDb: join(dir, 'audit.sqlite'), ...overrides });
+  // Load shedding off unless a test turns it on: a test's own heavy computing in
+  // the same process (brute-force references, parsers) must not read as overload.
+  const config = defaultConfig({ auditDb: join(dir, 'audit.sqlite'), eventLoopMaxDelayMs: 0, ...overrides });
   const store = await openAuditStore(config.auditDb);
   const app = await buildApp({ config, store, logger: false, keys: options.keys, policy: options.policy });
   t.teardown(async () => {

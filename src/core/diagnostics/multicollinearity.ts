@@ -6,6 +6,7 @@
 // hold) or with numerically dependent columns factorises its columns here.
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
 import type { ModelGeometry } from '../inference/model-geometry.ts';
+import { designFactor } from '../inference/orthonormal-basis.ts';
 import { scaledConditionNumber, varianceInflationFactors } from './collinearity.ts';
 import { conditionFromFactor, inflationFromFactor } from './scaled-factor.ts';
 import { DIAGNOSTIC_THRESHOLDS as T } from './thresholds.ts';
@@ -34,7 +35,7 @@ export function multicollinearityCheck(
   const slopeIndices = fit.estimable.filter((j) => design.termOfColumn[j] !== -1);
   const basis = geometry.basis;
   const conditionNumber = basis
-    ? conditionFromFactor(basis.r, basis.order.length, design.rows)
+    ? conditionFromFactor(designFactor(basis), basis.order.length, design.rows)
     : scaledConditionNumber(fit.estimable.map((j) => designColumn(design, j)), weights);
   // The basis lists the slopes in fit order after the intercept, as slopeIndices does.
   const vifs = basis && basis.interceptFirst

@@ -5,7 +5,7 @@
 // after that is p x p algebra on R, whose singular values are the columns'.
 // Scaling each column to unit length first makes them independent of units.
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
-import { leveragesAndProjections, rowScaleOf, scaledColumns, streamedR } from '../inference/streamed-qr.ts';
+import { leveragesAndProjections, rowScaleOf, scaledColumns, streamedR, weightedMeans } from '../inference/streamed-qr.ts';
 
 interface FactorSvd {
   /** Singular values, descending. */
@@ -81,11 +81,22 @@ function constantColumn(columns: readonly ArrayLike<number>[]): Float64Array {
   return new Float64Array(columns[0]?.length ?? 0).fill(1);
 }
 
-/** R of the unit-length columns [constant, ...columns], rows scaled by sqrt(w_i). */
+/**
+ * R of the unit-length columns [constant, ...columns], rows scaled by
+ * sqrt(w_i), the columns centred on their weighted means first: the same
+ * column space, without the rounding of the offset (see orthonormal-basis.ts).
+ */
 export function centringFactor(columns: readonly ArrayLike<number>[], weights?: ArrayLike<number>): Float64Array {
+  return streamedR(centredWithConstant(columns, rowScaleOf(weights, columns[0]?.length ?? 0)));
+}
+
+function centredWithConstant(columns: readonly ArrayLike<number>[], rowScale: Float64Array | null) {
   const n = columns[0]?.length ?? 0;
   const all = [constantColumn(columns), ...columns];
-  return streamedR(scaledColumns(all, all.map(() => null), rowScaleOf(weights, n), n));
+  const low = all.map(() => null);
+  const centre = weightedMeans(all, low, rowScale, n);
+  centre[0] = 0;
+  return scaledColumns(all, low, rowScale, n, centre);
 }
 
 /** R of the unit-length columns, rows scaled by sqrt(w_i). */
@@ -116,7 +127,7 @@ export function auxiliaryRSquared(regressors: readonly ArrayLike<number>[], y: A
   if (regressors.length === 0 || !(total > 0)) return { rSquared: 0, slopes: 0 };
   let kept = [constantColumn(regressors), ...regressors];
   for (;;) {
-    const columns = scaledColumns(kept, kept.map(() => null), null, n);
+    const columns = centredWithConstant(kept.slice(1), null);
     const r = streamedR(columns);
     const p = kept.length;
     const tolerance = Math.max(n, p) * Number.EPSILON;

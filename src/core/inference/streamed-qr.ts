@@ -24,7 +24,9 @@ export interface ScaledColumns {
   low: readonly (ArrayLike<number> | null)[];
   /** sqrt(w_i) per row, or null for unit weights. */
   rowScale: Float64Array | null;
-  /** 2-norm of each row-scaled column; a zero column has 0. */
+  /** A value subtracted from each column before the row scaling (its centre), or null for none. */
+  centre: Float64Array | null;
+  /** 2-norm of each row-scaled (centred) column; a zero column has 0. */
   scale: Float64Array;
 }
 
@@ -39,40 +41,69 @@ export function rowScaleOf(weights: ArrayLike<number> | undefined, rows: number)
   return s;
 }
 
-/** The row-scaled columns and their 2-norms (two passes, so no square can overflow). */
+/**
+ * The row-scaled columns and their 2-norms (two passes, so no square can
+ * overflow). A column's value is (high - centre) + low, so a centre near the
+ * values costs no digits of the low part.
+ */
 export function scaledColumns(
   high: readonly ArrayLike<number>[],
   low: readonly (ArrayLike<number> | null)[],
   rowScale: Float64Array | null,
   rows: number,
+  centre: Float64Array | null = null,
 ): ScaledColumns {
   const scale = new Float64Array(high.length);
+  const value = new Float64Array(rows);
   for (let j = 0; j < high.length; j++) {
-    const h = high[j], l = low[j];
+    const h = high[j], l = low[j], c = centre ? centre[j] : 0;
     let max = 0;
     for (let i = 0; i < rows; i++) {
-      const v = Math.abs((rowScale ? rowScale[i] : 1) * (l ? h[i] + l[i] : h[i]));
-      if (v > max) max = v;
+      const x = (rowScale ? rowScale[i] : 1) * (l ? h[i] - c + l[i] : h[i] - c);
+      value[i] = x;
+      const a = Math.abs(x);
+      if (a > max) max = a;
     }
     if (!(max > 0) || !Number.isFinite(max)) continue;
     let s = 0;
     for (let i = 0; i < rows; i++) {
-      const v = ((rowScale ? rowScale[i] : 1) * (l ? h[i] + l[i] : h[i])) / max;
-      s += v * v;
+      const a = value[i] / max;
+      s += a * a;
     }
     scale[j] = max * Math.sqrt(s);
   }
-  return { rows, high, low, rowScale, scale };
+  return { rows, high, low, rowScale, centre, scale };
+}
+
+/** sum_i w_i x_ij / sum_i w_i per column (in double: a centre need only be near the mean). */
+export function weightedMeans(
+  high: readonly ArrayLike<number>[],
+  low: readonly (ArrayLike<number> | null)[],
+  rowScale: Float64Array | null,
+  rows: number,
+): Float64Array {
+  const means = new Float64Array(high.length);
+  let total = 0;
+  for (let i = 0; i < rows; i++) total += rowScale ? rowScale[i] * rowScale[i] : 1;
+  if (!(total > 0)) return means;
+  for (let j = 0; j < high.length; j++) {
+    const h = high[j], l = low[j];
+    let s = 0;
+    for (let i = 0; i < rows; i++) s += (rowScale ? rowScale[i] * rowScale[i] : 1) * (l ? h[i] + l[i] : h[i]);
+    means[j] = s / total;
+  }
+  return means;
 }
 
 /** Rows [start, start + length) of the unit-length columns into block (column-major, stride BLOCK_ROWS). */
 function loadBlock(v: ScaledColumns, start: number, length: number, block: Float64Array): void {
   for (let j = 0; j < v.high.length; j++) {
     const h = v.high[j], l = v.low[j], s = v.rowScale;
+    const c = v.centre ? v.centre[j] : 0;
     const inv = v.scale[j] > 0 ? 1 / v.scale[j] : 0;
     const o = j * BLOCK_ROWS;
     for (let i = 0; i < length; i++) {
-      const x = l ? h[start + i] + l[start + i] : h[start + i];
+      const x = l ? h[start + i] - c + l[start + i] : h[start + i] - c;
       block[o + i] = (s ? s[start + i] * x : x) * inv;
     }
   }
