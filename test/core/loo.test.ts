@@ -1,7 +1,7 @@
 import t from 'tap';
-import longley from '../../../shared/reference/nist-strd-lls/longley.json' with { type: 'json' };
-import norris from '../../../shared/reference/nist-strd-lls/norris.json' with { type: 'json' };
-import pontius from '../../../shared/reference/nist-strd-lls/pontius.json' with { type: 'json' };
+import longley from '../reference/nist/longley.json' with { type: 'json' };
+import norris from '../reference/nist/norris.json' with { type: 'json' };
+import pontius from '../reference/nist/pontius.json' with { type: 'json' };
 import { leaveOneOutError, leverages, rankByLeaveOneOut } from '../../src/core/loo.ts';
 import { designWithIntercept, makeDesign, referenceFit, SOLVERS } from './inference/reference-fit.ts';
 import type { DesignMatrix } from '../../src/core/types.ts';

@@ -1,5 +1,5 @@
 import t from 'tap';
-import norris from '../../../../shared/reference/nist-strd-lls/norris.json' with { type: 'json' };
+import norris from '../../reference/nist/norris.json' with { type: 'json' };
 import { predictMeanResponse } from '../../../src/core/predict.ts';
 import { designWithIntercept, makeDesign, referenceFit } from '../inference/reference-fit.ts';
 

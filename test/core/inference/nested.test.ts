@@ -1,6 +1,6 @@
 import t from 'tap';
-import longley from '../../../../shared/reference/nist-strd-lls/longley.json' with { type: 'json' };
-import pontius from '../../../../shared/reference/nist-strd-lls/pontius.json' with { type: 'json' };
+import longley from '../../reference/nist/longley.json' with { type: 'json' };
+import pontius from '../../reference/nist/pontius.json' with { type: 'json' };
 import { nestedTest, nestedTests, nestingOrder, type NestedCandidate } from '../../../src/core/inference/nested.ts';
 import { designWithIntercept, makeDesign, projectFit, referenceFit } from './reference-fit.ts';
 import type { DesignMatrix } from '../../../src/core/types.ts';

@@ -11,10 +11,10 @@
 #   Belsley, Kuh & Welsch (1980) condition number: unit-length columns of X.
 # Chi-square upper tails in closed form: for even df,
 #   Q(df/2, x/2) = exp(-x/2) sum_{j < df/2} (x/2)^j / j!;  for df = 1, erfc(sqrt(x/2)).
-import json, math, sys
+import json, math, os, sys
 import numpy as np
 
-SRC = '/work/shared/reference/nist-strd-lls/'
+SRC = os.path.join(os.path.dirname(os.path.abspath(__file__)), '..', 'nist') + os.sep  # the embedded NIST copies
 
 def chi2_sf(x, df):
     if df == 1:
