@@ -132,7 +132,7 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   residual_missing: (f, at) =>
     `${at} is null at data row ${f.row}, which the comparison uses; every used row needs a residual.`,
   estimation_mixed: (f, at) =>
-    `${at} mixes REML (${quoteList(f.reml)}) with maximum-likelihood candidates (${quoteList(f.ml)}); REML log-likelihoods leave out the fixed effects and are not comparable with ML ones — refit all by ML to compare different fixed effects.`,
+    `${at} mixes REML (${quoteList(f.reml)}) with maximum-likelihood candidates (${quoteList(f.ml)}); REML log-likelihoods are likelihoods of error contrasts, not of the data, and cannot be compared with ML ones — refit all by ML to compare models with different fixed effects.`,
   reml_fixed_effects_missing: (f, at) =>
     `${at} (${JSON.stringify(f.name)}) is a REML likelihood without fixedEffects; REML likelihoods compare only models with the same fixed effects, so state them.`,
   reml_fixed_effects_differ: (f, at) =>

@@ -44,7 +44,7 @@ t.test('the job in one line, data set, conventions, chain position and how to ve
   t.match(text, /record 17/);
   t.ok(text.includes(record.hash) && text.includes(record.prevHash!));
   t.match(text, /GET \/v1\/audit\/verify/);
-  t.match(text, /GET \/v1\/comparisons\/cmp_0001/);
+  t.match(text, /GET \/v1\/audit\/records\/cmp_0001/, 'the raw record, exactly as hashed');
 });
 
 t.test('the hashing rule is a parameter, written as given', async (t) => {

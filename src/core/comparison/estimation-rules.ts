@@ -20,7 +20,7 @@ export function estimationIssues(candidates: readonly EstimationFacts[]): Issue[
   }
   const issues: Issue[] = [];
   const missing = reml.filter((c) => !c.fixedEffects);
-  for (const c of missing) issues.push(issue('reml_fixed_effects_missing', ['candidates', c.index, 'fixedEffects'], { name: c.name }));
+  for (const c of missing) issues.push(issue('reml_fixed_effects_missing', ['candidates', c.index], { name: c.name }));
   if (issues.length > 0) return issues;
   const key = (terms: string[]) => [...new Set(terms)].sort(compareCodePoints);
   const first = reml[0];
