@@ -2,13 +2,22 @@
 // typo in a deployment fails loudly instead of running with a silent default.
 import { z } from 'zod';
 
-const positiveInt = (fallback: number) =>
-  z.coerce.number().int().positive().default(fallback);
+// Decimal digits only: z.coerce.number() would read "" as 0 and "0x1F90" as
+// 8080, turning an empty or mistyped setting into a silent value.
+const wholeNumber = (min: number, max = Number.MAX_SAFE_INTEGER) =>
+  z.string().regex(/^\d+$/, 'expected a whole number written in decimal digits').transform(Number).pipe(z.number().int().min(min).max(max));
+
+const positiveInt = (fallback: number) => wholeNumber(1).default(fallback);
 
 const ConfigSchema = z.object({
-  PORT: z.coerce.number().int().min(0).max(65535).default(8080),
+  PORT: wholeNumber(0, 65535).default(8080),
   HOST: z.string().min(1).default('127.0.0.1'),
-  AUDIT_DB: z.string().min(1).default('./data/audit.sqlite'),
+  // A file path, or a postgres:// URL; any other scheme is a typo, not a file name.
+  AUDIT_DB: z
+    .string()
+    .min(1)
+    .refine((v) => !/^[a-z][a-z0-9+.-]*:\/\//i.test(v) || /^postgres(ql)?:\/\//i.test(v), 'expected an SQLite file path or a postgres:// URL')
+    .default('./data/audit.sqlite'),
   API_KEYS_FILE: z.string().min(1).optional(),
   // A team's agreed defaults for ranking (README: team policy); none: the built-in default.
   POLICY_FILE: z.string().min(1).optional(),
@@ -39,7 +48,7 @@ const ConfigSchema = z.object({
   // Time to receive a whole request, headers and body (slow senders hold sockets).
   REQUEST_TIMEOUT_MS: positiveInt(60_000),
   // Shed load with 503 once the event loop lags this much; 0 turns shedding off.
-  EVENT_LOOP_MAX_DELAY_MS: z.coerce.number().int().min(0).default(1000),
+  EVENT_LOOP_MAX_DELAY_MS: wholeNumber(0).default(1000),
   // On SIGTERM: how long requests in flight may take before the process is stopped.
   SHUTDOWN_GRACE_MS: positiveInt(20_000),
 });

@@ -4,20 +4,15 @@ import { randomUUID } from 'node:crypto';
 import Fastify, { type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import swagger from '@fastify/swagger';
 import swaggerUi from '@fastify/swagger-ui';
-import {
-  jsonSchemaTransform,
-  jsonSchemaTransformObject,
-  serializerCompiler,
-  type ZodTypeProvider,
-} from 'fastify-type-provider-zod';
+import { serializerCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import type { Logger } from 'pino';
 import type { Config } from '../config.ts';
 import type { AuditStore } from '../audit/store.ts';
-import { serviceVersion } from '../version.ts';
 import { errorHandler } from './errors.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 import { zodValidatorCompiler } from './validation.ts';
-import { problemMediaTypes } from './openapi-problems.ts';
+import { registerJsonBody } from './json-body.ts';
+import { openapiOptions } from './openapi-options.ts';
 import { loadPolicyFile, type ActivePolicy } from '../policy-file.ts';
 import { withRefusals } from './plugins/refusal.ts';
 import { requestTimeoutOptions } from './plugins/request-timeout.ts';
@@ -45,12 +40,6 @@ export interface AppDependencies {
   policy?: ActivePolicy;
 }
 
-export const openapiInfo = {
-  title: 'parsimetry',
-  version: serviceVersion,
-  description:
-    'One referee for competing regression models: fits candidates, scores every criterion under one published convention, ranks them and keeps a tamper-evident audit record. Criteria rank candidate models; they do not validate a model for a safety-relevant use — defer to domain review and local rules.',
-};
 
 export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy }: AppDependencies): Promise<FastifyInstance> {
   const policy = givenPolicy ?? loadPolicyFile(config.policyFile);
@@ -61,15 +50,17 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
       const given = req.headers['x-request-id'];
       return typeof given === 'string' && /^[\w.-]{1,100}$/.test(given) ? given : randomUUID();
     },
-    // Proto-polluting keys are refused outright rather than silently stripped.
-    onProtoPoisoning: 'error',
-    onConstructorPoisoning: 'error',
     ajv: undefined,
     ...requestTimeoutOptions(config.requestTimeoutMs),
     // Refused by our own onRequest hook instead, as a problem naming the reason.
     return503OnClosing: false,
   }).withTypeProvider<ZodTypeProvider>();
 
+  registerJsonBody(app as unknown as FastifyInstance);
+  // The body exactly as sent (before schema defaults), for the audit record's request and digest.
+  app.addHook('preValidation', async (request) => {
+    request.sentBody = request.body;
+  });
   app.setValidatorCompiler(zodValidatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.setErrorHandler(withRefusals(errorHandler(config.bodyLimitBytes)));
@@ -81,36 +72,15 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
     reply.header('x-request-id', request.id);
     return payload;
   });
+  // Before every other route (the service plugins' /metrics included) so the
+  // document lists them all.
+  await app.register(swagger, openapiOptions);
   await registerServicePlugins(app as unknown as FastifyInstance, {
     config,
     keys: keys ?? (config.apiKeysFile ? loadKeysFile(config.apiKeysFile) : KeyRing.empty()),
     processMetrics,
   });
 
-  await app.register(swagger, {
-    openapi: {
-      openapi: '3.1.0',
-      info: openapiInfo,
-      tags: [
-        { name: 'comparisons', description: 'Fit, score and rank candidate models' },
-        { name: 'searches', description: 'Search subsets of a pool of terms; fold streamed rows into a data summary' },
-        { name: 'audit', description: 'Stored comparisons, chain verification and replay' },
-        { name: 'operations', description: 'Health and readiness' },
-      ],
-      components: {
-        securitySchemes: {
-          apiKey: {
-            type: 'http',
-            scheme: 'bearer',
-            description: 'An API key from API_KEYS_FILE, sent as Authorization: Bearer <key>. With no keys configured the service is open (and listens on loopback only).',
-          },
-        },
-      },
-      security: [{ apiKey: [] }],
-    },
-    transform: jsonSchemaTransform,
-    transformObject: (input) => problemMediaTypes(jsonSchemaTransformObject(input)),
-  });
   await app.register(swaggerUi, { routePrefix: '/docs' });
 
   await app.register(healthRoutes, { store });

@@ -4,6 +4,7 @@ import type { FastifyError, FastifyReply, FastifyRequest } from 'fastify';
 import { ResponseSerializationError } from 'fastify-type-provider-zod';
 import { problem, problemTypes, toPointer, PROBLEM_CONTENT_TYPE, type Problem } from './problems.ts';
 import { RequestValidationError } from './validation.ts';
+import { BodyRefused } from './json-body.ts';
 
 function fromFastifyError(error: FastifyError, request: FastifyRequest, bodyLimitBytes: number): Problem | null {
   switch (error.code) {
@@ -21,14 +22,6 @@ function fromFastifyError(error: FastifyError, request: FastifyRequest, bodyLimi
     default:
       break;
   }
-  // Body parse failures (including __proto__ / constructor.prototype keys refused
-  // by fastify's secure JSON parser) arrive as 400s without a code of their own.
-  if (error.statusCode === 400 && (error instanceof SyntaxError || /JSON|prototype|proto/i.test(error.message))) {
-    return problem(400, problemTypes.invalidJson, 'Body is not JSON',
-      /prototype|proto/i.test(error.message)
-        ? 'the body uses a key that is refused for safety (__proto__ or constructor.prototype)'
-        : `the body is not valid JSON: ${error.message}`);
-  }
   if (typeof error.statusCode === 'number' && error.statusCode >= 400 && error.statusCode < 500) {
     return problem(error.statusCode, problemTypes.invalidRequest, 'Request refused', error.message);
   }
@@ -38,7 +31,12 @@ function fromFastifyError(error: FastifyError, request: FastifyRequest, bodyLimi
 export function errorHandler(bodyLimitBytes: number) {
   return function handle(error: FastifyError, request: FastifyRequest, reply: FastifyReply) {
     let body: Problem | null = null;
-    if (error instanceof RequestValidationError) {
+    if (error instanceof BodyRefused) {
+      body = problem(400, error.kind === 'invalid-json' ? problemTypes.invalidJson : problemTypes.invalidRequest,
+        error.kind === 'invalid-json' ? 'Body is not JSON' : 'The request holds a value that is refused',
+        error.path === null ? error.message : `${error.path || '(root)'}: ${error.message}`,
+        error.path === null ? {} : { errors: [{ path: error.path, message: error.message, code: error.kind }] });
+    } else if (error instanceof RequestValidationError) {
       body = problem(400, problemTypes.invalidRequest, 'The request does not match the schema', error.summary(), {
         errors: error.issues.map((i) => ({ path: toPointer(i.path), message: i.message, code: i.code })),
       });

@@ -2,6 +2,7 @@
 // (api.md "Errors", fixed form) with a field path, and never a 5xx or a stack.
 import t, { type Test } from 'tap';
 import { buildTestApp } from '../helper.ts';
+import { requestDigest } from '../../src/audit/chain.ts';
 
 const columns = {
   shrinkage: [6.1, 6.5, 7.2, 7.0, 7.9, 8.4, 8.1, 8.8],
@@ -131,4 +132,53 @@ t.test('when the audit store cannot take the record, the caller gets a 503 and n
   t.notOk('models' in body, 'no result without a record');
   const ready = await app.inject({ method: 'GET', url: '/readyz' });
   t.equal(ready.statusCode, 503, '/readyz turns unready');
+});
+
+t.test('text that cannot be stored as text is refused with its path: a lone surrogate, a NUL', async (t) => {
+  const { app } = await buildTestApp(t);
+  for (const [text, reason] of [['x\\ud800y', /surrogate/], ['nul\\u0000here', /NUL/]] as const) {
+    const raw = JSON.stringify({ ...valid, label: 'placeholder' }).replace('placeholder', text);
+    const res = await app.inject({ method: 'POST', url: '/v1/comparisons', headers: { 'content-type': 'application/json' }, payload: raw });
+    const body = assertProblem(t, res, 400);
+    t.equal(body.errors[0].path, 'label');
+    t.match(body.errors[0].message, reason);
+  }
+});
+
+t.test('__proto__ is refused as an unsafe key, by name, not as broken JSON', async (t) => {
+  const { app } = await buildTestApp(t);
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', headers: { 'content-type': 'application/json' }, payload: '{"data": {"columns": {"__proto__": [1, 2]}}}' });
+  const body = assertProblem(t, res, 400);
+  t.equal(body.errors[0].path, 'data/columns/__proto__');
+  t.equal(body.errors[0].code, 'unsafe-key');
+});
+
+t.test('text/plain is an unsupported media type (415), like any other non-JSON body', async (t) => {
+  const { app } = await buildTestApp(t);
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', headers: { 'content-type': 'text/plain' }, payload: JSON.stringify(valid) });
+  assertProblem(t, res, 415);
+});
+
+t.test('the audit record keeps and digests the body exactly as sent, before schema defaults', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: valid });
+  const record = await store.get(res.json().id);
+  t.same(record!.request, valid, 'no defaults filled in');
+  t.equal(record!.requestDigest, requestDigest(valid), 'SHA-256 of the canonical JSON of what was sent');
+});
+
+t.test('data at the edge of double precision never give a 5xx, and a refusal leaves no record', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  const huge = { ...valid, data: { columns: { ...columns, shrinkage: columns.shrinkage.map((v) => v * 1e160) } } };
+  const tiny = { ...valid, data: { columns: { ...columns, w: columns.peakTemp.map((_, i) => (i % 2 ? 1e-308 : 1e308)) } }, weights: 'w' };
+  for (const [what, payload] of [['response near 1e160', huge], ['weights spanning 1e-308..1e308', tiny]] as const) {
+    const before = (await store.list({ limit: 100 })).records.length;
+    const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload });
+    t.ok(res.statusCode === 200 || res.statusCode === 422, `${what}: ${res.statusCode} ${res.body.slice(0, 200)}`);
+    const after = (await store.list({ limit: 100 })).records.length;
+    if (res.statusCode === 200) {
+      t.equal(after, before + 1, `${what}: recorded`);
+      t.notMatch(res.body, /NaN|Infinity/);
+    } else t.equal(after, before, `${what}: refused, nothing recorded`);
+  }
 });

@@ -11,6 +11,7 @@ import { ProblemSchema } from '../schemas/problem.ts';
 import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { computeComparison } from '../comparison-input.ts';
 import { appendOr503, keptRequest } from '../audit-append.ts';
+import { representableResult } from '../representable.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
 export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config; policy: ActivePolicy }> = async (app, { store, config, policy }) => {
@@ -27,7 +28,10 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
     if ('issues' in outcome) {
       return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
     }
-    const result = outcome.result;
+    const envelope = { id: '', createdAt: '', serviceVersion };
+    const checked = representableResult(ComparisonResult, outcome.result, envelope);
+    if ('problem' in checked) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(checked.problem);
+    const result = checked.result;
     const record = await appendOr503(store, reply, {
       kind: 'comparison',
       caller: request.caller,
@@ -36,8 +40,8 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
       conventionsVersion: result.conventions.version,
       policy: result.policy,
       datasetFingerprint: result.dataset.fingerprint,
-      requestDigest: requestDigest(body),
-      request: keptRequest(config, body),
+      requestDigest: requestDigest(request.sentBody),
+      request: keptRequest(config, request.sentBody),
       result: result as unknown as Record<string, unknown>,
     });
     if (!record) return reply;

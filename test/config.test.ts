@@ -1,0 +1,32 @@
+// Configuration is read once and strictly: an empty or mistyped setting fails
+// at start with the variable named, instead of running with a silent value.
+import t from 'tap';
+import { loadConfig, ConfigError } from '../src/config.ts';
+
+const refused = (env: Record<string, string>) => {
+  try {
+    loadConfig(env);
+    return null;
+  } catch (error) {
+    return error instanceof ConfigError ? error.message : String(error);
+  }
+};
+
+t.test('defaults are those of the README configuration table', async (t) => {
+  const c = loadConfig({});
+  t.match(c, { port: 8080, host: '127.0.0.1', auditDb: './data/audit.sqlite', auditRequests: 'full', logLevel: 'info', bodyLimitBytes: 33554432, maxWorkCells: 60000000, rateLimitPerMinute: 600, requestTimeoutMs: 60000, eventLoopMaxDelayMs: 1000, shutdownGraceMs: 20000 });
+});
+
+t.test('numbers are decimal digits: empty, hexadecimal and exponent forms are refused by name', async (t) => {
+  t.match(refused({ PORT: '' }), /PORT/);
+  t.match(refused({ PORT: '0x1F90' }), /PORT/);
+  t.match(refused({ SHUTDOWN_GRACE_MS: '1e3' }), /SHUTDOWN_GRACE_MS/);
+  t.match(refused({ EVENT_LOOP_MAX_DELAY_MS: '' }), /EVENT_LOOP_MAX_DELAY_MS/);
+  t.equal(refused({ PORT: '9090' }), null);
+});
+
+t.test('AUDIT_DB is a file path or a postgres:// URL; another scheme is a typo', async (t) => {
+  t.match(refused({ AUDIT_DB: 'postgress://db.internal/audit' }), /AUDIT_DB/);
+  t.equal(refused({ AUDIT_DB: 'postgresql://u@h/d' }), null);
+  t.equal(refused({ AUDIT_DB: '/var/lib/parsimetry/audit.sqlite' }), null);
+});
