@@ -52,13 +52,27 @@ export class GroupCommit {
       const stored = await this.commit(batch.map((w) => w.record));
       batch.forEach((w, i) => w.resolve(stored[i]));
     } catch (err) {
-      // The whole transaction rolled back: none of these records exists.
-      for (const w of batch) w.reject(err);
+      // The whole transaction rolled back: none of these records exists. One
+      // record the database refuses must not take its neighbours down with it,
+      // so a failed batch is retried one record at a time.
+      if (batch.length === 1) batch[0].reject(err);
+      else await this.oneByOne(batch);
     } finally {
       this.busy = false;
     }
     if (this.waiting.length > 0) this.schedule();
     else this.settleIdle();
+  }
+
+  private async oneByOne(batch: Waiting[]): Promise<void> {
+    for (const w of batch) {
+      try {
+        const [stored] = await this.commit([w.record]);
+        w.resolve(stored);
+      } catch (err) {
+        w.reject(err);
+      }
+    }
   }
 
   private settleIdle(): void {
