@@ -81,3 +81,13 @@ t.test('malformed lines are 400s naming the line; too long a body is a 413', asy
   t.equal((await post('text/csv', 'a,b\n,1\n')).statusCode, 422, 'no complete rows');
   t.equal((await post('text/csv', 'a,b\n1,2\n', 'columns=a,a')).statusCode, 400, 'a column listed twice');
 });
+
+t.test('CSV numbers are decimal notation only, and sums beyond double precision are a 422, not a 500', async (t) => {
+  const { app } = await buildTestApp(t);
+  const hex = await app.inject({ method: 'POST', url: '/v1/summaries?columns=a,b', headers: { 'content-type': 'text/csv' }, payload: 'a,b\n1,2\n0x10,3\n' });
+  t.equal(hex.statusCode, 400);
+  t.match(hex.json().detail, /0x10/);
+  const huge = await app.inject({ method: 'POST', url: '/v1/summaries?columns=a,b', headers: { 'content-type': 'text/csv' }, payload: 'a,b\n1e300,1\n-1e300,2\n3,4\n' });
+  t.equal(huge.statusCode, 422, huge.body.slice(0, 200));
+  t.match(huge.json().errors[0], { path: 'columns/a', code: 'summary_not_representable' });
+});

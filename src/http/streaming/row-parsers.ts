@@ -5,6 +5,8 @@
 // the row (common rows); anything else not a number is a malformed line.
 import { RowError } from './row-error.ts';
 
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
 /** Fills `out` (one slot per listed column, then the weight) and returns true, or false for a row with a missing value. */
 export type RowReader = (line: string, lineNumber: number, out: Float64Array) => boolean;
 
@@ -87,7 +89,8 @@ export function csvReader(header: string, columns: readonly string[]): RowReader
         complete = false;
         continue;
       }
-      const v = Number(text);
+      // Decimal notation only: Number() would also read 0x10, 0b101 and 0o7.
+      const v = DECIMAL.test(text.trim()) ? Number(text) : NaN;
       if (!Number.isFinite(v)) throw new RowError(lineNumber, `${JSON.stringify(columns[j])} is ${JSON.stringify(text.slice(0, 40))}, not a finite number`);
       out[j] = v;
     }

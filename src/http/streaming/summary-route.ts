@@ -45,6 +45,12 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number }> =
         return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(problem(422, problemTypes.cannotCompute, 'The request is well-formed but cannot be computed',
           `no complete rows: ${folded.rowsRead} rows read, ${folded.rowsDropped} with a missing value`, { errors: [{ path: '', message: 'no complete rows to summarise', code: 'summary_rows_invalid' }] }));
       }
+      const overflow = firstNonFinite(folded.summary);
+      if (overflow) {
+        return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(problem(422, problemTypes.cannotCompute, 'The summary cannot be represented',
+          `the sums of column ${JSON.stringify(overflow)} overflow 64-bit floating point; rescale that column and send again`,
+          { errors: [{ path: `columns/${overflow}`, message: 'sums beyond double precision', code: 'summary_not_representable' }] }));
+      }
       return reply.code(200).send({ summary: folded.summary, rowsRead: folded.rowsRead, rowsDropped: folded.rowsDropped, bytes: folded.bytes });
     } catch (error) {
       if (error instanceof RowError) {
@@ -59,3 +65,11 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number }> =
     }
   });
 };
+
+/** The first column whose mean or cross products are not finite, or null. */
+function firstNonFinite(summary: { columns: string[]; means: number[]; centredCrossProducts: number[][] }): string | null {
+  for (let j = 0; j < summary.columns.length; j++) {
+    if (!Number.isFinite(summary.means[j]) || summary.centredCrossProducts[j].some((v) => !Number.isFinite(v))) return summary.columns[j];
+  }
+  return null;
+}
