@@ -8,6 +8,10 @@ export async function registerBrowserPolicy(app: FastifyInstance, origins: Reado
   await app.register(helmet, {
     // A dashboard on another port of the same site may embed chart.svg.
     crossOriginResourcePolicy: { policy: 'same-site' },
+    // helmet's default policy, without upgrade-insecure-requests: behind no TLS
+    // (a loopback or lab deployment on plain HTTP) it would send /docs' own
+    // assets to https and break the page. TLS, where used, is the proxy's job.
+    contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } },
   });
   const allowed = new Set(origins);
   await app.register(cors, {
