@@ -19,6 +19,35 @@ export interface FingerprintInput {
   rows: readonly number[];
 }
 
+// The HTTP body parser refuses lone UTF-16 surrogates (src/http/json-body.ts),
+// but the core does not rely on its callers: Buffer.from(text, 'utf8') would
+// turn a lone surrogate into U+FFFD, so "\uD800" and "\uFFFD" would hash alike.
+// Text is encoded as WTF-8 (S. Sapin, "The WTF-8 encoding"): UTF-8 for every
+// well-formed string, byte for byte, so no published fingerprint changes, and
+// a lone surrogate as the three bytes of its code point — bytes ED A0..BF xx
+// that UTF-8 never produces, so the encoding stays one-to-one.
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+export function textBytes(text: string): Buffer {
+  if (!LONE_SURROGATE.test(text)) return Buffer.from(text, 'utf8');
+  const parts: Buffer[] = [];
+  let start = 0;
+  for (let i = 0; i < text.length; i++) {
+    const unit = text.charCodeAt(i);
+    if (unit < 0xd800 || unit > 0xdfff) continue;
+    const next = i + 1 < text.length ? text.charCodeAt(i + 1) : 0;
+    if (unit <= 0xdbff && next >= 0xdc00 && next <= 0xdfff) {
+      i++; // a pair: UTF-8 below
+      continue;
+    }
+    parts.push(Buffer.from(text.slice(start, i), 'utf8'));
+    parts.push(Buffer.from([0xe0 | (unit >> 12), 0x80 | ((unit >> 6) & 0x3f), 0x80 | (unit & 0x3f)]));
+    start = i + 1;
+  }
+  parts.push(Buffer.from(text.slice(start), 'utf8'));
+  return Buffer.concat(parts);
+}
+
 function u32(n: number): Buffer {
   const b = Buffer.alloc(4);
   b.writeUInt32BE(n);
@@ -26,7 +55,7 @@ function u32(n: number): Buffer {
 }
 
 function columnBytes(role: 'R' | 'W' | 'X', name: string, values: ReadonlyArray<number | string | null>, rows: readonly number[]): Buffer[] {
-  const nameBytes = Buffer.from(name, 'utf8');
+  const nameBytes = textBytes(name);
   const numeric = rows.every((r) => typeof values[r] === 'number');
   const parts: Buffer[] = [Buffer.from(role, 'ascii'), u32(nameBytes.length), nameBytes, Buffer.from(numeric ? 'n' : 't', 'ascii')];
   if (numeric) {
@@ -39,7 +68,7 @@ function columnBytes(role: 'R' | 'W' | 'X', name: string, values: ReadonlyArray<
     parts.push(block);
   } else {
     for (const r of rows) {
-      const text = Buffer.from(String(values[r]), 'utf8');
+      const text = textBytes(String(values[r]));
       parts.push(u32(text.length), text);
     }
   }

@@ -59,6 +59,10 @@ export interface IssueFacts {
   /** A term or candidate form that needs the rows, sent with a data summary. */
   summary_rows_needed: { form: string; reason: string };
   search_over_budget: { budget: string; limit: number; required: number; poolTerms: number };
+  /** A search term whose design columns depend on which other pool terms are in the subset (a factor declaration elsewhere in the pool). */
+  search_coding_varies: { label: string; column: string; declaredBy: string };
+  /** With hierarchy, an always term needs a lower-order term that is not in always. */
+  hierarchy_always_incomplete: { label: string; needs: string; inPool: boolean };
   nested_test_invalid: { reason: string };
 }
 
@@ -118,7 +122,7 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   design_value_not_finite: (f, at) =>
     `${at} gives design column ${JSON.stringify(f.label)} a value at row ${f.row} too large for a double.`,
   duplicate_term: (f, at) =>
-    `${at} produces design column ${JSON.stringify(f.label)}, which term ${f.first} of the same candidate already produces.`,
+    `${at} produces design column ${JSON.stringify(f.label)}, which term ${f.first} of the same candidate already produces (the order of a product's columns does not matter).`,
   all_rows_dropped: (f, at) =>
     `${at}: every one of the ${f.rows} rows has a missing value in a column some candidate uses, so no rows are left.`,
   too_few_rows: (f, at) =>
@@ -160,6 +164,12 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   summary_weighting_differs: (f, at) => `${at}: one summary is weighted (${f.firstWeighted}/${f.secondWeighted}) and the other is not; they cannot be merged.`,
   summary_column_unknown: (f, at) => `${at} lists no column ${JSON.stringify(f.column)}; with a data summary only its listed columns can be used.`,
   summary_rows_needed: (f, at) => `${at} (${f.form}) cannot be computed from a data summary: ${f.reason}. Send data.columns instead.`,
+  search_coding_varies: (f, at) =>
+    `${at} (${f.label}) is coded one way in subsets that hold ${f.declaredBy} and another way in subsets that do not, because ${f.declaredBy} declares column ${JSON.stringify(f.column)} a factor (or sets its reference level) for every term of a model; a search scores each term one way, so it cannot rank both. Put ${f.declaredBy} in always, so every subset codes ${JSON.stringify(f.column)} alike, or take it out of the pool.`,
+  hierarchy_always_incomplete: (f, at) =>
+    f.inPool
+      ? `${at} (${f.label}) is in every model, and under the hierarchy rule it needs ${f.needs}, which is in the pool and so missing from some subsets; move ${f.needs} to always, or set hierarchy to false.`
+      : `${at} (${f.label}) is in every model, and under the hierarchy rule it needs ${f.needs}, which is in neither the pool nor always, so no subset is admissible; add ${f.needs} to always, or set hierarchy to false.`,
   search_over_budget: (f, at) =>
     `${at}: the search is beyond its compute budget ${f.budget} = ${f.limit} (this pool of ${f.poolTerms} terms needs ${f.required}); narrow the pool or move terms to always.`,
 };

@@ -20,7 +20,12 @@ export const UNIT_LEVERAGE_TOLERANCE = 1e-9;
 export interface LeaveOneOutError {
   /** sum_i w_i (e_i / (1 - h_ii))^2; null when some row has leverage 1. */
   press: number | null;
-  /** sqrt(press / n): the weighted root-mean-square leave-one-out error, in units of the response. */
+  /**
+   * sqrt(press / sum w): the weighted root-mean-square leave-one-out error,
+   * in units of the response. Dividing by the weight total rather than n
+   * makes it unchanged when relative weights are all scaled by one factor
+   * (press scales with them); without weights sum w = n.
+   */
   looRmse: number | null;
   /** h_ii per row. */
   leverages: Float64Array;
@@ -54,6 +59,8 @@ export function leaveOneOutError(
   const h = geometry.leverages;
   const unitLeverageRows: number[] = [];
   let press = 0;
+  let weightTotal = 0;
+  for (let i = 0; i < design.rows; i++) weightTotal += weightAt(weights, i);
   for (let i = 0; i < design.rows; i++) {
     const complement = 1 - h[i];
     if (complement < UNIT_LEVERAGE_TOLERANCE) {
@@ -69,7 +76,13 @@ export function leaveOneOutError(
       reason: `${unitLeverageRows.length} row(s) have leverage 1: the model passes through them exactly, so leaving one out cannot be predicted from the rest and the leave-one-out error is undefined.`,
     };
   }
-  return { press, looRmse: Math.sqrt(press / design.rows), leverages: h, unitLeverageRows, reason: null };
+  if (!Number.isFinite(press)) {
+    return {
+      press: null, looRmse: null, leverages: h, unitLeverageRows,
+      reason: 'The leave-one-out residuals are too large to square in double precision, so the leave-one-out error is undefined; rescale the response.',
+    };
+  }
+  return { press, looRmse: Math.sqrt(press / weightTotal), leverages: h, unitLeverageRows, reason: null };
 }
 
 /**

@@ -25,6 +25,14 @@ export interface DesignMatrix {
   rows: number;
   /** One readable label per column, e.g. "(intercept)", "peakTemp^2", "kiln[west]". */
   labels: string[];
+  /**
+   * One identity per column, built from the structured term (see
+   * design/column-identity.ts): equal keys are the same column formed the
+   * same way, factor reference included. Labels can collide (a data column
+   * named "x^2"); keys cannot. Set by buildDesign; nested tests and model
+   * averaging need it and treat a design without keys as matching nothing.
+   */
+  keys?: string[];
   high: Float64Array[];
   low: Float64Array[];
   intercept: boolean;

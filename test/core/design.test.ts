@@ -192,3 +192,35 @@ t.test('termLabel describes terms in the request form', async (t) => {
   t.equal(termLabel({ kind: 'transform', of: 'x', fn: 'reciprocal' }), '1/x');
   t.equal(termLabel({ kind: 'factor', of: 'kiln', reference: 'west' }), 'factor(kiln, reference=west)');
 });
+
+t.test('column keys: identity from the structured term, never from the label', async (t) => {
+  // A data column literally named "peakTemp^2" shares the label of the power
+  // term but is a different column; its key says so.
+  const data: Columns = { ...table, 'peakTemp^2': [1, 2, 3, 4, 5, 6], '(intercept)': [1, 1, 1, 1, 1, 1] };
+  const build = (terms: Term[], intercept = true, rows = [0, 1, 2, 3, 5]) => {
+    const r = buildDesign(data, terms, intercept, rows);
+    if (!('design' in r)) throw new Error(JSON.stringify(r.issues));
+    return r.design;
+  };
+  const raw = build(['peakTemp^2']);
+  const power = build([{ kind: 'power', of: 'peakTemp', degree: 2 }]);
+  t.same(raw.labels, power.labels);
+  t.not(raw.keys![1], power.keys![1]);
+  t.not(build(['(intercept)'], false).keys![0], power.keys![0]);
+  // One label, two codings: the dummy's key carries the reference.
+  const all = [0, 1, 2, 3, 4, 5]; // row 4 holds the only "satin"
+  const east = build([{ kind: 'factor', of: 'glaze', reference: 'gloss' }], true, all);
+  const satin = build([{ kind: 'factor', of: 'glaze', reference: 'satin' }], true, all);
+  const eastMatte = east.keys![east.labels.indexOf('glaze[matte]')];
+  const satinMatte = satin.keys![satin.labels.indexOf('glaze[matte]')];
+  t.not(eastMatte, satinMatte);
+  t.same(JSON.parse(eastMatte), ['level', 'glaze', 'matte', 'gloss']);
+  // a:b and b:a are one column: same key, so one candidate may not hold both.
+  const ab = build([{ kind: 'product', of: ['peakTemp', 'holdMinutes'] }]);
+  const ba = build([{ kind: 'product', of: ['holdMinutes', 'peakTemp'] }]);
+  t.equal(ab.keys![1], ba.keys![1]);
+  t.match(issuesOf([{ kind: 'product', of: ['peakTemp', 'holdMinutes'] }, { kind: 'product', of: ['holdMinutes', 'peakTemp'] }]),
+    [{ code: 'duplicate_term', first: 0 }]);
+  // Every design from buildDesign carries one key per column.
+  t.equal(ab.keys!.length, ab.labels.length);
+});

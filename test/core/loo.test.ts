@@ -44,7 +44,9 @@ t.test('PRESS from the hat matrix equals brute-force leave-one-out refits', asyn
     const reference = bruteForcePress(c.design, c.y, c.w);
     const relative = Math.abs(loo.press! - reference) / reference;
     t.ok(relative < 1e-9, `${solver}, ${c.name}: press ${loo.press} vs refits ${reference} (relative ${relative.toExponential(2)})`);
-    t.ok(Math.abs(loo.looRmse! - Math.sqrt(reference / c.design.rows)) / loo.looRmse! < 1e-9);
+    // looRmse = sqrt(press / sum w); sum w = n without weights.
+    const weightTotal = c.w ? c.w.reduce((a, b) => a + b, 0) : c.design.rows;
+    t.ok(Math.abs(loo.looRmse! - Math.sqrt(reference / weightTotal)) / loo.looRmse! < 1e-9);
     // Leverages sum to the rank (trace of the hat matrix; common practice).
     const trace = leverages(fit, c.design, c.w).reduce((a, b) => a + b, 0);
     t.ok(Math.abs(trace - fit.rank) < 1e-9, `${c.name}: trace ${trace} vs rank ${fit.rank}`);
@@ -67,4 +69,16 @@ t.test('rankings.loo orders by looRmse, smaller first, without weights', async (
     { name: 'b', looRmse: 2 }, { name: 'a', looRmse: 1 }, { name: 'external', looRmse: null },
   ]);
   t.same(ranking.map((r) => [r.name, r.rank, r.delta, r.weight]), [['a', 1, 0, null], ['b', 2, 1, null], ['external', null, null, null]]);
+});
+
+t.test('looRmse is in units of the response: unchanged when relative weights are rescaled', async (t) => {
+  // Relative weights carry no unit: w and 10 w give the same fit and
+  // leverages, press scales by 10, and sqrt(press / sum w) does not move.
+  const c = cases[3];
+  const fit = referenceFit(c.design, c.y, c.w);
+  const scaled = c.w!.map((w) => 10 * w);
+  const a = leaveOneOutError(fit, c.design, c.w);
+  const b = leaveOneOutError(referenceFit(c.design, c.y, scaled), c.design, scaled);
+  t.ok(Math.abs(b.press! / a.press! - 10) < 1e-9);
+  t.ok(Math.abs(b.looRmse! - a.looRmse!) / a.looRmse! < 1e-12, `${a.looRmse} vs ${b.looRmse}`);
 });

@@ -126,3 +126,34 @@ t.test('Accept: text/event-stream streams progress and ends with the recorded re
   const bad = await app.inject({ method: 'POST', url: '/v1/searches', headers: { accept: 'text/event-stream' }, payload: { data: { columns: demoColumns() }, response: 'nope', pool: ['peakTemp'] } });
   t.equal(bad.statusCode, 422, 'a search that cannot start is answered with its status, not a stream');
 });
+
+t.test('what a search passed over is in the response, and requests it cannot score honestly are refused', async (t) => {
+  const { app } = await buildTestApp(t);
+  const d = demoColumns();
+  const rows = d.peakTemp.map((_, i) => i).filter((i) => d.moisture[i] !== null && d.shrinkage[i] !== null);
+  const peakTemp = rows.map((i) => d.peakTemp[i] as number);
+  const moisture = rows.map((i) => d.moisture[i] as number);
+  const holdMinutes = rows.map((i) => d.holdMinutes[i] as number);
+  // total = peakTemp + moisture: three subsets repeat {peakTemp, moisture}; y computed from peakTemp and holdMinutes fits exactly.
+  const total = peakTemp.map((x, i) => x + moisture[i]);
+  const exact = peakTemp.map((x, i) => 0.013 * x - 0.7 + 0.021 * holdMinutes[i]);
+  const shrinkage = rows.map((i) => d.shrinkage[i] as number);
+  const res = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: { shrinkage, peakTemp, moisture, total } }, response: 'shrinkage', pool: ['peakTemp', 'moisture', 'total'] } });
+  t.equal(res.statusCode, 200, res.body.slice(0, 300));
+  const body = res.json();
+  t.same(body.passedOver, { notHierarchical: 0, unscorable: 0, pruned: 0, rankDeficient: 1, sameColumnSpace: 2, exactFit: 0 });
+  t.equal(body.evaluated, 5, 'five distinct models');
+  t.match(body.conventions.rank, /sweeping cross products/, 'the rank rule names the sweep that screened the subsets');
+  const fits = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: { y: exact, peakTemp, holdMinutes, moisture } }, response: 'y', pool: ['peakTemp', 'holdMinutes', 'moisture'] } });
+  t.equal(fits.statusCode, 200, fits.body.slice(0, 300));
+  t.equal(fits.json().passedOver.exactFit, 2);
+  t.ok(fits.json().models.every((m: { aicc: number | null; weight: number }) => m.aicc !== null && Number.isFinite(m.weight)), 'no listed model without a criterion');
+  t.ok(fits.json().cautions.some((c: { code: string }) => c.code === 'exact_fit_subsets'));
+  const g = rows.map((_, i) => 1 + (i % 3));
+  const coding = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: { shrinkage, g, moisture } }, response: 'shrinkage', pool: [{ kind: 'factor', of: 'g' }, { kind: 'product', of: ['g', 'moisture'] }] } });
+  t.equal(coding.statusCode, 422);
+  t.same(coding.json().errors.map((e: { code: string; path: string }) => [e.code, e.path]), [['search_coding_varies', 'pool/1']]);
+  const hierarchy = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: { shrinkage, peakTemp, moisture } }, response: 'shrinkage', pool: ['peakTemp', 'moisture'], always: [{ kind: 'power', of: 'peakTemp', degree: 2 }], hierarchy: true } });
+  t.equal(hierarchy.statusCode, 422);
+  t.equal(hierarchy.json().errors[0].code, 'hierarchy_always_incomplete');
+});

@@ -10,6 +10,12 @@
 // - over the models containing the term: weights renormalised over those
 //   models only; it answers "how large is the effect, given it is present".
 // importance = summed (normalised) weight of the models containing the term.
+// A "term" here is one design column identity (its key, factor reference
+// included), not a label: kiln[west] against east and kiln[west] against
+// north are different coefficients and are never pooled. When models code
+// one label differently, each coding is reported as its own term, labelled
+// "kiln[west] (reference east)", and a note names the models — rather than
+// dropping the term, since each coding's average is meaningful on its own.
 // A coefficient that a model has but could not estimate (aliased) counts as
 // absent: the fit set it to zero, which is what the full average uses anyway.
 import { averageWithUnconditionalSe, ESTIMATOR_DESCRIPTION, type UnconditionalSeEstimator } from './unconditional-se.ts';
@@ -18,8 +24,12 @@ import type { StatisticsIssue } from '../inference/issue.ts';
 export interface AveragingInput {
   name: string;
   weight: number;
-  /** Estimable coefficients by term (design column) label. */
-  coefficients: ReadonlyArray<{ term: string; estimate: number | null; standardError: number | null }>;
+  /**
+   * Coefficients by design column: `term` is the label, `key` its identity
+   * (defaults to the label) and `qualifier` the words that tell it from
+   * another column with the same label (e.g. "reference east").
+   */
+  coefficients: ReadonlyArray<{ term: string; key?: string; qualifier?: string; estimate: number | null; standardError: number | null }>;
   /** Per prediction row, when predictions were requested. */
   predictions?: ReadonlyArray<{ estimate: number | null; standardError: number | null }>;
 }
@@ -77,18 +87,24 @@ export function averageModels(
   }
   const order: string[] = [];
   const present = new Map<string, Map<number, { estimate: number; standardError: number | null }>>();
+  const seen = new Map<string, { label: string; qualifier: string; models: string[] }>();
   models.forEach((m, index) => {
     for (const c of m.coefficients) {
+      const key = c.key ?? c.term;
+      if (!seen.has(key)) seen.set(key, { label: c.term, qualifier: c.qualifier ?? key, models: [] });
+      seen.get(key)!.models.push(m.name);
       if (c.estimate === null) continue;
-      if (!present.has(c.term)) {
-        present.set(c.term, new Map());
-        order.push(c.term);
+      if (!present.has(key)) {
+        present.set(key, new Map());
+        order.push(key);
       }
-      present.get(c.term)!.set(index, { estimate: c.estimate, standardError: c.standardError });
+      present.get(key)!.set(index, { estimate: c.estimate, standardError: c.standardError });
     }
   });
-  for (const term of order) {
-    const byModel = present.get(term)!;
+  const termNames = distinctTermNames(seen, issues);
+  for (const key of order) {
+    const term = termNames.get(key)!;
+    const byModel = present.get(key)!;
     const full = models.map((m, index) => {
       const c = byModel.get(index);
       return { weight: m.weight, estimate: c ? c.estimate : 0, standardError: c ? c.standardError : 0 };
@@ -109,6 +125,46 @@ export function averageModels(
   }
   result.predictions = averagePredictions(models, estimator, issues);
   return result;
+}
+
+/**
+ * The reported name of each column identity: its label, or, when several
+ * identities share that label, "label (qualifier)" — with a note naming the
+ * models behind each coding.
+ */
+function distinctTermNames(
+  seen: ReadonlyMap<string, { label: string; qualifier: string; models: string[] }>,
+  issues: StatisticsIssue[],
+): Map<string, string> {
+  const byLabel = new Map<string, string[]>();
+  for (const [key, s] of seen) byLabel.set(s.label, [...(byLabel.get(s.label) ?? []), key]);
+  const names = new Map<string, string>();
+  const taken = new Set<string>();
+  for (const [label, keys] of byLabel) {
+    if (keys.length === 1) {
+      names.set(keys[0], label);
+      taken.add(label);
+    }
+  }
+  for (const [label, keys] of byLabel) {
+    if (keys.length === 1) continue;
+    const codings: string[] = [];
+    for (const key of keys) {
+      const s = seen.get(key)!;
+      let name = `${label} (${s.qualifier})`;
+      // Two columns alike in label and qualifier: number them so none is lost.
+      for (let k = 2; taken.has(name); k++) name = `${label} (${s.qualifier}) #${k}`;
+      taken.add(name);
+      names.set(key, name);
+      codings.push(`${s.models.map((m) => JSON.stringify(m)).join(', ')}: ${name}`);
+    }
+    issues.push({
+      code: 'averaging-term-coded-differently',
+      message: `The column labelled ${JSON.stringify(label)} means different things in different models (${codings.join('; ')}), so each version is averaged on its own and never pooled.`,
+      facts: { label, codings: keys.length },
+    });
+  }
+  return names;
 }
 
 function averagePredictions(

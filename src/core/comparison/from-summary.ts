@@ -19,7 +19,7 @@ import {
 } from '../summary/index.ts';
 import type { CandidateInput, ComparisonOutcome } from './compare.ts';
 import { comparisonCautions, type Caution } from './cautions.ts';
-import { conventions } from './conventions.ts';
+import { conventions, SWEEP_RANK_RULE } from './conventions.ts';
 import { estimationIssues } from './estimation-rules.ts';
 import { scoreExternalCandidate, type ScoringContext } from './external-model.ts';
 import type { ModelResult } from './fitted-model.ts';
@@ -99,7 +99,8 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
   cautions.splice(1, 0, SUMMARY_INPUT_CAUTION);
   return {
     result: {
-      conventions: conventions(choice, confidenceLevel),
+      // Every fitted candidate here was solved by sweeping the summary's cross products.
+      conventions: conventions(choice, confidenceLevel, SWEEP_RANK_RULE),
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: summary.rows, rowsDropped: 0, response: input.response, weights: summary.weights ? '(summary)' : null },
       models,

@@ -9,9 +9,11 @@ import { ddLog, ddMul, ddPowInt, ddReciprocal, ddSqrt } from '../numeric/double-
 import { columnKind } from './columns.ts';
 import { factorCoding } from './factor-coding.ts';
 import { INTERCEPT_LABEL, powerLabel, productLabel, transformLabel } from './labels.ts';
+import { columnKey, INTERCEPT_IDENTITY, productIdentity, type ColumnIdentity } from './column-identity.ts';
 
 interface Piece {
   label: string;
+  identity: ColumnIdentity;
   high: Float64Array;
   low: Float64Array;
 }
@@ -61,21 +63,22 @@ function numericValues(ctx: Context, name: string, path: IssuePath, form: 'power
   return { values: out };
 }
 
-function exactPiece(label: string, values: Float64Array): Piece {
-  return { label, high: values, low: new Float64Array(values.length) };
+function exactPiece(label: string, identity: ColumnIdentity, values: Float64Array): Piece {
+  return { label, identity, high: values, low: new Float64Array(values.length) };
 }
 
 function factorPieces(ctx: Context, name: string, path: IssuePath): Pieces {
   const result = factorCoding(name, ctx.columns[name], ctx.rows, ctx.factors.get(name), path);
   if ('issue' in result) return result;
-  return { pieces: result.coding.dummies.map((d) => exactPiece(d.label, d.values)) };
+  const { reference } = result.coding;
+  return { pieces: result.coding.dummies.map((d) => exactPiece(d.label, ['level', name, d.level, reference], d.values)) };
 }
 
 function columnPieces(ctx: Context, name: string, path: IssuePath): Pieces {
   if (!hasColumn(ctx.columns, name)) return { issue: issue('unknown_column', path, { column: String(name) }) };
   if (columnKind(ctx.columns[name]) === 'categorical') return factorPieces(ctx, name, path);
   const r = numericValues(ctx, name, path, null);
-  return 'issue' in r ? r : { pieces: [exactPiece(name, r.values)] };
+  return 'issue' in r ? r : { pieces: [exactPiece(name, ['column', name], r.values)] };
 }
 
 function powerPieces(ctx: Context, of: string, degree: number, path: IssuePath): Pieces {
@@ -88,7 +91,7 @@ function powerPieces(ctx: Context, of: string, degree: number, path: IssuePath):
   const high = new Float64Array(r.values.length);
   const low = new Float64Array(r.values.length);
   r.values.forEach((x, i) => ([high[i], low[i]] = ddPowInt(x, degree)));
-  return { pieces: [{ label: powerLabel(of, degree), high, low }] };
+  return { pieces: [{ label: powerLabel(of, degree), identity: ['power', of, degree], high, low }] };
 }
 
 function transformPieces(ctx: Context, of: string, fn: keyof typeof TRANSFORMS, path: IssuePath): Pieces {
@@ -106,7 +109,7 @@ function transformPieces(ctx: Context, of: string, fn: keyof typeof TRANSFORMS, 
     }
     [high[i], low[i]] = rule.dd(x);
   }
-  return { pieces: [{ label: transformLabel(fn, of), high, low }] };
+  return { pieces: [{ label: transformLabel(fn, of), identity: ['transform', fn, of], high, low }] };
 }
 
 /**
@@ -134,7 +137,7 @@ function productPieces(ctx: Context, of: unknown, path: IssuePath): Pieces {
     if (factor) parts = factorPieces(ctx, name, at);
     else {
       const r = numericValues(ctx, name, at, null);
-      parts = 'issue' in r ? r : { pieces: [exactPiece(name, r.values)] };
+      parts = 'issue' in r ? r : { pieces: [exactPiece(name, ['column', name], r.values)] };
     }
     if ('issue' in parts) return parts;
     if (k === 0) {
@@ -147,7 +150,7 @@ function productPieces(ctx: Context, of: unknown, path: IssuePath): Pieces {
         const high = new Float64Array(a.high.length);
         const low = new Float64Array(a.high.length);
         for (let i = 0; i < high.length; i++) [high[i], low[i]] = ddMul(a.high[i], a.low[i], b.high[i], b.low[i]);
-        next.push({ label: productLabel([a.label, b.label]), high, low });
+        next.push({ label: productLabel([a.label, b.label]), identity: productIdentity(a.identity, b.identity), high, low });
       }
     }
     acc = next;
@@ -211,16 +214,22 @@ export function buildDesign(
   const termsPath = [...at, 'terms'];
   const ctx: Context = { columns, rows, factors: declaredFactors(terms, termsPath, issues) };
   const labels: string[] = [];
+  const keys: string[] = [];
   const high: Float64Array[] = [];
   const low: Float64Array[] = [];
   const termOfColumn: number[] = [];
+  // Two columns are one when they share a label (the response could not tell
+  // their coefficients apart) or a key (a:b and b:a are the same column).
   const firstTermOf = new Map<string, number>();
+  const firstTermOfKey = new Map<string, number>();
   if (intercept) {
     labels.push(INTERCEPT_LABEL);
+    keys.push(columnKey(INTERCEPT_IDENTITY));
     high.push(new Float64Array(rows.length).fill(1));
     low.push(new Float64Array(rows.length));
     termOfColumn.push(-1);
     firstTermOf.set(INTERCEPT_LABEL, -1);
+    firstTermOfKey.set(keys[0], -1);
   }
   terms.forEach((term, j) => {
     const path = [...termsPath, j];
@@ -230,7 +239,8 @@ export function buildDesign(
       return;
     }
     for (const piece of result.pieces) {
-      const first = firstTermOf.get(piece.label);
+      const key = columnKey(piece.identity);
+      const first = firstTermOf.get(piece.label) ?? firstTermOfKey.get(key);
       if (first !== undefined) {
         issues.push(issue('duplicate_term', path, { label: piece.label, first }));
         return;
@@ -241,12 +251,14 @@ export function buildDesign(
         return;
       }
       firstTermOf.set(piece.label, j);
+      firstTermOfKey.set(key, j);
       labels.push(piece.label);
+      keys.push(key);
       high.push(piece.high);
       low.push(piece.low);
       termOfColumn.push(j);
     }
   });
   if (issues.length > 0) return { issues };
-  return { design: { rows: rows.length, labels, high, low, intercept, termOfColumn } };
+  return { design: { rows: rows.length, labels, keys, high, low, intercept, termOfColumn } };
 }

@@ -6,3 +6,4 @@ export { factorCoding, factorLevels, type FactorCoding, type FactorDummy } from 
 export { INTERCEPT_LABEL, termLabel } from './labels.ts';
 export { responseValues, weightValues } from './response.ts';
 export { compareCodePoints } from './code-point-order.ts';
+export { columnKey, columnQualifier, keyReferences, type ColumnIdentity } from './column-identity.ts';

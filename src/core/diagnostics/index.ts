@@ -35,11 +35,16 @@ export function diagnoseFit(
   const leverageThreshold = (T.leverageMultiple * p) / n;
   const multicollinearity = multicollinearityCheck(fit, design, weights, geometry);
 
-  const residualsUsable = fit.sigma !== null && !fit.exactFit && n > p;
+  // Residuals beyond about 1e154 square past the largest double: every moment
+  // and distance would be Infinity or NaN, so the checks are not made.
+  const overflow = !Number.isFinite(fit.rss);
+  const residualsUsable = fit.sigma !== null && !fit.exactFit && n > p && !overflow;
   if (!residualsUsable) {
     const reason = fit.exactFit
       ? 'The model fits the data exactly, so its residuals carry no information about the errors.'
-      : 'The model leaves no residual degrees of freedom, so the residual checks cannot be made.';
+      : overflow
+        ? 'The residuals are too large to square in double precision, so the residual checks cannot be made; rescale the response.'
+        : 'The model leaves no residual degrees of freedom, so the residual checks cannot be made.';
     const partial = {
       available: false,
       reason,
@@ -74,7 +79,11 @@ export function diagnoseFit(
   const partial = {
     available: true,
     reason: null,
-    residualNormality: { test: 'Jarque–Bera' as const, ...jb, alpha: T.alpha, passed: jb.pValue >= T.alpha, note: NORMALITY_NOTE },
+    residualNormality: {
+      test: 'Jarque–Bera' as const, statistic: jb.statistic, df: jb.df, pValue: jb.pValue, skewness: jb.skewness, kurtosis: jb.kurtosis,
+      alpha: T.alpha, passed: jb.pValue === null ? null : jb.pValue >= T.alpha,
+      note: jb.undefinedReason === null ? NORMALITY_NOTE : `${jb.undefinedReason} ${NORMALITY_NOTE}`,
+    },
     heteroscedasticity: {
       test: 'Breusch–Pagan (studentised, Koenker)' as const,
       statistic: bp.df > 0 ? bp.statistic : null, df: bp.df, pValue: bp.pValue, alpha: T.alpha,
@@ -89,7 +98,8 @@ export function diagnoseFit(
     influence: {
       maxCooksDistance: maxCooks, maxCooksDistanceRow: maxCooksRow, cooksDistanceThreshold: T.cooksDistance,
       leverageThreshold, highLeverageRows: highLeverageRowIndices.length, highLeverageRowIndices,
-      passed: (maxCooks === null || maxCooks <= T.cooksDistance) && highLeverageRowIndices.length === 0,
+      // Rank 0: nothing was estimated, so there is no influence to judge (see the multicollinearity note).
+      passed: p === 0 ? null : (maxCooks === null || maxCooks <= T.cooksDistance) && highLeverageRowIndices.length === 0,
     },
   };
   return { ...partial, cautions: diagnosticCautions(partial) };

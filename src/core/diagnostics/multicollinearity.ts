@@ -26,6 +26,10 @@ function isConstant(design: DesignMatrix, j: number): boolean {
   return true;
 }
 
+/** Said once, here, for both checks that need estimated coefficients (the influence check has no note of its own). */
+export const NO_COEFFICIENTS_NOTE =
+  'The model estimates no coefficients, so there are no columns to be collinear and no fitted value a single row could move: the multicollinearity and influence checks do not apply.';
+
 export function multicollinearityCheck(
   fit: LeastSquaresFit,
   design: DesignMatrix,
@@ -47,7 +51,8 @@ export function multicollinearityCheck(
   const unbounded = vifs.some((v, k) => v === null && !isConstant(design, slopeIndices[k]));
   const maxVif = unbounded || finiteVifs.length === 0 ? null : Math.max(...finiteVifs);
   const notes: string[] = [];
-  if (!design.intercept) notes.push('The model has no intercept; the variance inflation factors are computed on centred columns all the same.');
+  if (fit.rank === 0) notes.push(NO_COEFFICIENTS_NOTE);
+  else if (!design.intercept) notes.push('The model has no intercept; the variance inflation factors are computed on centred columns all the same.');
   if (unbounded) notes.push('Once centred, some columns are exactly collinear, so their variance inflation is unbounded.');
   return {
     varianceInflationFactors: slopeIndices.map((j, k) => ({ term: design.labels[j], vif: vifs[k] })),

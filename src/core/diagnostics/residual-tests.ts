@@ -9,9 +9,13 @@ import { auxiliaryRSquared } from './scaled-factor.ts';
  * skewness S and kurtosis K (central moments divided by n), asymptotically
  * chi-square with 2 df under normality. The chi-square reference is a
  * large-sample one; for small n the test rejects too rarely.
+ * When the residuals are all equal (to rounding) the spread m2 is 0,
+ * skewness and kurtosis are 0/0 and the test is undefined: every value is
+ * null and `undefinedReason` says why.
  */
 export function jarqueBera(residuals: ArrayLike<number>): {
-  statistic: number; df: 2; pValue: number; skewness: number; kurtosis: number;
+  statistic: number | null; df: 2; pValue: number | null; skewness: number | null; kurtosis: number | null;
+  undefinedReason: string | null;
 } {
   const n = residuals.length;
   let mean = 0;
@@ -24,10 +28,20 @@ export function jarqueBera(residuals: ArrayLike<number>): {
     m2 += d2; m3 += d2 * d; m4 += d2 * d2;
   }
   m2 /= n; m3 /= n; m4 /= n;
+  let largest = 0;
+  for (let i = 0; i < n; i++) largest = Math.max(largest, Math.abs(residuals[i]));
+  // A spread within a few units in the last place of the residuals is
+  // rounding, not a distribution: its shape would be noise.
+  if (!(Math.sqrt(m2) > 64 * Number.EPSILON * largest)) {
+    return {
+      statistic: null, df: 2, pValue: null, skewness: null, kurtosis: null,
+      undefinedReason: 'All residuals are equal, so they have no spread and no shape: skewness, kurtosis and the Jarque–Bera test are undefined.',
+    };
+  }
   const skewness = m3 / Math.pow(m2, 1.5);
   const kurtosis = m4 / (m2 * m2);
   const statistic = (n / 6) * (skewness * skewness + ((kurtosis - 3) * (kurtosis - 3)) / 4);
-  return { statistic, df: 2, pValue: chiSquareUpperTail(statistic, 2), skewness, kurtosis };
+  return { statistic, df: 2, pValue: chiSquareUpperTail(statistic, 2), skewness, kurtosis, undefinedReason: null };
 }
 
 /**

@@ -6,9 +6,15 @@
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { upperTriangle, type HouseholderQR } from './householder-qr.ts';
 
-/** sigma_max / sigma_min of R; 0 when no column was accepted. */
+/**
+ * sigma_max / sigma_min of R. NaN when no column was accepted (rank 0):
+ * a condition number of an empty matrix is undefined, and NaN keeps the
+ * field's type while every reader maps a non-finite value to null
+ * (results report it as null; the covariance route's "cond > limit" test
+ * is false for NaN, as it should be with nothing to invert).
+ */
 export function conditionFromR(qr: HouseholderQR): number {
-  if (qr.rank === 0) return 0;
+  if (qr.rank === 0) return Number.NaN;
   const svd = new SingularValueDecomposition(new Matrix(upperTriangle(qr)), {
     computeLeftSingularVectors: false,
     computeRightSingularVectors: false,

@@ -1,10 +1,12 @@
 // Tests between nested least-squares candidates: the partial F test and the
 // likelihood-ratio test. Two fitted candidates are nested when every design
-// column label of the smaller one is also a column of the larger one, and
-// both were fitted to the same sample (same response on the same scale, same
-// weights, same rows). Labels name columns built from the same data by the
-// same design builder, so equal labels are equal columns; a subset of
-// labels means the smaller column space lies inside the larger one.
+// column of the smaller one is also a column of the larger one, and both were
+// fitted to the same sample (same response on the same scale, same weights,
+// same rows). Columns are compared by their keys (design/column-identity.ts),
+// never by labels: a data column may be named "x^2" or "(intercept)", and
+// kiln[west] against east is not kiln[west] against north. Equal keys are
+// equal columns, so a subset of keys means the smaller column space lies
+// inside the larger one.
 //
 // Degrees of freedom come from ranks, not column counts, so aliased columns
 // do not inflate them: df = rank(larger) - rank(smaller). df = 0 means both
@@ -15,8 +17,11 @@ import type { StatisticsIssue } from './issue.ts';
 
 export interface NestedCandidate {
   name: string;
-  /** Design column labels, in design order (aliased ones included). */
-  labels: readonly string[];
+  /**
+   * Design column keys (DesignMatrix.keys), in design order, aliased ones
+   * included; null when the design carries none, which nests with nothing.
+   */
+  keys: readonly string[] | null;
   fit: LeastSquaresFit;
   /**
    * Identity of the sample the candidate was fitted to: response and its
@@ -45,9 +50,10 @@ export interface NestedPairRequest {
   larger: string;
 }
 
-function isLabelSubset(small: readonly string[], large: readonly string[]): boolean {
+function isKeySubset(small: readonly string[] | null, large: readonly string[] | null): boolean {
+  if (small === null || large === null) return false;
   const present = new Set(large);
-  return small.every((label) => present.has(label));
+  return small.every((key) => present.has(key));
 }
 
 /** Orientation of a nested pair, or null when the two are not nested (df = 0 included). */
@@ -56,8 +62,8 @@ export function nestingOrder(
   b: NestedCandidate,
 ): { smaller: NestedCandidate; larger: NestedCandidate } | null {
   if (a.sample !== b.sample || a.fit.observations !== b.fit.observations) return null;
-  if (a.fit.rank < b.fit.rank && isLabelSubset(a.labels, b.labels)) return { smaller: a, larger: b };
-  if (b.fit.rank < a.fit.rank && isLabelSubset(b.labels, a.labels)) return { smaller: b, larger: a };
+  if (a.fit.rank < b.fit.rank && isKeySubset(a.keys, b.keys)) return { smaller: a, larger: b };
+  if (b.fit.rank < a.fit.rank && isKeySubset(b.keys, a.keys)) return { smaller: b, larger: a };
   return null;
 }
 
@@ -73,6 +79,12 @@ export function nestedTest(smaller: NestedCandidate, larger: NestedCandidate): N
   const df = larger.fit.rank - smaller.fit.rank;
   const residualDf = n - larger.fit.rank;
   const base = { smaller: smaller.name, larger: larger.name, df, residualDf };
+  if (!Number.isFinite(smaller.fit.rss) || !Number.isFinite(larger.fit.rss)) {
+    return {
+      ...base, fStatistic: null, fPValue: null, lrStatistic: null, lrPValue: null,
+      reason: 'A residual sum of squares is too large for double precision, so the models cannot be tested; rescale the response.',
+    };
+  }
   if (larger.fit.exactFit || !(larger.fit.rss > 0)) {
     return {
       ...base, fStatistic: null, fPValue: null, lrStatistic: null, lrPValue: null,
@@ -149,7 +161,7 @@ function notNestedReason(a: NestedCandidate, b: NestedCandidate): string {
   if (a.sample !== b.sample || a.fit.observations !== b.fit.observations) {
     return `"${a.name}" and "${b.name}" were not fitted to the same response, weights and rows, so they cannot be tested against each other.`;
   }
-  if (a.fit.rank === b.fit.rank && isLabelSubset(a.labels, b.labels) && isLabelSubset(b.labels, a.labels)) {
+  if (a.fit.rank === b.fit.rank && isKeySubset(a.keys, b.keys) && isKeySubset(b.keys, a.keys)) {
     return `"${a.name}" and "${b.name}" have the same columns; there is nothing to test.`;
   }
   if (a.fit.rank === b.fit.rank) {

@@ -10,6 +10,7 @@
 // reverse sweep out of upper (term out). Weights and importance then cover
 // only the evaluated subsets; the partial says how many were pruned.
 
+import { repeatsColumnSpace } from './column-space.ts';
 import { pivotUsable, sweepPivot } from './sweep.ts';
 import { baseMatrix, type BaseMatrix } from './subset-state.ts';
 import { SubsetTally } from './tally.ts';
@@ -92,8 +93,12 @@ export function branchAndBound(
     }
     return true;
   };
-  const evaluate = (layer: Layer): void =>
-    tally.add(members, layer.rank, layer.matrix[d * d - 1], layer.aliased + base.aliased > 0, hierarchical());
+  let current = lower.matrix;
+  const repeats = () => repeatsColumnSpace(problem, base, current, members);
+  const evaluate = (layer: Layer): void => {
+    current = layer.matrix;
+    tally.add(members, layer.rank, layer.matrix[d * d - 1], layer.aliased + base.aliased > 0, hierarchical(), repeats);
+  };
 
   let covered = 0;
   const explore = (i: number, lo: Layer, up: Layer): void => {

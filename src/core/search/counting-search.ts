@@ -11,6 +11,7 @@
 // The parent of i is still held: between i & (i - 1) and i every mask has
 // more terms than the parent, so one matrix per term count suffices.
 
+import { repeatsColumnSpace } from './column-space.ts';
 import { pivotUsable, sweepPivot } from './sweep.ts';
 import { baseMatrix } from './subset-state.ts';
 import { SubsetTally } from './tally.ts';
@@ -50,6 +51,9 @@ export function scoreSubsetRange(problem: SubsetProblem, settings: SearchSetting
     to.rank = fromLevel.rank;
     to.aliased = fromLevel.aliased;
   };
+  // One closure for the walk (not one per subset): the matrix of the subset being scored.
+  let current = levels[0].matrix;
+  const repeats = () => repeatsColumnSpace(problem, base, current, members);
   const end = Math.min(to, 2 ** m);
   for (let i = from; i < end; i++) {
     const count = popcount(i);
@@ -76,7 +80,8 @@ export function scoreSubsetRange(problem: SubsetProblem, settings: SearchSetting
       members[t] = bit;
       if (bit && (requireMask[t] & ~i) !== 0) hierarchical = false;
     }
-    tally.add(members, level.rank, level.matrix[d * d - 1], level.aliased + base.aliased > 0, hierarchical);
+    current = level.matrix;
+    tally.add(members, level.rank, level.matrix[d * d - 1], level.aliased + base.aliased > 0, hierarchical, repeats);
   }
   return tally.partial();
 }

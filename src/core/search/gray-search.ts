@@ -10,6 +10,7 @@
 // ends that are multiples of REFRESH_STEPS give bit-identical results however
 // the walk is split between workers.
 
+import { repeatsColumnSpace } from './column-space.ts';
 import { grayCode, toggledBit } from './gray-code.ts';
 import { baseMatrix, SubsetState } from './subset-state.ts';
 import { SubsetTally } from './tally.ts';
@@ -31,6 +32,7 @@ export function scoreGrayRange(
   const base = baseMatrix(problem);
   const state = new SubsetState(problem, base);
   const tally = new SubsetTally(problem, settings, base.rssFloor);
+  const repeats = () => repeatsColumnSpace(problem, base, state.matrix, state.members);
   const end = Math.min(to, 2 ** m);
   for (let i = from; i < end; i++) {
     if (i === from || i % REFRESH_STEPS === 0 || state.aliased > 0) {
@@ -42,7 +44,7 @@ export function scoreGrayRange(
       if (state.members[t]) state.leave(t);
       else state.enter(t);
     }
-    tally.add(state.members, state.rank, state.rss, state.aliased + base.aliased > 0, state.violations === 0);
+    tally.add(state.members, state.rank, state.rss, state.aliased + base.aliased > 0, state.violations === 0, repeats);
   }
   return tally.partial();
 }

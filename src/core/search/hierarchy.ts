@@ -12,7 +12,9 @@
 // extend to one unchanged: a monomial needs every monomial that divides it.
 // A need met by an `always` term is met in every subset; a need met by
 // neither the pool nor `always` makes the term unable to enter at all, and
-// is reported so the caller can see why it never appears.
+// is reported so the caller can see why it never appears. An always term is
+// in every subset, so its own needs must be always terms too: one met only
+// by the pool (or nowhere) is reported, and the search refuses to run.
 
 import type { Term } from '../types.ts';
 
@@ -49,6 +51,8 @@ export interface HierarchyRules {
   requires: number[][];
   /** Pool terms that can never enter, with the lower-order terms that are missing from both pool and always. */
   unreachable: { term: number; missing: string[][] }[];
+  /** Always terms with a need always does not meet: each need, and the pool term that holds it (null: nowhere). */
+  alwaysUnmet: { term: number; needs: string[]; poolTerm: number | null }[];
 }
 
 export function hierarchyRules(pool: readonly Term[], always: readonly Term[]): HierarchyRules {
@@ -76,10 +80,19 @@ export function hierarchyRules(pool: readonly Term[], always: readonly Term[]): 
     requires.push(needs.sort((a, b) => a - b));
     if (missing.length > 0) unreachable.push({ term: i, missing });
   });
-  return { requires, unreachable };
+  const alwaysUnmet: HierarchyRules['alwaysUnmet'] = [];
+  always.forEach((t, i) => {
+    const m = monomial(t);
+    if (!m || m.length < 2) return;
+    for (const d of properDivisors(m)) {
+      if (alwaysKeys.has(keyOf(d))) continue;
+      alwaysUnmet.push({ term: i, needs: d, poolTerm: poolIndex.get(keyOf(d)) ?? null });
+    }
+  });
+  return { requires, unreachable, alwaysUnmet };
 }
 
 /** No rules: every subset is admitted. */
 export function noHierarchy(poolSize: number): HierarchyRules {
-  return { requires: Array.from({ length: poolSize }, () => []), unreachable: [] };
+  return { requires: Array.from({ length: poolSize }, () => []), unreachable: [], alwaysUnmet: [] };
 }

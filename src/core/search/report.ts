@@ -8,7 +8,7 @@ import type { CriterionName } from '../criteria.ts';
 import { chooseRankBy, type Policy, type RankByChoice } from '../policy.ts';
 import type { Term } from '../types.ts';
 import { fitCandidate, type ModelResult } from '../comparison/fitted-model.ts';
-import { conventions, type Conventions } from '../comparison/conventions.ts';
+import { conventions, ROWS_RANK_RULE, SWEEP_RANK_RULE, type Conventions } from '../comparison/conventions.ts';
 import type { Caution } from '../comparison/cautions.ts';
 import { fitFromSummary, summaryModelResult } from '../summary/index.ts';
 import { subsetName, type PreparedSearch } from './request-problem.ts';
@@ -25,6 +25,8 @@ export interface SearchReport {
   models: SearchModel[];
   importance: { term: Term; label: string; weight: number }[];
   cautions: Caution[];
+  /** Subsets found to fit exactly, by the kernel's floor or by the refit of a top model; none carries a weight. */
+  exactFits: number;
 }
 
 /** The criterion a search ranks by: the request's, else the policy's, unless that is adjusted R² (no weights over subsets). */
@@ -51,6 +53,12 @@ function refit(prepared: PreparedSearch, terms: Term[], poolIndices: number[]): 
   return summaryModelResult(name, fit.fit, source.summary, input.response, input.intercept);
 }
 
+/** The rank rule a search applied: the sweep screens every subset; the listed models are refitted by QR on rows, or by the same sweep from a summary. */
+function searchRankRule(prepared: PreparedSearch): string {
+  const screen = `subsets are scored by sweeping cross products, where ${SWEEP_RANK_RULE}; a subset with an aliased column is passed over (it repeats a smaller model)`;
+  return prepared.source.kind === 'rows' ? `${screen}. The listed models are refitted by QR on the rows, where ${ROWS_RANK_RULE}` : `${screen}. The listed models are solved from the summary by the same sweep`;
+}
+
 export function searchReport(
   prepared: PreparedSearch,
   outcome: SearchOutcome,
@@ -59,24 +67,44 @@ export function searchReport(
 ): SearchReport {
   const { input, problem } = prepared;
   const criterion: CriterionName = choice.rankBy;
-  const refitted = outcome.models.map((s) => {
+  const { sums } = outcome;
+  const contribution = (kernelValue: number) => Math.exp(-(kernelValue - sums.min) / 2);
+  let total = sums.total;
+  const perTerm = [...sums.perTerm];
+  const exactFitNames = outcome.exactFitSubsets.map((t) => subsetName([...t.map((j) => input.pool[j]), ...input.always], input.intercept));
+  let exactFits = outcome.exactFits;
+  const refitted: { result: ModelResult; terms: Term[]; value: number; kernelValue: number; size: number }[] = [];
+  for (const s of outcome.models) {
     const terms = [...s.terms.map((t) => input.pool[t]), ...input.always];
     const result = refit(prepared, terms, s.terms);
-    return { result, terms, value: result[criterion] ?? s.value, size: s.terms.length };
-  });
+    const value = result[criterion];
+    if (value === null) {
+      // The refit (QR on the rows) finds residuals at rounding level where the sweep did not: an exact fit.
+      // Its score was the sweep's rounding, so it is taken back out of the sums rather than kept with an invented value.
+      exactFits++;
+      exactFitNames.push(result.name);
+      total -= contribution(s.value);
+      for (const t of s.terms) perTerm[t] -= contribution(s.value);
+      continue;
+    }
+    refitted.push({ result, terms, value, kernelValue: s.value, size: s.terms.length });
+  }
   refitted.sort((a, b) => a.value - b.value || a.size - b.size);
-  // weight = exp(-delta/2) / sum over every evaluated subset of exp(-(value - min)/2); the kernel's
-  // best has delta 0, so its weight is 1 / that sum. The refitted best is the kernel's best refitted.
-  const best = refitted.length > 0 ? refitted[0].value : 0;
-  const total = outcome.models.length > 0 ? 1 / outcome.models[0].weight : 1;
+  // weight = exp(-(value - min)/2) / sum over the counted subsets of exp(-(value_j - min)/2). The sums are the
+  // kernel's; the best listed model's offset from their minimum is its kernel value's, so the refitted values
+  // set delta and the kernel's sums the denominator. Taking a subset back out cannot leave less than the listed models hold.
+  const listed = refitted.reduce((acc, r) => acc + contribution(r.kernelValue), 0);
+  total = Math.max(total, listed);
+  const best = refitted.length > 0 ? refitted[0] : null;
+  const offset = best ? best.kernelValue - sums.min : 0;
   const models = refitted.map((r) => {
-    const delta = r.value - best;
-    return { ...r.result, terms: r.terms, delta, weight: Math.exp(-delta / 2) / total };
+    const delta = r.value - (best as (typeof refitted)[number]).value;
+    return { ...r.result, terms: r.terms, delta, weight: Math.exp(-(delta + offset) / 2) / total };
   });
   const observations = problem.observations;
   const source = prepared.source;
   return {
-    conventions: conventions(choice, policy.policy.confidenceLevel),
+    conventions: conventions(choice, policy.policy.confidenceLevel, searchRankRule(prepared)),
     policy: { name: policy.policy.name, hash: policy.hash },
     dataset: {
       fingerprint: prepared.fingerprint,
@@ -86,7 +114,12 @@ export function searchReport(
       weights: source.kind === 'rows' ? input.weights : source.summary.weights ? '(summary)' : null,
     },
     models,
-    importance: outcome.importance.map(({ term, weight }) => ({ term: input.pool[term], label: subsetName([input.pool[term]], true), weight })),
-    cautions: searchCautions(prepared, outcome),
+    importance: perTerm.map((w, term) => ({
+      term: input.pool[term],
+      label: subsetName([input.pool[term]], true),
+      weight: total > 0 && Number.isFinite(total) ? Math.min(1, Math.max(0, w / total)) : 0,
+    })),
+    cautions: searchCautions(prepared, outcome, { exactFits, exactFitNames }),
+    exactFits,
   };
 }

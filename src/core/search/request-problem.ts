@@ -5,7 +5,7 @@ import { buildDesign, columnsUsedBy, commonRows, responseValues, weightValues } 
 import { termLabel } from '../design/labels.ts';
 import { datasetFingerprint } from '../fingerprint.ts';
 import { issue, type Issue, type IssueFacts, type IssuePath } from '../issues.ts';
-import type { Columns, Term } from '../types.ts';
+import type { Columns, DesignMatrix, Term } from '../types.ts';
 import { summaryFingerprint, summaryIssues, summaryPredictors, summaryResponseIssues, validateSummary, type DataSummary } from '../summary/index.ts';
 import { hierarchyRules, noHierarchy, type HierarchyRules } from './hierarchy.ts';
 import { subsetProblemFromDesign, subsetProblemFromSummary } from './problem.ts';
@@ -60,6 +60,8 @@ function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyR
   if (issues.length > 0) return { issues };
   const built = buildDesign(columns, terms, input.intercept, rows);
   if ('issues' in built) return { issues: built.issues.map((i) => intoRequest(i, input.pool.length)) };
+  const varying = codingIssues(input, columns, rows, built.design);
+  if (varying.length > 0) return { issues: varying };
   // The design is summarised once and the best `top` subsets are refitted on the rows.
   const cells = rows.length * built.design.labels.length * (input.top + 1);
   if (cells > maxWorkCells) return { issues: [issue('work_limit', ['pool'], { cells, limit: maxWorkCells, setting: 'MAX_WORK_CELLS' })] };
@@ -72,6 +74,52 @@ function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyR
     source: { kind: 'rows', columns, rows, y: values, weights, dropped },
     fingerprint: datasetFingerprint({ columns, response: input.response, weights: input.weights, used, rows }),
   };
+}
+
+/** Term j's design columns (labels and values) in `design`. */
+function termColumns(design: DesignMatrix, j: number): { label: string; high: Float64Array; low: Float64Array }[] {
+  const out: { label: string; high: Float64Array; low: Float64Array }[] = [];
+  design.termOfColumn.forEach((term, c) => {
+    if (term === j) out.push({ label: design.labels[c], high: design.high[c], low: design.low[c] });
+  });
+  return out;
+}
+
+function sameColumns(a: ReturnType<typeof termColumns>, b: ReturnType<typeof termColumns>): boolean {
+  if (a.length !== b.length) return false;
+  return a.every((x, c) => x.label === b[c].label && x.high.every((v, i) => v === b[c].high[i]) && x.low.every((v, i) => v === b[c].low[i]));
+}
+
+/**
+ * The kernel scores every subset on the columns of one design built over all
+ * pool and always terms, where a factor declaration holds for every use of
+ * its column. A subset's refit (and a comparison) builds its own terms only,
+ * so a declaration on one pool term would recode another term in some
+ * subsets and not in others: the search would score one model and report
+ * another. Each term is built as the smallest subset holding it builds it
+ * (the term with the always terms; the always terms alone) and compared with
+ * its columns in the combined design; any difference refuses the request.
+ */
+function codingIssues(input: SearchRequestInput, columns: Columns, rows: number[], combined: DesignMatrix): Issue[] {
+  const m = input.pool.length;
+  const issues: Issue[] = [];
+  const declarers = (term: Term): Term[] => {
+    const used = new Set(columnsUsedBy([term]));
+    return input.pool.filter((u) => u !== term && typeof u === 'object' && u.kind === 'factor' && used.has(u.of));
+  };
+  const check = (alone: ReturnType<typeof buildDesign>, position: number, combinedIndex: number, at: IssuePath, term: Term) => {
+    const same = !('issues' in alone) && sameColumns(termColumns(alone.design, position), termColumns(combined, combinedIndex));
+    if (same) return;
+    const by = declarers(term)[0];
+    const column = by && typeof by === 'object' && by.kind === 'factor' ? by.of : columnsUsedBy([term])[0] ?? '';
+    issues.push(issue('search_coding_varies', at, { label: termLabel(term), column, declaredBy: by ? termLabel(by) : 'another pool term' }));
+  };
+  input.pool.forEach((term, j) => check(buildDesign(columns, [term, ...input.always], input.intercept, rows), 0, j, ['pool', j], term));
+  if (input.always.length > 0) {
+    const always = buildDesign(columns, input.always, input.intercept, rows);
+    input.always.forEach((term, i) => check(always, i, m + i, ['always', i], term));
+  }
+  return issues;
 }
 
 function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
@@ -111,6 +159,18 @@ function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: Hie
 
 export function prepareSearch(input: SearchRequestInput, limits: { maxWorkCells: number }): PreparedSearch | { issues: Issue[] } {
   const rules = input.hierarchy ? hierarchyRules(input.pool, input.always) : noHierarchy(input.pool.length);
+  if (rules.alwaysUnmet.length > 0) {
+    // Every subset holds the always terms, so a need of theirs outside always breaks the rule in some or every subset.
+    return {
+      issues: rules.alwaysUnmet.map((u) =>
+        issue('hierarchy_always_incomplete', ['always', u.term], {
+          label: termLabel(input.always[u.term]),
+          needs: u.poolTerm !== null ? termLabel(input.pool[u.poolTerm]) : u.needs.join(':'),
+          inPool: u.poolTerm !== null,
+        }),
+      ),
+    };
+  }
   if (input.summary) return fromSummary(input, input.summary, rules);
   if (input.columns) return fromRows(input, input.columns, rules, limits.maxWorkCells);
   return { issues: [issue('data_required', ['data'], { form: 'a search' })] };

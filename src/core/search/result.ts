@@ -3,8 +3,9 @@
 // evaluated subset, and each term's importance (summed weight of the
 // evaluated subsets that hold it).
 
+import { compareTermLists, EXACT_FITS_LISTED } from './tally.ts';
 import { mergeTopModels } from './top-models.ts';
-import type { ScoredSubset, SearchPartial, SearchSettings } from './types.ts';
+import type { ScoredSubset, SearchPartial, SearchSettings, WeightSumsData } from './types.ts';
 import { mergeWeightSums } from './weight-sums.ts';
 
 export type SearchMethod = 'exhaustive' | 'branchAndBound';
@@ -17,6 +18,8 @@ export interface RankedSubset extends ScoredSubset {
 export interface SearchOutcome {
   method: SearchMethod;
   criterion: SearchSettings['criterion'];
+  /** How rank-deficient subsets were treated (settings.rankDeficient). */
+  rankDeficientRule: SearchSettings['rankDeficient'];
   /** Subsets scored; weights and importance are over exactly these. */
   evaluated: number;
   /** All 2^m subsets of the pool. */
@@ -26,13 +29,20 @@ export interface SearchOutcome {
   notHierarchical: number;
   unscorable: number;
   rankDeficient: number;
+  /** Full-rank subsets passed over: another counted subset spans the same column space. */
+  sameColumnSpace: number;
+  /** Subsets with residuals at rounding level: no criterion value, outside weights, importance and the top list. */
   exactFits: number;
+  /** The first of them (fewest terms first), pool indices. */
+  exactFitSubsets: number[][];
   pruned: number;
   nodes: number;
   stopped: boolean;
   models: RankedSubset[];
   /** Per pool term (index order). */
   importance: { term: number; weight: number }[];
+  /** The weight sums behind weight and importance, for a caller that must take a subset back out. */
+  sums: WeightSumsData;
 }
 
 export function finishSearch(method: SearchMethod, settings: SearchSettings, poolSize: number, partials: readonly SearchPartial[]): SearchOutcome {
@@ -54,17 +64,21 @@ export function finishSearch(method: SearchMethod, settings: SearchSettings, poo
   return {
     method,
     criterion: settings.criterion,
+    rankDeficientRule: settings.rankDeficient,
     evaluated: sum((p) => p.evaluated),
     subsets: 2 ** poolSize,
     weightsCoverAllSubsets: pruned === 0 && !stopped,
     notHierarchical: sum((p) => p.notHierarchical),
     unscorable: sum((p) => p.unscorable),
     rankDeficient: sum((p) => p.rankDeficient),
+    sameColumnSpace: sum((p) => p.sameColumnSpace),
     exactFits: sum((p) => p.exactFits),
+    exactFitSubsets: partials.flatMap((p) => p.exactFitSubsets).sort(compareTermLists).slice(0, EXACT_FITS_LISTED),
     pruned,
     nodes: sum((p) => p.nodes),
     stopped,
     models,
     importance: sums.perTerm.map((w, term) => ({ term, weight: sums.total > 0 ? w / sums.total : 0 })),
+    sums,
   };
 }

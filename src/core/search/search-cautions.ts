@@ -6,7 +6,13 @@ import { SUMMARY_INPUT_CAUTION } from '../comparison/from-summary.ts';
 import { subsetName, type PreparedSearch } from './request-problem.ts';
 import type { SearchOutcome } from './result.ts';
 
-export function searchCautions(prepared: PreparedSearch, outcome: SearchOutcome): Caution[] {
+/** Exact fits as the report counts them: the kernel's, plus top models whose refit on the rows found them exact. */
+export interface ExactFitTally {
+  exactFits: number;
+  exactFitNames: string[];
+}
+
+export function searchCautions(prepared: PreparedSearch, outcome: SearchOutcome, exact: ExactFitTally = { exactFits: outcome.exactFits, exactFitNames: [] }): Caution[] {
   const out: Caution[] = [
     STANDING_CAUTION,
     {
@@ -39,7 +45,24 @@ export function searchCautions(prepared: PreparedSearch, outcome: SearchOutcome)
   if (outcome.rankDeficient > 0) {
     out.push({
       code: 'rank_deficient_subsets',
-      message: `${outcome.rankDeficient} subsets have aliased design columns; each is scored with k = its numerical rank + 1, as a comparison would, so it repeats the score of a smaller subset with one more term.`,
+      message:
+        outcome.rankDeficientRule === 'skip'
+          ? `${outcome.rankDeficient} subsets have aliased design columns (see conventions.rank); each spans the column space of a smaller subset, so it was passed over and takes no part in weights or importance — counting it would count that model twice.`
+          : `${outcome.rankDeficient} subsets have aliased design columns; each is scored with k = its numerical rank + 1, as a comparison would, so it repeats the score of a smaller subset with one more term.`,
+    });
+  }
+  if (outcome.sameColumnSpace > 0) {
+    out.push({
+      code: 'same_column_space_subsets',
+      message: `${outcome.sameColumnSpace} subsets span exactly the column space of another subset (some pool columns are exact linear combinations of others), so they are the same model — same fitted values, RSS and k. Each such model is counted once, as the subset whose terms come first in pool order; the others were passed over and take no part in weights or importance.`,
+    });
+  }
+  if (exact.exactFits > 0) {
+    const shown = exact.exactFitNames.length;
+    const names = exact.exactFitNames.map((n) => JSON.stringify(n)).join(', ');
+    out.push({
+      code: 'exact_fit_subsets',
+      message: `${exact.exactFits} subsets reproduce the response exactly (residuals at rounding level)${shown > 0 ? `${shown < exact.exactFits ? ', among them' : ':'} ${names}` : ''}. Their Gaussian log-likelihood is unbounded, so they have no criterion value; they are left out of delta, weights, importance and the list of best models, which rank the remaining subsets only. An exact fit usually means the response is computed from these terms rather than measured: check the data before reading the ranking.`,
     });
   }
   if (outcome.unscorable > 0) {

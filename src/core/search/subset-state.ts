@@ -2,6 +2,7 @@
 // walk over subsets needs: which columns are swept, the rank, columns that
 // were found aliased (not swept), and how many hierarchy needs are unmet.
 
+import { exactFitFloor } from '../summary/fit.ts';
 import { pivotUsable, sweepPivot } from './sweep.ts';
 import type { SubsetProblem } from './types.ts';
 
@@ -14,7 +15,7 @@ export interface BaseMatrix {
   aliased: number;
   /** Original sums of squares (diagonal) for the relative pivot test. */
   original: Float64Array;
-  /** Rounding floor for a residual sum of squares: below it the fit is exact. */
+  /** Rounding floor for a residual sum of squares: at or below it the fit is exact (the summary fit's rule). */
   rssFloor: number;
 }
 
@@ -36,7 +37,7 @@ export function baseMatrix(problem: SubsetProblem): BaseMatrix {
     }
   }
   const yy = original[d - 1];
-  return { matrix, swept, rank, aliased, original, rssFloor: Math.max(yy, Number.MIN_VALUE) * 64 * Number.EPSILON };
+  return { matrix, swept, rank, aliased, original, rssFloor: exactFitFloor(yy) };
 }
 
 export class SubsetState {

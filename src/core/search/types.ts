@@ -31,7 +31,12 @@ export interface SearchSettings {
   criterion: SearchCriterion;
   /** How many best models to keep. */
   top: number;
-  /** Subsets whose design is rank-deficient: scored with k = rank + 1 (as a comparison would) or skipped as repeats of a smaller model. */
+  /**
+   * Subsets whose design is rank-deficient: scored with k = rank + 1 (as a
+   * comparison would), or skipped as repeats of a smaller model — and then a
+   * full-rank subset whose column space another counted subset already spans
+   * is skipped too, so every distinct model counts once in the weights.
+   */
   rankDeficient: 'score' | 'skip';
 }
 
@@ -63,8 +68,16 @@ export interface SearchPartial {
   /** Subsets with no residual degrees of freedom, or undefined criterion (AICc with n - k - 1 <= 0). */
   unscorable: number;
   rankDeficient: number;
-  /** Subsets whose residual sum of squares is at the rounding floor (scored at that floor). */
+  /** Full-rank subsets passed over because another admitted subset spans the same column space (rankDeficient 'skip' only). */
+  sameColumnSpace: number;
+  /**
+   * Subsets whose residual sum of squares is at the rounding floor: their
+   * log-likelihood is unbounded, so they have no criterion value and take no
+   * part in weights, importance or the top list.
+   */
   exactFits: number;
+  /** The first EXACT_FITS_LISTED of them (fewest terms first, then term indices), to name in a caution. */
+  exactFitSubsets: number[][];
   /** Subsets never looked at because branch and bound proved they cannot enter the top. */
   pruned: number;
   /** Branch and bound only: nodes visited. */

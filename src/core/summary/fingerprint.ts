@@ -6,6 +6,7 @@
 // big-endian. Numbers are hashed as bytes, not text, so any language can
 // rebuild it. Two summaries of the same rows made by different engines
 // differ in rounding, and so in fingerprint: it identifies the summary sent.
+// -0 is hashed as 0, as the rows' fingerprint does: the same measurement.
 import { createHash } from 'node:crypto';
 import type { DataSummary } from './types.ts';
 
@@ -16,7 +17,7 @@ export function summaryFingerprint(s: DataSummary): string {
   hash.update(SUMMARY_FINGERPRINT_HEADER, 'utf8');
   const f64 = (values: readonly number[]) => {
     const b = Buffer.alloc(8 * values.length);
-    values.forEach((v, i) => b.writeDoubleBE(v, 8 * i));
+    values.forEach((v, i) => b.writeDoubleBE(v === 0 ? 0 : v, 8 * i));
     hash.update(b);
   };
   const u32 = (n: number) => {

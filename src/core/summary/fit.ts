@@ -10,8 +10,23 @@
 // C + W mean mean^T, which brings that cancellation back: less accurate
 // still, and said so by `uncentred: true`.
 
+import { EXACT_FIT_FACTOR } from '../fit/exact-fit.ts';
 import { PIVOT_TOLERANCE, sweepPivot } from '../search/sweep.ts';
 import type { DataSummary, SummaryIssue } from './types.ts';
+
+/**
+ * The residual sum of squares at or below which a fit from cross products is
+ * exact. The rows' rule (||e|| <= 64 eps ||y||, src/core/fit/exact-fit.ts)
+ * bounds a residual computed from the rows; an RSS from the normal equations
+ * is a difference Cyy - Cyx b that carries a rounding of about eps * Cyy
+ * however exact the fit, so the rule here is on the sum of squares itself:
+ * RSS <= 64 eps * responseSquares, with responseSquares the response's sum
+ * of squares the fit starts from (Cyy with an intercept, Cyy + W mean(y)^2
+ * without). The subset search uses the same floor.
+ */
+export function exactFitFloor(responseSquares: number): number {
+  return Math.max(responseSquares, Number.MIN_VALUE) * EXACT_FIT_FACTOR * Number.EPSILON;
+}
 
 export interface SummaryFit {
   observations: number;
@@ -25,6 +40,8 @@ export interface SummaryFit {
   /** About the (weighted) mean with an intercept, about 0 without. */
   tss: number;
   sigma: number | null;
+  /** RSS at the rounding floor of the normal equations (exactFitFloor of the response's sum of squares). */
+  exactFit: boolean;
   /** True when raw sums had to be rebuilt from means (no intercept). */
   uncentred: boolean;
 }
@@ -102,6 +119,7 @@ export function fitFromSummary(summary: DataSummary, response: string, predictor
       rss,
       tss,
       sigma,
+      exactFit: rss <= exactFitFloor(tss),
       uncentred: !intercept,
     },
   };

@@ -3,7 +3,6 @@
 // likelihood, criteria and cautions. What needs the rows is reported as
 // unavailable, with the reason: residuals and every residual diagnostic,
 // leave-one-out (PRESS), the design's condition number.
-import { isExactFit } from '../fit/exact-fit.ts';
 import type { Caution } from '../comparison/cautions.ts';
 import type { ModelResult } from '../comparison/fitted-model.ts';
 import { leastSquaresModelResult } from '../comparison/least-squares-result.ts';
@@ -17,13 +16,6 @@ export const ROWS_UNAVAILABLE_CAUTION: Caution = {
     'Computed from a data summary, not from rows: residuals, residual diagnostics, leave-one-out (PRESS) and the condition number need the rows and are unavailable. Coefficients come from the normal equations, which lose digits on an ill-conditioned design; the criteria agree with a fit on the rows to about 1e-9 on well-conditioned data.',
 };
 
-/** The response's raw sum of squares Σ w y² = C_yy + W ȳ², the scale of an exact fit. */
-function responseSquares(summary: DataSummary, response: string): number {
-  const j = summary.columns.indexOf(response);
-  const w = summary.weights ? summary.weights.sum : summary.rows;
-  return summary.centredCrossProducts[j][j] + w * summary.means[j] ** 2;
-}
-
 export function summaryModelResult(name: string, fit: SummaryFit, summary: DataSummary, response: string, intercept: boolean): ModelResult {
   return leastSquaresModelResult({
     name,
@@ -33,7 +25,8 @@ export function summaryModelResult(name: string, fit: SummaryFit, summary: DataS
     rss: fit.rss,
     tss: fit.tss,
     sigma: fit.sigma,
-    exactFit: isExactFit(Math.sqrt(fit.rss), Math.sqrt(responseSquares(summary, response))),
+    // The normal equations' floor (summary/fit.ts exactFitFloor), not the rows' ||e|| rule.
+    exactFit: fit.exactFit,
     sumLogWeights: summary.weights?.sumLog ?? 0,
     jacobian: 0,
     labels: fit.labels,

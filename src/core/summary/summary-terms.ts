@@ -11,6 +11,7 @@ export function summaryPredictors(summary: DataSummary, terms: readonly Term[], 
   const listed = new Set(summary.columns);
   const issues: Issue[] = [];
   const predictors: string[] = [];
+  const first = new Map<string, number>();
   terms.forEach((term, j) => {
     if (typeof term !== 'string') {
       issues.push(issue('summary_rows_needed', [...at, j], {
@@ -19,7 +20,13 @@ export function summaryPredictors(summary: DataSummary, terms: readonly Term[], 
       }));
     } else if (!listed.has(term)) {
       issues.push(issue('summary_column_unknown', [...at, j], { column: term }));
-    } else predictors.push(term);
+    } else if (first.has(term)) {
+      // As on the rows (buildDesign): a term repeated is a request error, not an aliased column.
+      issues.push(issue('duplicate_term', [...at, j], { label: term, first: first.get(term) as number }));
+    } else {
+      first.set(term, j);
+      predictors.push(term);
+    }
   });
   return issues.length > 0 ? { issues } : { predictors };
 }

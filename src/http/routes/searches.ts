@@ -87,7 +87,8 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
     const started = performance.now();
     let run;
     try {
-      run = await runSearch(subsets, { criterion: choice.rankBy, top: body.top, rankDeficient: 'score' }, {
+      // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
+      run = await runSearch(subsets, { criterion: choice.rankBy, top: body.top, rankDeficient: 'skip' }, {
         threads, budget, exhaustive: body.exhaustive, signal: abort.signal,
         onProgress: (p) => {
           const now = performance.now();
@@ -114,14 +115,21 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
     };
     if (!run.ok) return fail(422, issuesProblem([budgetIssue(run.issue)]));
     const { outcome } = run;
-    const report = searchReport(prepared, outcome, choice, policy);
+    const { exactFits, ...report } = searchReport(prepared, outcome, choice, policy);
     const answer = {
       ...report,
       method: outcome.method,
       evaluated: outcome.evaluated,
       subsets: outcome.subsets,
       weightsCoverAllSubsets: outcome.weightsCoverAllSubsets,
-      passedOver: { notHierarchical: outcome.notHierarchical, unscorable: outcome.unscorable, pruned: outcome.pruned },
+      passedOver: {
+        notHierarchical: outcome.notHierarchical,
+        unscorable: outcome.unscorable,
+        pruned: outcome.pruned,
+        rankDeficient: outcome.rankDeficient,
+        sameColumnSpace: outcome.sameColumnSpace,
+        exactFit: exactFits,
+      },
       rankDeficient: outcome.rankDeficient,
       budget: { ...run.budget, estimatedFlops: run.estimatedFlops, nodes: outcome.nodes, elapsedMs },
       threads: run.threads,

@@ -31,7 +31,7 @@ export const SearchResult = z
     policy: z.strictObject({ name: z.string(), hash: z.string() }),
     dataset: Dataset,
     method: z.enum(['exhaustive', 'branchAndBound']),
-    evaluated: z.number().int().meta({ description: 'Subsets scored; delta, weights and importance are over exactly these.' }),
+    evaluated: z.number().int().meta({ description: 'Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded).' }),
     subsets: z.number().int().meta({ description: '2^m: every subset of the pool.' }),
     weightsCoverAllSubsets: z.boolean().meta({ description: 'True when no admissible subset was pruned, so weights and importance are over all of them.' }),
     passedOver: z
@@ -39,9 +39,15 @@ export const SearchResult = z
         notHierarchical: z.number().int(),
         unscorable: z.number().int(),
         pruned: z.number().int(),
+        rankDeficient: z.number().int().meta({ description: 'Subsets with an aliased design column (conventions.rank): each repeats the column space of a smaller subset.' }),
+        sameColumnSpace: z.number().int().meta({ description: 'Full-rank subsets spanning exactly the column space of another subset that is counted instead (the one whose terms come first in pool order).' }),
+        exactFit: z.number().int().meta({ description: 'Subsets reproducing the response exactly (residuals at rounding level): unbounded likelihood, no criterion value; named in a caution.' }),
       })
-      .meta({ description: 'Subsets not scored: outside the hierarchy rule, without a criterion value, or proven out of the top by branch and bound.' }),
-    rankDeficient: z.number().int().meta({ description: 'Evaluated subsets with aliased design columns.' }),
+      .meta({
+        description:
+          'Subsets not scored: outside the hierarchy rule, without a criterion value, proven out of the top by branch and bound, repeats of a model already counted (aliased columns or the same column space), or exact fits.',
+      }),
+    rankDeficient: z.number().int().meta({ description: 'Subsets with aliased design columns, all passed over (the same count as passedOver.rankDeficient).' }),
     budget: SearchBudgetSchema,
     threads: z.number().int().meta({ description: 'Worker threads the subsets were scored on.' }),
     models: z.array(SearchModel).meta({ description: 'The best `top` subsets by conventions.rankBy, best first.' }),

@@ -1,5 +1,7 @@
 import t from 'tap';
 import { averageModels } from '../../../src/core/averaging/index.ts';
+import { compareModels } from '../../../src/core/compare.ts';
+import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
 
 const close = (a: number | null, b: number, tol = 1e-12) => a !== null && Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
 
@@ -68,4 +70,55 @@ t.test('a model without a standard error makes the unconditional one null, not w
   const x = avg.terms.find((r) => r.term === 'x')!;
   t.ok(close(x.estimate, (0.5 * 2 + 0.3 * 3) / 0.8));
   t.equal(x.unconditionalStandardError, null);
+});
+
+t.test('coefficients are pooled by column identity: one label coded two ways is two terms', async (t) => {
+  // kiln[west] against east and against north are different quantities
+  // (west − east and west − north). By the definitions above, each is in one
+  // model of weight 0.5: importance 0.5, full average 0.5 b, conditional b.
+  const avg = averageModels([
+    { name: 'refEast', weight: 0.5, coefficients: [
+      { term: '(intercept)', key: 'i', estimate: 1, standardError: 0.1 },
+      { term: 'kiln[west]', key: 'west-east', qualifier: 'reference east', estimate: 2, standardError: 0.2 },
+    ] },
+    { name: 'refNorth', weight: 0.5, coefficients: [
+      { term: '(intercept)', key: 'i', estimate: 3, standardError: 0.1 },
+      { term: 'kiln[west]', key: 'west-north', qualifier: 'reference north', estimate: 0.5, standardError: 0.2 },
+    ] },
+  ]);
+  t.same(avg.terms.map((r) => r.term), ['(intercept)', 'kiln[west] (reference east)', 'kiln[west] (reference north)']);
+  const east = avg.terms[1], north = avg.terms[2];
+  t.ok(close(east.importance, 0.5) && close(north.importance, 0.5));
+  t.ok(close(east.estimate, 1) && close(east.overModelsWithTerm.estimate, 2));
+  t.ok(close(north.estimate, 0.25) && close(north.overModelsWithTerm.estimate, 0.5));
+  t.ok(close(avg.terms[0].estimate, 2));
+  t.same(avg.issues.map((i) => i.code), ['averaging-term-coded-differently']);
+  t.match(avg.issues[0].message, /"refEast": kiln\[west\] \(reference east\)/);
+});
+
+t.test('end to end: differently referenced factors are averaged per coding, with notes', async (t) => {
+  const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
+  const noise = [0.3, -0.2, 0.1, 0.4, -0.5, 0.2, -0.1, 0, 0.3, -0.4, 0.2, -0.1];
+  const kiln = x.map((v) => ['east', 'north', 'west'][v % 3]);
+  const y = x.map((v, i) => 1 + 0.5 * v + (kiln[i] === 'west' ? 2 : kiln[i] === 'north' ? 1 : 0) + noise[i]);
+  const r = compareModels({
+    columns: { y, x, kiln }, response: 'y', weights: null, policy: DEFAULT_POLICY, policyHash: 'h',
+    candidates: [
+      { form: 'fit', name: 'refEast', terms: ['x', { kind: 'factor', of: 'kiln', reference: 'east' }], intercept: true },
+      { form: 'fit', name: 'refNorth', terms: ['x', { kind: 'factor', of: 'kiln', reference: 'north' }], intercept: true },
+    ],
+  }, { maxWorkCells: 1e9 });
+  if ('issues' in r) throw new Error(JSON.stringify(r.issues));
+  const { models, averaged } = r.result;
+  const coef = (m: number, term: string) => models[m].coefficients.find((c) => c.term === term)!.estimate!;
+  // Treatment coding identity (common practice): (west − east) − (north − east) = west − north.
+  t.ok(close(coef(0, 'kiln[west]') - coef(0, 'kiln[north]'), coef(1, 'kiln[west]'), 1e-9));
+  const terms = averaged!.terms.map((a) => a.term);
+  t.ok(terms.includes('kiln[west] (reference east)') && terms.includes('kiln[west] (reference north)'));
+  t.notOk(terms.includes('kiln[west]'));
+  // The two models are one fit, so their weights are equal: each coding is
+  // averaged at half its one model's estimate.
+  const east = averaged!.terms.find((a) => a.term === 'kiln[west] (reference east)')!;
+  t.ok(close(east.importance, 0.5, 1e-9) && close(east.estimate, 0.5 * coef(0, 'kiln[west]'), 1e-9));
+  t.ok(averaged!.notes.some((n) => /"kiln" is coded against "east" in "refEast"; against "north" in "refNorth"/.test(n)));
 });

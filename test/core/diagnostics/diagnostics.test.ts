@@ -4,6 +4,7 @@ import {
   breuschPaganKoenker, cooksDistances, diagnoseFit, durbinWatson, jarqueBera, scaledConditionNumber, varianceInflationFactors,
 } from '../../../src/core/diagnostics/index.ts';
 import { leverages } from '../../../src/core/loo.ts';
+import { fitLeastSquares } from '../../../src/core/fit/index.ts';
 import { designWithIntercept, makeDesign, projectFit, referenceFit, SOLVERS } from '../inference/reference-fit.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
@@ -26,9 +27,9 @@ for (const [solver, fitWith] of SOLVERS) for (const [name, c] of Object.entries(
     const fit = fitWith(design, c.data.y);
     const slopes = Object.values(named).map((v) => Float64Array.from(v));
     const jb = jarqueBera(fit.residuals);
-    t.ok(rel(jb.statistic, c.jarqueBera.statistic) < 1e-6, `JB ${jb.statistic} vs ${c.jarqueBera.statistic}`);
-    t.ok(rel(jb.pValue, c.jarqueBera.pValue) < 1e-6);
-    t.ok(rel(jb.kurtosis, c.jarqueBera.kurtosis) < 1e-6);
+    t.ok(rel(jb.statistic!, c.jarqueBera.statistic) < 1e-6, `JB ${jb.statistic} vs ${c.jarqueBera.statistic}`);
+    t.ok(rel(jb.pValue!, c.jarqueBera.pValue) < 1e-6);
+    t.ok(rel(jb.kurtosis!, c.jarqueBera.kurtosis) < 1e-6);
     const bp = breuschPaganKoenker(fit.residuals, slopes);
     t.equal(bp.df, c.breuschPaganKoenker.df);
     t.ok(rel(bp.statistic, c.breuschPaganKoenker.statistic) < 1e-6, `BP ${bp.statistic} vs ${c.breuschPaganKoenker.statistic}`);
@@ -116,4 +117,35 @@ t.test('intercept-only model: no regressors for Breusch–Pagan, no VIFs', async
   t.equal(d.heteroscedasticity.passed, null);
   t.same(d.multicollinearity.varianceInflationFactors, []);
   t.equal(d.multicollinearity.conditionNumber, 1);
+});
+
+t.test('equal residuals: Jarque–Bera is undefined (null, not NaN), passed null, with a note', async (t) => {
+  // y = 2x + 3 on x symmetric about 0, fitted without an intercept: b = 2 and
+  // every residual is 3 (worked by hand), so m2 = 0 and S, K are 0/0.
+  const x = [-1, 1, -2, 2, -3, 3, -1.5, 1.5];
+  const design = makeDesign(['x'], [x], false);
+  const fit = referenceFit(design, x.map((v) => 2 * v + 3));
+  const jb = jarqueBera(fit.residuals);
+  t.same([jb.statistic, jb.pValue, jb.skewness, jb.kurtosis], [null, null, null, null]);
+  const d = diagnoseFit(fit, design);
+  t.equal(d.residualNormality.passed, null);
+  t.match(d.residualNormality.note, /All residuals are equal/);
+  t.notOk(d.cautions.some((c) => /NaN/.test(c)));
+});
+
+t.test('a design with no columns (rank 0): Cook\'s distance null, influence and collinearity not judged', async (t) => {
+  // y = 0 + error: no coefficient, so no fitted value can move (D_i = 0/0).
+  const y = [1.2, 1.9, 3.2, 3.8, 5.3, 5.9, 7.2, 7.7];
+  const design = { rows: 8, labels: [], keys: [], high: [], low: [], intercept: false, termOfColumn: [] };
+  const fit = fitLeastSquares(design, Float64Array.from(y));
+  t.equal(fit.rank, 0);
+  t.same(cooksDistances(fit.residuals, new Float64Array(8), 0, fit.sigma!), new Array(8).fill(null));
+  const d = diagnoseFit(fit, design);
+  t.equal(d.influence.maxCooksDistance, null);
+  t.equal(d.influence.passed, null);
+  t.equal(d.multicollinearity.conditionNumber, null);
+  t.match(d.multicollinearity.note, /no coefficients/);
+  // The solver's own condition number is undefined (NaN), which results report as null.
+  t.ok(Number.isNaN(fit.conditionNumber));
+  t.same(d.cautions.filter((c) => /carry much of the fit/.test(c)), []);
 });

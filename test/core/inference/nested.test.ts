@@ -3,12 +3,14 @@ import longley from '../../reference/nist/longley.json' with { type: 'json' };
 import pontius from '../../reference/nist/pontius.json' with { type: 'json' };
 import { nestedTest, nestedTests, nestingOrder, type NestedCandidate } from '../../../src/core/inference/nested.ts';
 import { designWithIntercept, makeDesign, projectFit, referenceFit } from './reference-fit.ts';
-import type { DesignMatrix } from '../../../src/core/types.ts';
+import type { DesignMatrix, Term } from '../../../src/core/types.ts';
+import { buildDesign } from '../../../src/core/design/index.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 function candidate(name: string, design: DesignMatrix, y: number[], weights?: number[], sample = 'y'): NestedCandidate {
-  return { name, labels: design.labels, fit: projectFit(design, y, weights), sample };
+  // Test designs are built column by column with distinct names, so their labels serve as keys.
+  return { name, keys: design.labels, fit: projectFit(design, y, weights), sample };
 }
 
 function interceptOnly(n: number): DesignMatrix {
@@ -111,4 +113,31 @@ t.test('an exact larger fit gives null statistics with a reason', async (t) => {
   t.equal(test.fStatistic, null);
   t.equal(test.lrPValue, null);
   t.match(test.reason, /exactly/);
+});
+
+t.test('nesting follows column keys from buildDesign, not labels a data column can imitate', async (t) => {
+  // The reviewer's cases: a data column named "x^2" holding sin(x) is not the
+  // power x^2, and a data column named "(intercept)" is not the intercept.
+  const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
+  const y = x.map((v, i) => 1 + 0.5 * v + 0.2 * v * v + [0.3, -0.2, 0.1, 0.4, -0.5, 0.2, -0.1, 0, 0.3, -0.4, 0.2, -0.1][i]);
+  const columns = { y, x, 'x^2': x.map(Math.sin), '(intercept)': x.map(Math.cos) };
+  const rows = x.map((_, i) => i);
+  const built = (name: string, terms: Term[], intercept: boolean): NestedCandidate => {
+    const r = buildDesign(columns, terms, intercept, rows);
+    if (!('design' in r)) throw new Error(JSON.stringify(r.issues));
+    return { name, keys: r.design.keys!, fit: projectFit(r.design, y), sample: 'y' };
+  };
+  const rawColumn = built('raw', ['x^2'], true);
+  const poly = built('poly', ['x', { kind: 'power', of: 'x', degree: 2 }], true);
+  const line = built('line', ['x'], true);
+  const fakeIntercept = built('fake', ['(intercept)'], false);
+  t.equal(nestingOrder(rawColumn, poly), null);
+  t.equal(nestingOrder(fakeIntercept, line), null);
+  // Positive control: the same builder's x is inside x + x^2.
+  t.equal(nestingOrder(line, poly)?.smaller.name, 'line');
+  const { tests, issues } = nestedTests([rawColumn, poly, line, fakeIntercept], [{ smaller: 'raw', larger: 'poly' }]);
+  t.same(tests.map((s) => [s.smaller, s.larger]), [['line', 'poly']]);
+  t.same(issues.map((i) => i.code), ['nested-test-not-nested']);
+  // A design without keys nests with nothing.
+  t.equal(nestingOrder({ ...line, keys: null }, poly), null);
 });

@@ -6,7 +6,8 @@ import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
 import { compareModels, type CandidateInput } from '../../../src/core/compare.ts';
 import { compareFromSummary } from '../../../src/core/comparison/from-summary.ts';
-import { summariseRows } from '../../../src/core/summary/index.ts';
+import { summariseRows, summaryFingerprint } from '../../../src/core/summary/index.ts';
+import { PIVOT_TOLERANCE } from '../../../src/core/search/index.ts';
 import { DEFAULT_ACTIVE_POLICY } from '../../../src/policy-file.ts';
 
 const close = (a: number | null, b: number | null, tol = 1e-9) => a !== null && b !== null && Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
@@ -62,5 +63,76 @@ t.test('what needs the rows is refused with the reason', (t) => {
     ['summary_rows_needed', 'candidates/2/response'],
     ['summary_column_unknown', 'candidates/3/terms/0'],
   ]);
+  t.end();
+});
+
+t.test('an exact fit from a summary is detected as on the rows', (t) => {
+  // A response computed from peakTemp and holdMinutes (a definition): the rows' QR finds it exact (logLikelihood null);
+  // the normal equations leave an RSS of rounding, about eps * Cyy, which the summary rule must call exact too.
+  const y = columns.peakTemp.map((x, i) => 0.013 * x - 0.7 + 0.021 * columns.holdMinutes[i]);
+  const cols = { ...columns, shrinkage: y };
+  const exact: CandidateInput[] = [
+    { form: 'fit', name: 'exact', terms: ['peakTemp', 'holdMinutes'], intercept: true },
+    { form: 'fit', name: 'exact, no intercept', terms: ['peakTemp', 'holdMinutes', 'moisture'], intercept: false },
+    { form: 'fit', name: 'temp only', terms: ['peakTemp'], intercept: true },
+  ];
+  const rows = compareModels({ columns: cols, response: 'shrinkage', weights: null, candidates: exact, ...policy }, { maxWorkCells: 1e8 });
+  const summary = summariseRows(names.map((c) => Float64Array.from(cols[c as keyof typeof cols])), null, names);
+  const fromSummary = compareFromSummary({ summary, response: 'shrinkage', candidates: exact, ...policy });
+  if (!('result' in rows) || !('result' in fromSummary)) return t.fail('both compute');
+  t.same(rows.result.models.map((m) => m.logLikelihood === null), [true, false, false], 'the rows: the first is exact; without an intercept the constant -0.7 is missing');
+  t.same(fromSummary.result.models.map((m) => m.logLikelihood === null), [true, false, false], 'the summary agrees');
+  t.ok(fromSummary.result.models[0].cautions.some((c) => c.code === 'exact_fit'));
+  t.ok(close(fromSummary.result.models[2].aicc, rows.result.models[2].aicc), 'a model with scatter keeps its criterion');
+  t.end();
+});
+
+t.test('a summary comparison states the rank rule it applied', (t) => {
+  // z = x + 1e-6 * noise: QR on the rows resolves z (remaining norm ratio ~1e-7 > 1e-10); a sweep of the normal
+  // equations cannot (squared ratio ~1e-14 < its 1e-10), and the conventions must say so rather than quote the rows' rule.
+  const x = columns.peakTemp;
+  const z = x.map((v, i) => v + 1e-6 * Math.sin(i * 7.3));
+  const cols = { x, z, y: columns.shrinkage };
+  const cands: CandidateInput[] = [{ form: 'fit', name: 'xz', terms: ['x', 'z'], intercept: true }];
+  const summary = summariseRows([Float64Array.from(x), Float64Array.from(z), Float64Array.from(cols.y)], null, ['x', 'z', 'y']);
+  const out = compareFromSummary({ summary, response: 'y', candidates: cands, ...policy });
+  if (!('result' in out)) return t.fail('computes');
+  const C = summary.centredCrossProducts;
+  const remaining = (C[1][1] - (C[0][1] * C[0][1]) / C[0][0]) / C[1][1]; // 1 - R² of z on x
+  t.ok(remaining < PIVOT_TOLERANCE, `z's remaining sum-of-squares ratio ${remaining.toExponential(1)} is below the sweep tolerance`);
+  t.same(out.result.models[0].aliased, ['z'], 'so the summary fit aliases z');
+  t.match(out.result.conventions.rank, String(PIVOT_TOLERANCE), 'and the conventions quote the sweep tolerance');
+  t.match(out.result.conventions.rank, /sum of squares/, 'on sums of squares, not norms');
+  const rows = compareModels({ columns: cols, response: 'y', weights: null, candidates: cands, ...policy }, { maxWorkCells: 1e8 });
+  if ('result' in rows) {
+    t.same(rows.result.models[0].aliased, [], 'the rows resolve z');
+    t.notSame(rows.result.conventions.rank, out.result.conventions.rank, 'the rows state their own rule');
+  }
+  t.end();
+});
+
+t.test('a term repeated with a summary is a duplicate, as on the rows', (t) => {
+  const summary = summariseRows(names.map((c) => Float64Array.from(columns[c as keyof typeof columns])), null, names);
+  const cands: CandidateInput[] = [{ form: 'fit', name: 'twice', terms: ['peakTemp', 'moisture', 'peakTemp'], intercept: true }];
+  const out = compareFromSummary({ summary, response: 'shrinkage', candidates: cands, ...policy });
+  const rows = compareModels({ columns, response: 'shrinkage', weights: null, candidates: cands, ...policy }, { maxWorkCells: 1e8 });
+  t.ok('issues' in out && 'issues' in rows);
+  if ('issues' in out && 'issues' in rows) {
+    t.same(out.issues.map((i) => [i.code, i.path.join('/')]), rows.issues.map((i) => [i.code, i.path.join('/')]), 'the same issue at the same path');
+    t.same(out.issues.map((i) => [i.code, i.path.join('/'), (i as { first?: number }).first]), [['duplicate_term', 'candidates/0/terms/2', 0]]);
+  }
+  t.end();
+});
+
+t.test('the summary fingerprint treats -0 as 0, as the rows fingerprint does', (t) => {
+  const summary = summariseRows(names.map((c) => Float64Array.from(columns[c as keyof typeof columns])), null, names);
+  const negative = structuredClone(summary);
+  negative.means[0] = 0;
+  const signed = structuredClone(negative);
+  signed.means[0] = -0;
+  t.equal(summaryFingerprint(signed), summaryFingerprint(negative));
+  const other = structuredClone(negative);
+  other.means[0] = Number.MIN_VALUE;
+  t.not(summaryFingerprint(other), summaryFingerprint(negative), 'a different number still differs');
   t.end();
 });

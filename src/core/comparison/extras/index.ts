@@ -85,7 +85,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   const nested = findNestedTests(
     [...fitted].map(([index, m]) => {
       const c = input.candidates[index];
-      return { name: m.result.name, labels: m.design.labels, fit: m.fit, sample: `${input.sample}|${JSON.stringify(c.response ?? null)}` };
+      return { name: m.result.name, keys: m.design.keys ?? null, fit: m.fit, sample: `${input.sample}|${JSON.stringify(c.response ?? null)}` };
     }),
     options.tests ?? [],
   );
@@ -100,7 +100,14 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   const loo = rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: m.looRmse ?? null })));
   const ranking = input.rankings[input.rankBy];
   const averaged = ranking.some((e) => e.weight !== null)
-    ? averagedModels(models, ranking, input.rankBy, options.average ?? 'all', predictions)
+    ? averagedModels(models, ranking, input.rankBy, options.average ?? 'all', predictions, designKeys(fitted))
     : null;
   return { nestedTests: nested.tests, averaged, loo };
+}
+
+/** Each fitted model's design column keys, by model name. */
+function designKeys(fitted: ReadonlyMap<number, FittedModel>): Map<string, readonly string[]> {
+  const out = new Map<string, readonly string[]>();
+  for (const m of fitted.values()) if (m.design.keys) out.set(m.result.name, m.design.keys);
+  return out;
 }

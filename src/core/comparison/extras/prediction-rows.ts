@@ -72,6 +72,7 @@ export function predictionDesign(
     design: {
       rows: count,
       labels: d.labels,
+      keys: d.keys,
       high: d.high.map((c) => c.slice(n)),
       low: d.low.map((c) => c.slice(n)),
       intercept: d.intercept,
