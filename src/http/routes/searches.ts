@@ -9,6 +9,7 @@ import type { AuditStore } from '../../audit/store.ts';
 import { requestDigest } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import { keptRequest } from '../audit-append.ts';
+import { representableResult } from '../representable.ts';
 import type { Issue } from '../../core/issues.ts';
 import { DEFAULT_SEARCH_BUDGET, planSearch, type BudgetIssue, type SearchBudget } from '../../core/search/index.ts';
 import { prepareSearch, type SearchRequestInput } from '../../core/search/request-problem.ts';
@@ -103,7 +104,11 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
         request.log.info('search abandoned: the client went away');
         return reply;
       }
-      throw error;
+      if (!stream) throw error;
+      // The reply is already a stream: end it with a problem event rather than leave it open.
+      request.log.error({ err: error }, 'search failed');
+      stream.end('problem', problem(500, problemTypes.internal, 'Internal error', `the search failed on the service's own account; quote request id ${request.id} when reporting it`));
+      return reply;
     }
     const elapsedMs = performance.now() - started;
     const fail = (status: 422 | 503, body: Problem): FastifyReply => {
@@ -134,6 +139,8 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
       budget: { ...run.budget, estimatedFlops: run.estimatedFlops, nodes: outcome.nodes, elapsedMs },
       threads: run.threads,
     };
+    const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion });
+    if ('problem' in checked) return fail(422, checked.problem);
     let record;
     try {
       record = await store.append({
@@ -144,19 +151,19 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
         conventionsVersion: report.conventions.version,
         policy: report.policy,
         datasetFingerprint: report.dataset.fingerprint,
-        requestDigest: requestDigest(body),
-        request: keptRequest(config, body),
-        result: answer as unknown as Record<string, unknown>,
+        requestDigest: requestDigest(request.sentBody),
+        request: keptRequest(config, request.sentBody),
+        result: checked.result as unknown as Record<string, unknown>,
       });
     } catch (error) {
       app.metrics?.auditAppendFailures.inc();
       request.log.error({ err: error }, 'audit store refused a search record');
-      reply.header('retry-after', '5');
+      if (!stream) reply.header('retry-after', '5');
       return fail(503, storeProblem());
     }
     app.metrics?.searches.inc();
     app.metrics?.modelsFitted.inc(report.models.length);
-    const result = { id: record.id, createdAt: record.createdAt, serviceVersion, ...answer };
+    const result = { id: record.id, createdAt: record.createdAt, serviceVersion, ...checked.result };
     if (stream) {
       stream.end('result', result);
       return reply;
