@@ -67,7 +67,7 @@ export interface LeastSquaresFit {
   sigma: number | null;
   /** True when the residuals are at rounding level relative to the response. */
   exactFit: boolean;
-  /** 2-norm condition estimate of the equilibrated design the solver factorised. */
+  /** 2-norm condition estimate of the equilibrated design the solver factorised; NaN when no column was accepted (rank 0), reported as null. */
   conditionNumber: number;
   /** Refinement steps taken and the final relative size of the correction. */
   refinement: { steps: number; lastCorrection: number };

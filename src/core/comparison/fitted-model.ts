@@ -36,7 +36,7 @@ export interface ModelResult {
   coefficients: { term: string; estimate: number | null; standardError: number | null }[];
   aliased: string[];
   conditionNumber: number | null;
-  /** Exact leave-one-out: Σ w (e/(1−h))² from the hat matrix, and sqrt(press/n); null fitted elsewhere. */
+  /** Exact leave-one-out: Σ w (e/(1−h))² from the hat matrix, and sqrt(press/Σw); null fitted elsewhere. */
   press: number | null;
   looRmse: number | null;
   /** Assumption checks; null for a model fitted elsewhere (no rows to check). */

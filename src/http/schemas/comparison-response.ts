@@ -51,7 +51,7 @@ export const ModelResult = z
     aliased: z.array(z.string()).meta({ description: 'Design columns that are (numerically) linear combinations of the columns before them; their estimates are null.' }),
     conditionNumber: nullableNumber.meta({ description: 'Condition number estimate of the centred, scaled design the solver factorised.' }),
     press: nullableNumber.meta({ description: 'Exact leave-one-out prediction error sum of squares Σ w (e/(1−h))² from the hat matrix; null fitted elsewhere.' }),
-    looRmse: nullableNumber.meta({ description: 'sqrt(press / n), in units of the response.' }),
+    looRmse: nullableNumber.meta({ description: 'sqrt(press / Σw): the weighted root-mean-square leave-one-out error, in units of the response; sqrt(press / n) without weights.' }),
     diagnostics: Diagnostics.nullable(),
     predictions: z.array(Prediction).nullable(),
     cautions: z.array(Caution),
