@@ -3,12 +3,12 @@
 // and without group commit. Ratios are against single-row SQLite in this run.
 // PostgreSQL rows appear when PARSIMETRY_TEST_PG_URL is set (scripts/postgres.sh start).
 //   npx tsx scripts/bench-audit.ts [appends per scenario, default 3000]
-import pg from 'pg';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { openAuditStore, requestDigest, type AuditStore, type NewRecord } from '../src/audit/open.ts';
+import { dropBenchSchemas } from './bench-pg.ts';
 
 const N = Number(process.argv[2] ?? 3000);
 const PG_URL = process.env.PARSIMETRY_TEST_PG_URL;
@@ -70,12 +70,7 @@ try {
   }
 } finally {
   rmSync(dir, { recursive: true, force: true });
-  if (PG_URL && schemas.length) {
-    const c = new pg.Client({ connectionString: PG_URL });
-    await c.connect();
-    for (const s of schemas) await c.query(`DROP SCHEMA IF EXISTS ${s} CASCADE`);
-    await c.end();
-  }
+  await dropBenchSchemas(PG_URL, schemas);
 }
 
 const base = rows[0].rate;

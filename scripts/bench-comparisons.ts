@@ -5,7 +5,6 @@
 // measured in the same run. First it runs scripts/bench-audit.ts (imported, not
 // copied) for the durable appends per second of the stores alone.
 //   npx tsx scripts/bench-comparisons.ts [comparisons per scenario, default 1000] [appends per store scenario, default 3000] [--comparisons-only]
-import pg from 'pg';
 import { randomBytes, randomUUID } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -14,6 +13,7 @@ import { openAuditStore, type AuditStore, type NewRecord, type StoredRecord } fr
 import { defaultConfig } from '../src/config.ts';
 import { buildApp } from '../src/http/app.ts';
 import { demoComparison } from './demo-data.ts';
+import { dropBenchSchemas } from './bench-pg.ts';
 
 const args = process.argv.slice(2).filter((a) => !a.startsWith('--'));
 const N = Number(args[0] ?? 1000);
@@ -128,12 +128,7 @@ try {
   }
 } finally {
   rmSync(dir, { recursive: true, force: true });
-  if (PG_URL && schemas.length) {
-    const c = new pg.Client({ connectionString: PG_URL });
-    await c.connect();
-    for (const s of schemas) await c.query(`DROP SCHEMA IF EXISTS ${s} CASCADE`);
-    await c.end();
-  }
+  await dropBenchSchemas(PG_URL, schemas);
 }
 
 console.log(`comparisons per second through POST /v1/comparisons (app.inject, ${N} per scenario, each durable chain verified afterwards)`);
