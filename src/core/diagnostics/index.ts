@@ -88,7 +88,7 @@ export function diagnoseFit(
       test: 'Breusch–Pagan (studentised, Koenker)' as const,
       statistic: bp.df > 0 ? bp.statistic : null, df: bp.df, pValue: bp.pValue, alpha: T.alpha,
       passed: bp.pValue === null ? null : bp.pValue >= T.alpha,
-      note: bp.df > 0 ? null : 'The model has no regressors besides the constant, so there is nothing for the variance to depend on.',
+      note: bp.df > 0 ? null : 'The model has no regressor that varies from row to row, so there is nothing for the error variance to depend on.',
     },
     autocorrelation: {
       test: 'Durbin–Watson' as const, statistic: dw, acceptableRange: T.durbinWatsonRange,
