@@ -5,7 +5,7 @@
 
 import { compareTermLists, EXACT_FITS_LISTED } from './tally.ts';
 import { mergeTopModels } from './top-models.ts';
-import type { ScoredSubset, SearchPartial, SearchSettings, WeightSumsData } from './types.ts';
+import type { ScoredSubset, SearchPartial, SearchSettings, SubsetCounts, WeightSumsData } from './types.ts';
 import { mergeWeightSums } from './weight-sums.ts';
 
 export type SearchMethod = 'exhaustive' | 'branchAndBound';
@@ -15,29 +15,15 @@ export interface RankedSubset extends ScoredSubset {
   weight: number;
 }
 
-export interface SearchOutcome {
+export interface SearchOutcome extends SubsetCounts {
   method: SearchMethod;
   criterion: SearchSettings['criterion'];
   /** How rank-deficient subsets were treated (settings.rankDeficient). */
   rankDeficientRule: SearchSettings['rankDeficient'];
-  /** Subsets scored; weights and importance are over exactly these. */
-  evaluated: number;
-  /** All 2^m subsets of the pool. */
+  /** All 2^m subsets of the pool; weights and importance are over the `evaluated` ones. */
   subsets: number;
   /** True when weights and importance cover every admissible subset (no pruning). */
   weightsCoverAllSubsets: boolean;
-  notHierarchical: number;
-  unscorable: number;
-  rankDeficient: number;
-  /** Full-rank subsets passed over: another counted subset spans the same column space. */
-  sameColumnSpace: number;
-  /** Subsets with residuals at rounding level: no criterion value, outside weights, importance and the top list. */
-  exactFits: number;
-  /** The first of them (fewest terms first), pool indices. */
-  exactFitSubsets: number[][];
-  pruned: number;
-  nodes: number;
-  stopped: boolean;
   models: RankedSubset[];
   /** Per pool term (index order). */
   importance: { term: number; weight: number }[];

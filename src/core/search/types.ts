@@ -59,8 +59,8 @@ export interface WeightSumsData {
   perTerm: number[];
 }
 
-/** What one range of the search (a worker's share) reports back. */
-export interface SearchPartial {
+/** How many subsets a search scored or passed over, and why: per range, and for the whole search. */
+export interface SubsetCounts {
   /** Subsets scored (hierarchical, scorable). */
   evaluated: number;
   /** Subsets not hierarchical under the rule, passed over. */
@@ -84,6 +84,10 @@ export interface SearchPartial {
   nodes: number;
   /** True when a node budget stopped the work before it finished. */
   stopped: boolean;
+}
+
+/** What one range of the search (a worker's share) reports back. */
+export interface SearchPartial extends SubsetCounts {
   top: ScoredSubset[];
   sums: WeightSumsData;
 }

@@ -74,10 +74,10 @@ export const StoredComparison = z
     conventionsVersion: z.string(),
     policy: z.strictObject({ name: z.string(), hash: z.string() }).nullable(),
     datasetFingerprint: z.string().nullable(),
-    requestDigest: hex64.meta({ description: 'SHA-256 of the canonical request; kept also when the request itself is not.' }),
+    requestDigest: hex64.meta({ description: 'SHA-256 of the canonical JSON (RFC 8785) of the request body exactly as sent; kept also when the body itself is not.' }),
     requestSummary: RequestSummary.nullable().meta({ description: 'null when only the request digest was kept.' }),
     request: jsonObject.nullable().meta({
-      description: 'The request as validated (defaults filled in), or null when only its digest was kept.',
+      description: 'The request body exactly as sent (before any default is filled in), or null when only its digest was kept (AUDIT_REQUESTS=digest).',
     }),
     // A record written by an older service version keeps the shape that version
     // answered with, so the record always reads back, even after the schema moves on.
