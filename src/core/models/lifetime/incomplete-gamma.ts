@@ -32,7 +32,15 @@ export interface GammaTail {
 }
 
 const RELATIVE_TOLERANCE = 1e-16;
-const MAX_TERMS = 200_000;
+/**
+ * The continued fraction's convergents stop changing at rounding level, not
+ * below it: its value is settled at a change of 1e-15 of itself and its
+ * derivatives (carried through longer recurrences) at 1e-13, which is far
+ * below what the likelihood's derivatives need and well above their noise.
+ */
+const FRACTION_TOLERANCE = 1e-15;
+const FRACTION_DERIVATIVE_TOLERANCE = 1e-13;
+const MAX_TERMS = 100_000;
 
 /** ln(x^κ e^-x / Γ(κ)), the log of x times the standard gamma density at x. */
 export function logGammaKernel(shape: number, x: number): number {
@@ -106,9 +114,9 @@ function upperByContinuedFraction(shape: number, x: number): GammaTail {
     const nfd = a1d - nf * b1d;
     const nfdd = a1dd - 2 * nfd * b1d - nf * b1dd;
     const settled = k > 2
-      && Math.abs(nf - f) <= RELATIVE_TOLERANCE * Math.abs(nf)
-      && Math.abs(nfd - fd) <= RELATIVE_TOLERANCE * (Math.abs(nfd) + Math.abs(nf))
-      && Math.abs(nfdd - fdd) <= RELATIVE_TOLERANCE * (Math.abs(nfdd) + Math.abs(nf));
+      && Math.abs(nf - f) <= FRACTION_TOLERANCE * Math.abs(nf)
+      && Math.abs(nfd - fd) <= FRACTION_DERIVATIVE_TOLERANCE * (Math.abs(nfd) + Math.abs(nf))
+      && Math.abs(nfdd - fdd) <= FRACTION_DERIVATIVE_TOLERANCE * (Math.abs(nfdd) + Math.abs(nf));
     f = nf; fd = nfd; fdd = nfdd;
     if (settled) break;
   }
