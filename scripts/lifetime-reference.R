@@ -9,7 +9,8 @@
 #   standard errors. Tight convergence (rel.tolerance 1e-13).
 # - survfit-nonparametric.json: survival::survfit Kaplan–Meier with
 #   conf.type = "log-log" on the exact/right-censored data, and the
-#   interval-censored (Turnbull) estimate on the mixed data.
+#   interval-censored (Turnbull) estimate on the mixed data and on the
+#   overlapping inspection windows of seal-inspections.csv.
 library(survival)
 out_dir <- file.path(dirname(sub("^--file=", "", grep("^--file=", commandArgs(FALSE), value = TRUE))), "..", "test", "reference", "lifetime")
 d <- read.csv(file.path(out_dir, "solder-joints.csv"), stringsAsFactors = FALSE)
@@ -48,10 +49,15 @@ writeLines(paste0("{\n \"source\": \"survival::survreg, formula ~ I(1/kelvin) + 
 km <- survfit(Surv(rightOnlyCycles, rightOnlyStatus == "exact") ~ 1, data = d, conf.type = "log-log")
 k <- km$n.event > 0
 tb <- survfit(Surv(t1, t2, type = "interval2") ~ 1, data = d)
+seals <- read.csv(file.path(out_dir, "seal-inspections.csv"), stringsAsFactors = FALSE)
+s1 <- ifelse(seals$status == "left", NA, seals$day)
+s2 <- ifelse(seals$status == "right", NA, ifelse(seals$status == "interval", seals$upper, seals$day))
+sb <- survfit(Surv(s1, s2, type = "interval2") ~ 1)
 writeLines(paste0("{\n \"source\": \"survival::survfit: Kaplan-Meier (conf.type log-log, std.err of -log S) on rightOnlyCycles; interval-censored (Turnbull) estimate on the mixed data\",\n",
                   " \"versions\": ", versions, ",\n",
                   " \"kaplanMeier\": ", obj(time = vec(km$time[k]), atRisk = vec(km$n.risk[k]), failures = vec(km$n.event[k]), survival = vec(km$surv[k]),
                                            logStandardError = vec(km$std.err[k]), lower = vec(km$lower[k]), upper = vec(km$upper[k])), ",\n",
-                  " \"turnbull\": ", obj(time = vec(tb$time), survival = vec(tb$surv)), "\n}"),
+                  " \"turnbull\": ", obj(time = vec(tb$time), survival = vec(tb$surv)), ",\n",
+                  " \"sealsTurnbull\": ", obj(time = vec(sb$time), survival = vec(sb$surv)), "\n}"),
            file.path(out_dir, "survfit-nonparametric.json"))
 cat("wrote", out_dir, "\n")

@@ -214,7 +214,7 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
       no_ascent: 'no step along the Newton direction increased the likelihood, short of the convergence rule.',
       information_singular: 'the observed information is singular at the estimates, so they are not determined (too few failures for the parameters, or a term that does not vary among the failures).',
       scale_collapsed: 'the scale shrank towards zero, so the likelihood has no maximum (the failures are too few or coincide).',
-      estimates_diverge: 'the estimates grew without limit (for example a factor level or a range of a term with no failures, or every failure before every censored unit).',
+      estimates_diverge: 'the likelihood keeps rising as the estimates grow without limit (for example a factor level or a range of a term with no failures, or every failure before every censored unit).',
     }[f.reason];
     return `${at} (${JSON.stringify(f.name)}, ${f.distribution}) did not reach a maximum of its likelihood after ${f.iterations} Newton–Raphson iterations: ${why}`;
   },

@@ -26,10 +26,18 @@ export interface LifetimeCandidate {
   design: DesignMatrix;
 }
 
-/** Below this log scale (in units of the data's spread) the scale has collapsed: σ' < 2e-9. */
-const COLLAPSED_LOG_SCALE = -20;
+/** Below this log scale (in units of the data's spread) the scale has collapsed: σ' < 6e-6, far below any real scatter of lives. */
+const COLLAPSED_LOG_SCALE = -12;
 /** Beyond this size a standardised coefficient (spreads of y per spread of x) is running away. */
 const DIVERGED_COEFFICIENT = 30;
+/**
+ * A standardised standard error above this means the data do not bound the
+ * coefficient: the likelihood flattens as it grows (e.g. a factor level
+ * whose units all outlived the test), so Newton's decrement vanishes before
+ * any maximum. Real data pin a standardised coefficient to about
+ * 1/sqrt(failures), far below 1.
+ */
+const UNBOUNDED_STANDARD_ERROR = 1e3;
 
 function contributionsOf(distribution: Distribution): Contributions {
   const form = distribution.form;
@@ -128,23 +136,26 @@ export function fitLifetime(
   }
   const result = outcome!;
   const p = standardised.columns.length;
+  const m = p + (extraFree ? 1 : 0);
   const collapsed = extraFree && form.kind === 'locationScale' && result.theta[p] < COLLAPSED_LOG_SCALE;
-  if (!result.converged || collapsed) {
-    const diverged = result.theta.slice(0, p).some((g) => Math.abs(g) > DIVERGED_COEFFICIENT);
-    const reason = collapsed || result.reason === null ? 'scale_collapsed' : diverged ? 'estimates_diverge' : result.reason;
+  const fitCovariance = result.information ? choleskyInverse(result.information, m) : null;
+  const unbounded = fitCovariance !== null && Array.from({ length: p }, (_, j) => fitCovariance[j * m + j])
+    .some((v) => !(v <= UNBOUNDED_STANDARD_ERROR * UNBOUNDED_STANDARD_ERROR));
+  if (!result.converged || collapsed || unbounded) {
+    const diverged = unbounded || result.theta.slice(0, p).some((g) => Math.abs(g) > DIVERGED_COEFFICIENT);
+    const reason = collapsed ? 'scale_collapsed' : diverged ? 'estimates_diverge' : result.reason ?? 'estimates_diverge';
     return {
       issues: [issue('lifetime_not_converged', at, { name: candidate.name, distribution: distribution.name, iterations, reason })],
     };
   }
   const map = backTransform(standardised, scaling, extraFree);
-  const m = map.dimension;
   const theta = new Float64Array(m);
   for (let i = 0; i < m; i++) {
     let v = map.offset[i];
     for (let j = 0; j < m; j++) v += map.jacobian[i * m + j] * result.theta[j];
     theta[i] = v;
   }
-  const covariance = congruence(map.jacobian, m, m, choleskyInverse(result.information!, m));
+  const covariance = congruence(map.jacobian, m, m, fitCovariance!);
   // The fit's log-likelihood is of y' = (y - centre)/spread: each exact row's
   // density gains -ln spread on the scale of y, and -ln t more on the time scale.
   const logLikelihoodOfY = result.at.value - onScale.exactCount * Math.log(scaling.spread);

@@ -6,7 +6,7 @@
 // Householder QR), so agreement to 1e-10 checks both. Data: the bearing
 // endurances, the solder-joint cycles as a measurement with three terms,
 // and NIST's Longley (ill-conditioned, six regressors; test/reference/nist).
-import t from 'tap';
+import t, { type Test } from 'tap';
 import { fitLeastSquares } from '../../../../src/core/fit/index.ts';
 import { gaussianLogLikelihood } from '../../../../src/core/likelihood.ts';
 import { fitLifetime, uncensoredResponse } from '../../../../src/core/models/lifetime/index.ts';
@@ -14,7 +14,7 @@ import type { DesignMatrix } from '../../../../src/core/types.ts';
 import { loadStrd, strdDesign } from '../../../reference/nist/strd.ts';
 import { bearings, design, relativeError, solderJoints, SOLDER_TERMS } from './fixtures.ts';
 
-function compare(t: Tap.Test, label: string, X: DesignMatrix, y: Float64Array) {
+function compare(t: Test, label: string, X: DesignMatrix, y: Float64Array) {
   const ls = fitLeastSquares(X, y);
   const want = gaussianLogLikelihood({ n: ls.observations, rss: ls.rss })!;
   const rows = Array.from(y, (_, i) => i);
