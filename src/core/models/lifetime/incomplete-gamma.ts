@@ -47,6 +47,17 @@ export function logGammaKernel(shape: number, x: number): number {
   return shape * Math.log(x) - x - gammaln(shape);
 }
 
+/**
+ * The tail e^L · V from its log prefix L (with L', L'') and the sum or
+ * fraction V (with V', V''): ln X = L + ln V, X'/X = L' + V'/V,
+ * X''/X = L'² + L'' + 2 L' V'/V + V''/V.
+ */
+function withPrefix(prefix: number, dPrefix: number, d2Prefix: number, v: number, dv: number, d2v: number): GammaTail {
+  const r1 = dv / v;
+  const r2 = d2v / v;
+  return { log: prefix + Math.log(v), d1: dPrefix + r1, d2: dPrefix * dPrefix + d2Prefix + 2 * dPrefix * r1 + r2 };
+}
+
 function lowerBySeries(shape: number, x: number): GammaTail {
   const lnX = Math.log(x);
   const prefix = shape * lnX - x - gammaln(shape + 1);
@@ -70,13 +81,7 @@ function lowerBySeries(shape: number, x: number): GammaTail {
     s2 += t2;
     if (term <= RELATIVE_TOLERANCE * s0 && Math.abs(t1) <= RELATIVE_TOLERANCE * Math.abs(s1) && t2 <= RELATIVE_TOLERANCE * s2) break;
   }
-  const r1 = s1 / s0;
-  const r2 = s2 / s0;
-  return {
-    log: prefix + Math.log(s0),
-    d1: dPrefix + r1,
-    d2: dPrefix * dPrefix + d2Prefix + 2 * dPrefix * r1 + r2,
-  };
+  return withPrefix(prefix, dPrefix, d2Prefix, s0, s1, s2);
 }
 
 /**
@@ -120,13 +125,7 @@ function upperByContinuedFraction(shape: number, x: number): GammaTail {
     f = nf; fd = nfd; fdd = nfdd;
     if (settled) break;
   }
-  const r1 = fd / f;
-  const r2 = fdd / f;
-  return {
-    log: prefix + Math.log(f),
-    d1: dPrefix + r1,
-    d2: dPrefix * dPrefix + d2Prefix + 2 * dPrefix * r1 + r2,
-  };
+  return withPrefix(prefix, dPrefix, d2Prefix, f, fd, fdd);
 }
 
 /** The complement 1 - X of a tail X, with its κ-derivatives -X_κ and -X_κκ rescaled to the complement. */

@@ -11,6 +11,7 @@
 // usual χ² reference applies (common practice; Wilks 1938).
 import { chiSquareUpperTail } from '../../inference/distributions.ts';
 import type { StatisticsIssue } from '../../inference/issue.ts';
+import { collectNestedTests, type NestedPairRequest } from '../../inference/nested-pairs.ts';
 import type { DistributionName } from './distributions.ts';
 
 export interface LifetimeNestingCandidate {
@@ -84,50 +85,20 @@ export function lifetimeLikelihoodRatioTest(
 
 /**
  * Every nested pair among the candidates, plus the pairs a request names
- * (options.tests); a named pair that is not nested, or names a candidate
- * that is not a fitted lifetime candidate, becomes an issue.
+ * (options.tests): see inference/nested-pairs.ts.
  */
 export function lifetimeNestedTests(
   candidates: readonly LifetimeNestingCandidate[],
-  requested: readonly { smaller: string; larger: string }[] = [],
+  requested: readonly NestedPairRequest[] = [],
 ): { tests: LifetimeLikelihoodRatioTest[]; issues: StatisticsIssue[] } {
-  const tests: LifetimeLikelihoodRatioTest[] = [];
-  const issues: StatisticsIssue[] = [];
-  const seen = new Set<string>();
-  const add = (order: NonNullable<ReturnType<typeof lifetimeNestingOrder>>) => {
-    const key = JSON.stringify([order.smaller.name, order.larger.name]);
-    if (seen.has(key)) return;
-    seen.add(key);
-    tests.push(lifetimeLikelihoodRatioTest(order.smaller, order.larger, order.restriction));
-  };
-  for (let i = 0; i < candidates.length; i++) {
-    for (let j = i + 1; j < candidates.length; j++) {
-      const order = lifetimeNestingOrder(candidates[i], candidates[j]);
-      if (order) add(order);
-    }
-  }
-  const byName = new Map(candidates.map((c) => [c.name, c]));
-  for (const pair of requested) {
-    const a = byName.get(pair.smaller);
-    const b = byName.get(pair.larger);
-    if (!a || !b) {
-      issues.push({
-        code: 'nested-test-unknown-candidate',
-        message: 'A requested nested test names a candidate that is not a fitted lifetime candidate.',
-        facts: { smaller: pair.smaller, larger: pair.larger, missing: !a ? pair.smaller : pair.larger },
-      });
-      continue;
-    }
-    const order = lifetimeNestingOrder(a, b);
-    if (!order) {
-      issues.push({
-        code: 'nested-test-not-nested',
-        message: `Neither of "${a.name}" (${a.distribution}) and "${b.name}" (${b.distribution}) is a special case of the other on the same observations: a lifetime model nests another only with the same distribution and a subset of its terms, or as the exponential inside a Weibull or gamma with a subset of its terms.`,
-        facts: { smaller: pair.smaller, larger: pair.larger },
-      });
-      continue;
-    }
-    add(order);
-  }
-  return { tests, issues };
+  return collectNestedTests(candidates, requested, {
+    order: lifetimeNestingOrder,
+    test: (order) => lifetimeLikelihoodRatioTest(order.smaller, order.larger, order.restriction),
+    notNested: (pair, a, b) => ({
+      code: 'nested-test-not-nested',
+      message: `Neither of "${a.name}" (${a.distribution}) and "${b.name}" (${b.distribution}) is a special case of the other on the same observations: a lifetime model nests another only with the same distribution and a subset of its terms, or as the exponential inside a Weibull or gamma with a subset of its terms.`,
+      facts: { smaller: pair.smaller, larger: pair.larger },
+    }),
+    unknownCandidate: 'A requested nested test names a candidate that is not a fitted lifetime candidate.',
+  });
 }

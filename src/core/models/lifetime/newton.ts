@@ -87,9 +87,8 @@ export function maximiseByNewton(objective: Objective, start: Float64Array, maxI
   // more than its rounding, with the information recomputed where it lands.
   const finish = (iteration: number, step: Float64Array, factor: Float64Array, decrement: number): NewtonOutcome => {
     const trial = theta.map((v, j) => v + step[j]);
-    const value = objective.value(trial);
-    if (Number.isFinite(value) && value >= at.value - 1e-12 * Math.max(1, Math.abs(at.value))) {
-      const there = objective.derivatives(trial);
+    const there = objective.derivatives(trial);
+    if (Number.isFinite(there.value) && there.value >= at.value - 1e-12 * Math.max(1, Math.abs(at.value))) {
       const information = cholesky(there.hessian.map((v) => -v), m);
       if (information) {
         const last = dot(there.gradient, choleskySolve(information, m, there.gradient));
@@ -111,13 +110,19 @@ export function maximiseByNewton(objective: Objective, start: Float64Array, maxI
     for (let j = 0; j < m; j++) largest = Math.max(largest, Math.abs(step[j]));
     if (largest > MAX_STEP) for (let j = 0; j < m; j++) step[j] *= MAX_STEP / largest;
     const slope = dot(at.gradient, step);
+    // The full step is usually accepted, so it is evaluated with its
+    // derivatives at once (one pass over the rows instead of two); shorter
+    // steps need only the value until one is accepted.
     let alpha = 1;
     let accepted: Float64Array | null = null;
+    let acceptedAt: Derivatives | null = null;
     for (let k = 0; k < MAX_HALVINGS; k++, alpha /= 2) {
       const trial = theta.map((v, j) => v + alpha * step[j]);
-      const value = objective.value(trial);
+      const full = k === 0 ? objective.derivatives(trial) : null;
+      const value = full ? full.value : objective.value(trial);
       if (Number.isFinite(value) && value >= at.value + ARMIJO * alpha * slope) {
         accepted = trial;
+        acceptedAt = full;
         break;
       }
     }
@@ -126,6 +131,6 @@ export function maximiseByNewton(objective: Objective, start: Float64Array, maxI
       return stop('no_ascent', iteration, decrement);
     }
     theta = accepted;
-    at = objective.derivatives(theta);
+    at = acceptedAt ?? objective.derivatives(theta);
   }
 }

@@ -4,6 +4,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { buildDesign } from '../../../../src/core/design/index.ts';
+import { seededUniform as demoUniform } from '../../../../scripts/demo-data.ts';
 import type { Columns, DesignMatrix, Term } from '../../../../src/core/types.ts';
 import { censoredResponse, type CensoredResponse, type CensoringColumns } from '../../../../src/core/models/lifetime/index.ts';
 
@@ -57,14 +58,11 @@ export function relativeError(a: number, b: number): number {
   return b === 0 ? Math.abs(a) : Math.abs(a - b) / Math.abs(b);
 }
 
-/** A small seeded generator (mulberry32) so simulations are repeatable. */
+/**
+ * The demo's seeded generator (scripts/demo-data.ts, mulberry32), moved off
+ * 0 by half a step: the simulations take ln(-ln U).
+ */
 export function seededUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return (((t ^ (t >>> 14)) >>> 0) + 0.5) / 4294967296;
-  };
+  const uniform = demoUniform(seed);
+  return () => uniform() + 0.5 / 4294967296;
 }
