@@ -202,7 +202,7 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   lifetime_distribution_unknown: (f, at) =>
     `${at} asks for distribution ${JSON.stringify(f.distribution)}, which is not one of ${quoteList(f.known)}.`,
   lifetime_time_not_positive: (f, at) =>
-    `${at} is ${JSON.stringify(f.distribution)}, a distribution of positive time, but column ${JSON.stringify(f.column)} holds ${f.value} at row ${f.row} (a ${f.status} observation); use a distribution on the time scale (normal, logistic, smallestExtremeValue) or correct the time.`,
+    `${at} is ${JSON.stringify(f.distribution)}, a distribution of positive time, but column ${JSON.stringify(f.column)} holds ${f.value} at row ${f.row} (${({ exact: 'an exact failure', right: 'a right-censored unit', left: 'a left-censored unit', interval: 'the start of an interval' } as Record<string, string>)[f.status] ?? f.status}); use a distribution on the time scale (normal, logistic, smallestExtremeValue) or correct the time.`,
   lifetime_no_failures: (f, at) =>
     `${at}: all ${f.rows} units are right-censored, so no unit failed and the likelihood keeps growing as the life grows; ${quoteList(f.notEstimable)} cannot be estimated. A life model needs at least one failure (an exact, left- or interval-censored row).`,
   lifetime_only_left_censored: (f, at) =>

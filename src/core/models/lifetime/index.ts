@@ -9,7 +9,7 @@ export type { LifetimeFit } from './lifetime-result.ts';
 export { checkLifetimeOptions, DEFAULT_INTERVAL_LEVEL, DEFAULT_MAX_ITERATIONS, type LifetimeOptions } from './options.ts';
 export type { LifePercentile, LifeSurvival, LifetimeEstimates } from './life-quantities.ts';
 export { predictLifetime, coxSnellResiduals, fittedDistributionCurve, type LifetimeRowPrediction, type LifetimePredictionRequest } from './lifetime-predict.ts';
-export { lifetimeNestedTests, lifetimeNestingOrder, type LifetimeLikelihoodRatioTest, type LifetimeNestingCandidate } from './nested.ts';
+export { lifetimeNestedTests, lifetimeNestingOrder, nestingCandidateOf, type LifetimeLikelihoodRatioTest, type LifetimeNestingCandidate } from './nested.ts';
 export { nonparametricEstimate, kaplanMeier, turnbull, type KaplanMeierEstimate, type TurnbullEstimate } from './nonparametric/index.ts';
 export { priceLifetime, priceNonparametric, type LifetimeShape } from './pricing.ts';
 export { LIFETIME_CONVENTIONS } from './conventions.ts';

@@ -12,7 +12,9 @@
 import { chiSquareUpperTail } from '../../inference/distributions.ts';
 import type { StatisticsIssue } from '../../inference/issue.ts';
 import { collectNestedTests, type NestedPairRequest } from '../../inference/nested-pairs.ts';
+import type { DesignMatrix } from '../../types.ts';
 import type { DistributionName } from './distributions.ts';
+import type { LifetimeFit } from './lifetime-result.ts';
 
 export interface LifetimeNestingCandidate {
   name: string;
@@ -34,6 +36,14 @@ export interface LifetimeLikelihoodRatioTest {
   df: number;
   lrStatistic: number;
   pValue: number;
+}
+
+/** The facts nesting needs from a fitted candidate; `sample` identifies its observations (response, censoring, rows). */
+export function nestingCandidateOf(fit: LifetimeFit, design: DesignMatrix, sample: string): LifetimeNestingCandidate {
+  return {
+    name: fit.name, distribution: fit.distribution, keys: design.keys ?? null, parameters: fit.parameters,
+    logLikelihood: fit.logLikelihood, observations: fit.observations, sample,
+  };
 }
 
 const SPECIAL_CASES: Partial<Record<DistributionName, { inside: DistributionName; restriction: string }[]>> = {

@@ -56,7 +56,7 @@ t.test('a distribution of positive time refuses a time of 0 or less; the time-sc
   if ('issues' in f) {
     t.equal(f.issues[0].code, 'lifetime_time_not_positive');
     t.same(f.issues[0].path, ['candidates', 2, 'distribution']);
-    t.match(f.issues[0].message, /holds -5 at row 1 \(a exact observation\)|holds -5 at row 1/);
+    t.match(f.issues[0].message, /holds -5 at row 1 \(an exact failure\)/);
   }
   // An interval from 0 is a unit found failed at its first inspection: allowed.
   const ok = censoredResponse({ ...c, hours: [120, 5, 410, 0, 95] }, 'hours', { status: 'state', upper: 'until' }, [0, 1, 2, 3, 4]);

@@ -4,7 +4,7 @@
 // log-likelihoods (test/reference/lifetime/survreg-aft.json); the χ² tail
 // against a closed form.
 import t from 'tap';
-import { fitLifetime, lifetimeNestedTests, type LifetimeNestingCandidate } from '../../../../src/core/models/lifetime/index.ts';
+import { fitLifetime, lifetimeNestedTests, nestingCandidateOf, type LifetimeNestingCandidate } from '../../../../src/core/models/lifetime/index.ts';
 import type { Term } from '../../../../src/core/types.ts';
 import { design, readReference, relativeError, response, solderJoints, SOLDER_TERMS } from './fixtures.ts';
 
@@ -15,7 +15,7 @@ function candidate(name: string, distribution: string, terms: Term[]): LifetimeN
   const X = design(columns, terms);
   const f = fitLifetime({ name, distribution, design: X }, data);
   if ('issues' in f) throw new Error(JSON.stringify(f.issues));
-  return { name, distribution: f.distribution, keys: X.keys!, parameters: f.parameters, logLikelihood: f.logLikelihood, observations: f.observations, sample: 'solder' };
+  return nestingCandidateOf(f, X, 'solder');
 }
 
 const all = [
