@@ -13,7 +13,8 @@
 #    exist), and the log-likelihood as the sum of scipy.stats logpdf at them.
 # 2. incomplete-gamma-mpmath.json: ln P(κ, x), ln Q(κ, x) and their first and
 #    second κ-derivatives relative to the function (X_κ/X, X_κκ/X), by
-#    mpmath at 40 digits (mpmath.diff of the regularised gammainc).
+#    mpmath at 40 digits (mpmath.diff of the regularised gammainc); and
+#    standard gamma quantiles by scipy.special.gammaincinv.
 # 3. normal-tail-mpmath.json: ln P(Z > z) and the hazard excess λ(z) - z of
 #    the standard normal far into both tails, by mpmath.
 # 4. solder-joints.csv: a seeded simulated accelerated life test of our own
@@ -125,7 +126,9 @@ def incomplete_gamma():
             v = f(k)
             row[name] = {'log': float(mp.log(v)), 'd1': float(mp.diff(f, k) / v), 'd2': float(mp.diff(f, k, 2) / v)}
         rows.append(row)
-    return {'source': 'mpmath regularised gammainc at 40 digits; derivatives in the shape by mpmath.diff', 'versions': VERSIONS, 'rows': rows}
+    quantiles = [{'shape': k, 'p': p, 'x': float(special.gammaincinv(k, p))} for k, p in [(1000.0, 0.1), (1000.0, 0.9), (3.0, 0.01), (0.3, 0.99), (50.0, 0.5)]]
+    return {'source': 'mpmath regularised gammainc at 40 digits; derivatives in the shape by mpmath.diff; quantiles by scipy.special.gammaincinv',
+            'versions': VERSIONS, 'rows': rows, 'quantiles': quantiles}
 
 def normal_tail():
     mp.mp.dps = 50

@@ -126,11 +126,10 @@ export function fitLifetime(
   const rootMeanSquare = Math.sqrt(leastSquares.rss / n);
   // A second start (the location without its terms) when the first fails:
   // heavy censoring can put least squares far from the maximum.
-  const starts = [lsCoefficients, lsCoefficients.map((b, k) => (k === standardised.intercept ? b : 0))];
   let outcome: NewtonOutcome | null = null;
   let iterations = 0;
-  for (const start of starts) {
-    outcome = maximiseByNewton(objective, startingValues(distribution, start, rootMeanSquare, standardised, scaling), cap);
+  for (const withSlopes of [true, false]) {
+    outcome = maximiseByNewton(objective, startingValues(distribution, lsCoefficients, rootMeanSquare, standardised, scaling, withSlopes), cap);
     iterations += outcome.iterations;
     if (outcome.converged) break;
   }

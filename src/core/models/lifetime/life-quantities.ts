@@ -14,6 +14,7 @@ import { incompleteGammaTails, logGammaKernel } from './incomplete-gamma.ts';
 import { bilinear } from './small-matrix.ts';
 import { normalLaw } from './standard-families.ts';
 import gammaincinv from '@stdlib/math-base-special-gammaincinv';
+import log1p from '@stdlib/math-base-special-log1p';
 
 export interface LifetimeEstimates {
   distribution: DistributionName;
@@ -67,9 +68,27 @@ function standardError(estimates: LifetimeEstimates, g: Float64Array): number | 
   return v >= 0 && Number.isFinite(v) ? Math.sqrt(v) : null;
 }
 
-/** ln x_p of the standard gamma and d ln x_p / d ln κ (implicit differentiation of P(κ, x_p) = p). */
+/**
+ * ln x_p of the standard gamma and d ln x_p / d ln κ (implicit
+ * differentiation of P(κ, x_p) = p). @stdlib's inverse starts it; a few
+ * Newton steps on ln x against our own P (or Q above the median) finish it,
+ * since @stdlib's incomplete gamma loses digits at large shapes.
+ */
 function gammaQuantile(shape: number, p: number): { log: number; slope: number } {
-  const x = p <= 0.5 ? gammaincinv(p, shape) : gammaincinv(1 - p, shape, true);
+  const lower = p <= 0.5;
+  let x = lower ? gammaincinv(p, shape) : gammaincinv(1 - p, shape, true);
+  const target = lower ? Math.log(p) : log1p(-p);
+  for (let k = 0; k < 4 && x > 0 && Number.isFinite(x); k++) {
+    const tails = incompleteGammaTails(shape, x);
+    const tail = lower ? tails.lower : tails.upper;
+    // d ln P / d ln x = x g(x) / P = e^{K(x) - ln P}; for Q the same with a minus sign.
+    const slope = (lower ? 1 : -1) * Math.exp(logGammaKernel(shape, x) - tail.log);
+    const next = x * Math.exp(-(tail.log - target) / slope);
+    if (!(next > 0) || !Number.isFinite(next)) break;
+    const done = Math.abs(next - x) <= 1e-15 * x;
+    x = next;
+    if (done) break;
+  }
   const tails = incompleteGammaTails(shape, x);
   // P_κ from the smaller tail: P_κ = P d1(P) = -Q d1(Q).
   const dP = tails.lower.log < tails.upper.log
@@ -115,6 +134,8 @@ export function survivalAt(estimates: LifetimeEstimates, x: ArrayLike<number>, t
     const u = Math.exp(y - mu);
     const upper = incompleteGammaTails(shape, u).upper;
     const logS = upper.log;
+    // S rounds to 1 this early: nothing to put an interval around.
+    if (!(logS < 0)) return { time, estimate: 1, lower: 1, upper: 1 };
     // η = ln(-ln S); ∂ ln S/∂μ = e^{K(u)}/Q, ∂ ln S/∂ ln κ = κ Q_κ/Q.
     const dMu = Math.exp(logGammaKernel(shape, u) - logS);
     const g = gradient(estimates, x, dMu / logS, (shape * upper.d1) / logS);

@@ -26,7 +26,8 @@ export function gammaShapeForLogVariance(variance: number): number {
 /**
  * θ' = (γ, s') in the fit's coordinates, from least-squares coefficients
  * (on the data's scale, over the estimable columns) and the root mean
- * square residual of that fit.
+ * square residual of that fit; `withSlopes` false keeps only the location
+ * (a second start when the first fails).
  */
 export function startingValues(
   distribution: Distribution,
@@ -34,8 +35,11 @@ export function startingValues(
   rootMeanSquare: number,
   design: StandardisedDesign,
   scaling: ResponseScaling,
+  withSlopes = true,
 ): Float64Array {
   const gamma = toFitCoordinates(design, scaling, leastSquares);
+  // Without slopes: the columns are centred, so the intercept alone is the fitted mean.
+  if (!withSlopes) gamma.forEach((_, j) => { if (j !== design.intercept) gamma[j] = 0; });
   const p = gamma.length;
   const spread = rootMeanSquare / scaling.spread;
   const form = distribution.form;

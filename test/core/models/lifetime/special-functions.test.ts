@@ -8,6 +8,7 @@ import { normalHazardExcess, normalLogSurvival } from '../../../../src/core/mode
 import { logisticLaw, normalLaw, smallestExtremeValueLaw } from '../../../../src/core/models/lifetime/standard-families.ts';
 import { logIntervalProbability } from '../../../../src/core/models/lifetime/location-scale-likelihood.ts';
 import { gammaIntervalProbability } from '../../../../src/core/models/lifetime/gamma-likelihood.ts';
+import { percentileAt } from '../../../../src/core/models/lifetime/life-quantities.ts';
 import { readReference, relativeError } from './fixtures.ts';
 
 t.test('incomplete gamma tails and their shape derivatives equal mpmath', async (t) => {
@@ -77,4 +78,14 @@ t.test('interval probabilities keep their digits in either tail', async (t) => {
   const q = (x: number) => Math.log1p(x) - x;
   const g = gammaIntervalProbability(2, 60, 61);
   t.ok(relativeError(g.log, q(60) + Math.log(-Math.expm1(q(61) - q(60)))) < 1e-13, `gamma ln D ${g.log}`);
+});
+
+t.test('gamma percentiles equal scipy.special.gammaincinv, large shapes included', async (t) => {
+  // percentileAt at μ = 0 (scale 1) and no uncertainty gives the standard gamma quantile x_p.
+  const ref = readReference('incomplete-gamma-mpmath.json');
+  for (const q of ref.quantiles) {
+    const estimates = { distribution: 'gamma' as const, estimable: [0], coefficients: Float64Array.of(0), extra: Math.log(q.shape), covariance: new Float64Array(4), dimension: 2 };
+    const got = percentileAt(estimates, [1], q.p, 1.96).estimate;
+    t.ok(relativeError(got, q.x) < 1e-12, `x_${q.p} at shape ${q.shape}: ${got} vs ${q.x}`);
+  }
 });
