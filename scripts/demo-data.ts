@@ -6,7 +6,7 @@
 // Hold time has no effect at all; a candidate that uses it is over-fitted.
 
 /** mulberry32: a tiny seeded generator, so the demo prints the same table every run. */
-function seededUniform(seed: number): () => number {
+export function seededUniform(seed: number): () => number {
   let a = seed >>> 0;
   return () => {
     a = (a + 0x6d2b79f5) >>> 0;

@@ -64,6 +64,23 @@ export interface IssueFacts {
   /** With hierarchy, an always term needs a lower-order term that is not in always. */
   hierarchy_always_incomplete: { label: string; needs: string; inPool: boolean };
   nested_test_invalid: { reason: string };
+  // Lifetime distributions and censored observations (src/core/models/lifetime).
+  censoring_status_unknown: { column: string; row: number; value: string };
+  /** column null: the request names no upper column at all. */
+  censoring_upper_missing: { column: string | null; row: number };
+  censoring_upper_not_numeric: { column: string; row: number; value: string };
+  censoring_upper_not_above: { column: string; row: number; lower: number; upper: number };
+  lifetime_distribution_unknown: { distribution: string; known: string[] };
+  lifetime_time_not_positive: { column: string; row: number; value: number; status: string; distribution: string };
+  lifetime_no_failures: { rows: number; notEstimable: string[] };
+  lifetime_only_left_censored: { rows: number; notEstimable: string[] };
+  lifetime_option_invalid: { option: string; value: number; rule: string };
+  lifetime_not_converged: {
+    name: string;
+    distribution: string;
+    iterations: number;
+    reason: 'iteration_limit' | 'no_ascent' | 'information_singular' | 'scale_collapsed' | 'estimates_diverge';
+  };
 }
 
 export type IssueCode = keyof IssueFacts;
@@ -171,7 +188,36 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
       ? `${at} (${f.label}) is in every model, and under the hierarchy rule it needs ${f.needs}, which is in the pool and so missing from some subsets; move ${f.needs} to always, or set hierarchy to false.`
       : `${at} (${f.label}) is in every model, and under the hierarchy rule it needs ${f.needs}, which is in neither the pool nor always, so no subset is admissible; add ${f.needs} to always, or set hierarchy to false.`,
   search_over_budget: (f, at) =>
-    `${at}: the search is beyond its compute budget ${f.budget} = ${f.limit} (this pool of ${f.poolTerms} terms needs ${f.required}); narrow the pool or move terms to always.`,
+    `${at}: the search is beyond its compute budget ${f.budget} = ${f.limit} (this pool of ${f.poolTerms} terms needs ${f.required}); narrow the pool or move terms to always.`,  // Lifetime distributions and censored observations (src/core/models/lifetime).
+  censoring_status_unknown: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, which holds ${JSON.stringify(f.value)} at row ${f.row}; a censoring status is one of "exact", "right", "left" or "interval".`,
+  censoring_upper_missing: (f, at) =>
+    f.column === null
+      ? `${at} names no upper column, but row ${f.row} is an interval row; an interval-censored unit needs the end of its window in the upper column.`
+      : `${at} names column ${JSON.stringify(f.column)}, which has no number at row ${f.row}, an interval row; an interval-censored unit needs the end of its window there.`,
+  censoring_upper_not_numeric: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; the end of an interval must be a number.`,
+  censoring_upper_not_above: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, whose value at row ${f.row} (${f.upper}) is not above the response there (${f.lower}); an interval-censored unit failed between the response value and a later upper value.`,
+  lifetime_distribution_unknown: (f, at) =>
+    `${at} asks for distribution ${JSON.stringify(f.distribution)}, which is not one of ${quoteList(f.known)}.`,
+  lifetime_time_not_positive: (f, at) =>
+    `${at} is ${JSON.stringify(f.distribution)}, a distribution of positive time, but column ${JSON.stringify(f.column)} holds ${f.value} at row ${f.row} (${({ exact: 'an exact failure', right: 'a right-censored unit', left: 'a left-censored unit', interval: 'the start of an interval' } as Record<string, string>)[f.status] ?? f.status}); use a distribution on the time scale (normal, logistic, smallestExtremeValue) or correct the time.`,
+  lifetime_no_failures: (f, at) =>
+    `${at}: all ${f.rows} units are right-censored, so no unit failed and the likelihood keeps growing as the life grows; ${quoteList(f.notEstimable)} cannot be estimated. A life model needs at least one failure (an exact, left- or interval-censored row).`,
+  lifetime_only_left_censored: (f, at) =>
+    `${at}: all ${f.rows} units are left-censored (each had failed before its time), so the likelihood keeps growing as the life shrinks; ${quoteList(f.notEstimable)} cannot be estimated. A life model needs at least one exact, right- or interval-censored row.`,
+  lifetime_option_invalid: (f, at) => `${at} is ${f.value}; ${f.rule}.`,
+  lifetime_not_converged: (f, at) => {
+    const why = {
+      iteration_limit: 'the iteration limit was reached before the convergence rule was met.',
+      no_ascent: 'no step along the Newton direction increased the likelihood, short of the convergence rule.',
+      information_singular: 'the observed information is singular at the estimates, so they are not determined (too few failures for the parameters, or a term that does not vary among the failures).',
+      scale_collapsed: 'the scale shrank towards zero, so the likelihood has no maximum (the failures are too few or coincide).',
+      estimates_diverge: 'the likelihood keeps rising as the estimates grow without limit (for example a factor level or a range of a term with no failures, or every failure before every censored unit).',
+    }[f.reason];
+    return `${at} (${JSON.stringify(f.name)}, ${f.distribution}) did not reach a maximum of its likelihood after ${f.iterations} Newton–Raphson iterations: ${why}`;
+  },
 };
 
 /** Makes an issue with its standard message. */

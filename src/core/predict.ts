@@ -24,7 +24,7 @@ export interface MeanPrediction {
 const ESTIMABILITY_TOLERANCE = 1e-7;
 
 /** c_a = C X_E' W X_a for each aliased column a: the exact linear relation the data obey. */
-function aliasRelations(fit: LeastSquaresFit, data: DesignMatrix, weights?: ArrayLike<number>): Map<number, Float64Array> {
+export function aliasRelations(fit: LeastSquaresFit, data: DesignMatrix, weights?: ArrayLike<number>): Map<number, Float64Array> {
   const relations = new Map<number, Float64Array>();
   const estimable = new Set(fit.estimable);
   const p = fit.estimable.length;
@@ -98,7 +98,7 @@ export function predictMeanResponse(
   return { predictions, issues };
 }
 
-function isEstimable(rows: DesignMatrix, i: number, x: Float64Array, relations: Map<number, Float64Array>): boolean {
+export function isEstimable(rows: DesignMatrix, i: number, x: Float64Array, relations: Map<number, Float64Array>): boolean {
   for (const [a, c] of relations) {
     const xa = rows.high[a][i] + rows.low[a][i];
     let implied = 0;

@@ -14,6 +14,7 @@
 import type { LeastSquaresFit } from '../types.ts';
 import { chiSquareUpperTail, fUpperTail } from './distributions.ts';
 import type { StatisticsIssue } from './issue.ts';
+import { collectNestedTests, type NestedPairRequest } from './nested-pairs.ts';
 
 export interface NestedCandidate {
   name: string;
@@ -45,10 +46,7 @@ export interface NestedTest {
   reason: string | null;
 }
 
-export interface NestedPairRequest {
-  smaller: string;
-  larger: string;
-}
+export type { NestedPairRequest };
 
 function isKeySubset(small: readonly string[] | null, large: readonly string[] | null): boolean {
   if (small === null || large === null) return false;
@@ -116,45 +114,16 @@ export function nestedTests(
   candidates: readonly NestedCandidate[],
   requested: readonly NestedPairRequest[] = [],
 ): { tests: NestedTest[]; issues: StatisticsIssue[] } {
-  const tests: NestedTest[] = [];
-  const issues: StatisticsIssue[] = [];
-  const seen = new Set<string>();
-  const add = (order: { smaller: NestedCandidate; larger: NestedCandidate }) => {
-    const key = JSON.stringify([order.smaller.name, order.larger.name]);
-    if (seen.has(key)) return;
-    seen.add(key);
-    tests.push(nestedTest(order.smaller, order.larger));
-  };
-  for (let i = 0; i < candidates.length; i++) {
-    for (let j = i + 1; j < candidates.length; j++) {
-      const order = nestingOrder(candidates[i], candidates[j]);
-      if (order) add(order);
-    }
-  }
-  const byName = new Map(candidates.map((c) => [c.name, c]));
-  for (const pair of requested) {
-    const a = byName.get(pair.smaller);
-    const b = byName.get(pair.larger);
-    if (!a || !b) {
-      issues.push({
-        code: 'nested-test-unknown-candidate',
-        message: 'A requested nested test names a candidate that was not fitted by the service.',
-        facts: { smaller: pair.smaller, larger: pair.larger, missing: !a ? pair.smaller : pair.larger },
-      });
-      continue;
-    }
-    const order = nestingOrder(a, b);
-    if (!order) {
-      issues.push({
-        code: 'nested-test-not-nested',
-        message: notNestedReason(a, b),
-        facts: { smaller: pair.smaller, larger: pair.larger, smallerRank: a.fit.rank, largerRank: b.fit.rank },
-      });
-      continue;
-    }
-    add(order);
-  }
-  return { tests, issues };
+  return collectNestedTests(candidates, requested, {
+    order: nestingOrder,
+    test: (order) => nestedTest(order.smaller, order.larger),
+    notNested: (pair, a, b) => ({
+      code: 'nested-test-not-nested',
+      message: notNestedReason(a, b),
+      facts: { smaller: pair.smaller, larger: pair.larger, smallerRank: a.fit.rank, largerRank: b.fit.rank },
+    }),
+    unknownCandidate: 'A requested nested test names a candidate that was not fitted by the service.',
+  });
 }
 
 function notNestedReason(a: NestedCandidate, b: NestedCandidate): string {
