@@ -136,16 +136,19 @@ function iterativeFit(input: GlmInput, family: Family, linkName: GlmLinkName, ro
   } else {
     outcome = runIrls(problem, { maxIterations, start, finalStep: true });
   }
+  // Separation first: a likelihood rising towards a bound also ends IRLS at
+  // the cap or at the edge of the doubles (1 - μ underflowing), not only by the rule.
+  const step = outcome.ok ? outcome.lastStep : outcome.failure === 'step_outside_domain' ? outcome.lastStep : null;
+  if (canSeparate(family.name, linkName)) {
+    const separated = findSeparation(design, family.name, rows.y, rows.prior, step);
+    if (separated) {
+      return { issues: [issue('glm_separation', at, { family: family.name, terms: separated.columns.map((j) => design.labels[j]), rows: separated.rows })] };
+    }
+  }
   if (!outcome.ok) {
     return outcome.failure === 'no_valid_start'
       ? { issues: [issue('glm_no_valid_start', at, { family: family.name, link: linkName })] }
       : { issues: [issue('glm_step_outside_domain', at, { family: family.name, link: linkName, iteration: outcome.iteration })] };
-  }
-  if (canSeparate(family.name, linkName)) {
-    const separated = findSeparation(design, family.name, rows.y, rows.prior, outcome.lastStep);
-    if (separated) {
-      return { issues: [issue('glm_separation', at, { family: family.name, terms: separated.columns.map((j) => design.labels[j]), rows: separated.rows })] };
-    }
   }
   if (unbounded !== null) return { issues: [issue('glm_theta_unbounded', at, { theta: unbounded })] };
   if (!outcome.converged || !outcome.final) {

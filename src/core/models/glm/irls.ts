@@ -35,8 +35,10 @@ import { lowParts, solveWeightedStep, type StepSolution } from './weighted-step.
 export const DEVIANCE_TOLERANCE = 1e-10;
 export const STEP_TOLERANCE = 1e-9;
 export const MAX_STEP_HALVINGS = 30;
+/** Halvings over a whole run, which bounds the work the pricing assumes. */
+export const MAX_RUN_HALVINGS = 60;
 export const DEFAULT_MAX_ITERATIONS = 25;
-export const CONVERGENCE_RULE = `Fisher scoring (IRLS, each weighted least-squares step solved by Householder QR) until |D_k - D_{k-1}| / (|D_k| + 0.1) < ${DEVIANCE_TOLERANCE} for the deviance D after step k and the step moves no coefficient by more than ${STEP_TOLERANCE} of its standard error; a step is halved, up to ${MAX_STEP_HALVINGS} times, while the deviance rises or a fitted mean leaves the family's range`;
+export const CONVERGENCE_RULE = `Fisher scoring (IRLS, each weighted least-squares step solved by Householder QR) until |D_k - D_{k-1}| / (|D_k| + 0.1) < ${DEVIANCE_TOLERANCE} for the deviance D after step k and the step moves no coefficient by more than ${STEP_TOLERANCE} of its standard error; a step is halved, up to ${MAX_STEP_HALVINGS} times (${MAX_RUN_HALVINGS} in a whole fit), while the deviance rises or a fitted mean leaves the family's range`;
 const EPS = 2 ** -52;
 
 export interface IrlsProblem {
@@ -88,7 +90,9 @@ export type IrlsOutcome =
       final: { fit: LeastSquaresFit; weights: Float64Array } | null;
       active: number[];
     }
-  | { ok: false; failure: 'no_valid_start' } | { ok: false; failure: 'step_outside_domain'; iteration: number };
+  | { ok: false; failure: 'no_valid_start' }
+  /** `lastStep`: the last accepted step, or the one refused, for the separation check. */
+  | { ok: false; failure: 'step_outside_domain'; iteration: number; lastStep: Float64Array | null };
 
 function emptyPoint(n: number, p: number): IrlsPoint {
   return {
@@ -302,20 +306,23 @@ export function runIrls(pr: IrlsProblem, options: IrlsOptions): IrlsOutcome {
       const eta0 = new Float64Array(point.eta.length);
       for (let i = 0; i < eta0.length; i++) eta0[i] = point.eta[i] - (pr.offset ? pr.offset[i] : 0);
       const anchor = pointAt(pr, solveWeightedStep(pr.design, eta0, weights, active).coefficients);
-      if (!anchor.valid) return { ok: false, failure: 'step_outside_domain', iteration: iterations };
+      if (!anchor.valid) return { ok: false, failure: 'step_outside_domain', iteration: iterations, lastStep: null };
       point = anchor;
       hasBeta = true;
     }
     const rises = (c: IrlsPoint) => hasBeta && c.deviance - point!.deviance > DEVIANCE_TOLERANCE * (Math.abs(point!.deviance) + 0.1);
     let halvings = 0;
-    while ((!candidate.valid || rises(candidate)) && halvings < MAX_STEP_HALVINGS) {
+    while ((!candidate.valid || rises(candidate)) && halvings < MAX_STEP_HALVINGS && stepHalvings + halvings < MAX_RUN_HALVINGS) {
       const beta = new Float64Array(p);
       for (let j = 0; j < p; j++) beta[j] = (candidate.beta[j] + point.beta[j]) / 2;
       candidate = pointAt(pr, beta);
       halvings++;
     }
     stepHalvings += halvings;
-    if (!candidate.valid) return { ok: false, failure: 'step_outside_domain', iteration: iterations };
+    if (!candidate.valid) {
+      const refused = Float64Array.from(step.beta, (b, j) => b - point!.beta[j]);
+      return { ok: false, failure: 'step_outside_domain', iteration: iterations, lastStep: lastStep ?? refused };
+    }
     lastChange = Math.abs(candidate.deviance - point.deviance) / (Math.abs(candidate.deviance) + 0.1);
     if (hasBeta) lastStep = Float64Array.from(candidate.beta, (b, j) => b - point!.beta[j]);
     final = { fit: step.fit, weights };

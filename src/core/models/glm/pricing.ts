@@ -3,11 +3,11 @@
 // It bounds what the fit may do, because the fit obeys the same caps: every
 // IRLS run stops at maxIterations weighted solves (a negative binomial at
 // NB_SOLVE_BUDGET times as many over all its alternations), each step is
-// halved at most MAX_STEP_HALVINGS times, each θ estimate makes at most
+// halved at most MAX_RUN_HALVINGS times in a run, each θ estimate makes at most
 // THETA_MAX_PASSES passes over the rows. Constants per row were measured
 // roughly against the kernels (one Householder QR flop = one multiply-add
 // pair counted as 2; a double-double operation as about 20).
-import { DEFAULT_MAX_ITERATIONS, MAX_STEP_HALVINGS } from './irls.ts';
+import { DEFAULT_MAX_ITERATIONS, MAX_RUN_HALVINGS } from './irls.ts';
 import { NB_MAX_ALTERNATIONS, NB_SOLVE_BUDGET } from './negative-binomial.ts';
 import { THETA_MAX_PASSES } from './theta.ts';
 import type { GlmFamilyName, GlmLinkName } from './types.ts';
@@ -42,7 +42,7 @@ export function leastSquaresSolveFlops(n: number, p: number): number {
 }
 
 function irlsRunFlops(n: number, p: number, iterations: number): number {
-  const halvings = iterations * MAX_STEP_HALVINGS * (2 * n * p + PER_ROW_EVALUATION * n);
+  const halvings = MAX_RUN_HALVINGS * (2 * n * p + PER_ROW_EVALUATION * n);
   return iterations * leanStepFlops(n, p) + halvings + 2 * leastSquaresSolveFlops(n, p);
 }
 
