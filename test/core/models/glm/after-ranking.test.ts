@@ -121,3 +121,25 @@ t.test('pricing grows with the work and bounds the iterations the fit may take',
     t.equal('issues' in out ? out.issues[0].code : 'fitted', 'glm_not_converged', `stops at ${cap}`);
   }
 });
+
+t.test('aliased columns are reported as least squares reports them', async (t) => {
+  const hours = [2, 4, 6, 8, 10, 12, 14, 16, 18, 20];
+  const minutes = hours.map((h) => 60 * h);
+  const line = ['a', 'a', 'b', 'b', 'c', 'c', 'a', 'b', 'c', 'a'];
+  const X = design({ hours, minutes, line }, ['hours', 'minutes', 'line']);
+  const y = [1, 3, 2, 5, 4, 8, 6, 7, 9, 12];
+  const fit = fitGlm({ family: 'poisson', design: X, response: Float64Array.from(y) }) as GlmFit;
+  const ls = fitLeastSquares(X, Float64Array.from(y));
+  t.same(fit.aliased, ls.aliased, 'the same columns, by the same rule');
+  t.same(fit.aliased, ['minutes']);
+  t.equal(fit.parameters, fit.rank, 'k counts the estimable coefficients');
+  t.equal(fit.rank, 4);
+  const minutesColumn = fit.coefficients.find((c) => c.term === 'minutes')!;
+  t.same([minutesColumn.estimate, minutesColumn.standardError], [null, null]);
+  t.same(fit.covariance.terms, ['(intercept)', 'hours', 'line[b]', 'line[c]']);
+  t.match(fit.cautions.map((c) => c.code), ['aliased_columns']);
+  // The same model without the aliased column: identical estimates.
+  const plain = fitGlm({ family: 'poisson', design: design({ hours, line }, ['hours', 'line']), response: Float64Array.from(y) }) as GlmFit;
+  t.ok(plain.coefficients.every((c) => relativeError(c.estimate, fit.coefficients.find((d) => d.term === c.term)!.estimate!) < 1e-12));
+  t.ok(relativeError(plain.logLikelihood, fit.logLikelihood!) < 1e-14);
+});

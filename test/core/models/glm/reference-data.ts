@@ -27,6 +27,8 @@ export interface ReferenceCase {
   cooksDistances: number[];
   devianceResiduals: number[];
   pearsonResiduals: number[];
+  /** Set when R fitted another basis of the same column space (coefficients not comparable). */
+  coefficientBasis?: string;
   prediction?: { rows: Record<string, (number | string)[]>; offset: number[] | null; link: number[]; standardError: number[] };
 }
 

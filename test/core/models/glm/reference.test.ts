@@ -18,9 +18,14 @@ t.test(`reference fits (${REFERENCE.generatedWith})`, async (t) => {
       t.equal(fit.family, c.family);
       t.equal(fit.link, c.link);
       t.equal(fit.convergence.converged, true);
-      t.same(fit.coefficients.map((x) => x.term), c.coefficients.map((x) => x.term), 'same columns in the same order');
-      t.ok(worstRelativeError(fit.coefficients.map((x) => x.estimate), c.coefficients.map((x) => x.estimate)) < 1e-9, 'estimates to 1e-9');
-      t.ok(worstRelativeError(fit.coefficients.map((x) => x.standardError), c.coefficients.map((x) => x.standardError)) < 1e-9, 'standard errors to 1e-9');
+      if (c.coefficientBasis) {
+        // R fitted an orthogonal basis of the same column space: only basis-free numbers compare.
+        t.ok(fit.conditionNumber! > 225, `condition ${fit.conditionNumber}: the extended covariance route`);
+      } else {
+        t.same(fit.coefficients.map((x) => x.term), c.coefficients.map((x) => x.term), 'same columns in the same order');
+        t.ok(worstRelativeError(fit.coefficients.map((x) => x.estimate), c.coefficients.map((x) => x.estimate)) < 1e-9, 'estimates to 1e-9');
+        t.ok(worstRelativeError(fit.coefficients.map((x) => x.standardError), c.coefficients.map((x) => x.standardError)) < 1e-9, 'standard errors to 1e-9');
+      }
       t.ok(relativeError(fit.deviance, c.deviance) < 1e-10, `deviance ${fit.deviance} vs ${c.deviance}`);
       t.ok(relativeError(fit.nullDeviance, c.nullDeviance) < 1e-10, 'null deviance');
       t.ok(relativeError(fit.pearsonChiSquare, c.pearsonChiSquare) < 1e-10, 'Pearson chi-square');
