@@ -18,7 +18,7 @@ import { nullDeviance } from './null-model.ts';
 import { closedFormDispersion, gammaShape, type ParameterEstimate } from './dispersion.ts';
 import { familyLogLikelihood } from './log-likelihood.ts';
 import { buildGlmFit } from './result.ts';
-import { interceptColumn } from './weighted-step.ts';
+import { interceptColumn } from './design-facts.ts';
 import type { DistributionParameter, GlmCaution, GlmFamilyName, GlmFit, GlmLinkName } from './types.ts';
 
 export interface GlmInput extends GlmDataInput {

@@ -30,7 +30,8 @@ import { DOUBLE_COVARIANCE_LIMIT } from '../../fit/covariance.ts';
 import { factorCondition, factorCovariance } from './step-factor.ts';
 import type { Family } from './families.ts';
 import type { Link } from './links.ts';
-import { lowParts, solveWeightedStep, type StepSolution } from './weighted-step.ts';
+import { solveWeightedStep, type StepSolution } from './weighted-step.ts';
+import { designFacts } from './design-facts.ts';
 
 export const DEVIANCE_TOLERANCE = 1e-10;
 export const STEP_TOLERANCE = 1e-9;
@@ -133,7 +134,7 @@ function completePoint(pr: IrlsProblem, point: IrlsPoint): IrlsPoint {
 export function linearPredictor(design: DesignMatrix, beta: ArrayLike<number>, offset: Float64Array | null, out: Float64Array): void {
   if (offset) out.set(offset);
   else out.fill(0);
-  const lows = lowParts(design);
+  const lows = designFacts(design).low;
   for (let j = 0; j < design.labels.length; j++) {
     const b = beta[j];
     if (b === 0) continue;

@@ -8,9 +8,9 @@
 // about 2 κ eps). The caller's coefficients are b = L γ with
 //   b_k = γ_k / s_k                                   (k not the intercept)
 //   b_0 = γ_0 / s_0 - Σ_k (c_k / a) γ_k / s_k          (intercept column = a)
-// so Cov(b) = L U U' L'. The weighted centring makes the intercept orthogonal
-// to the other columns, so the intercept's row of the sum has no
-// cancellation to lose digits to.
+// so Cov(b) = L U U' L'. Centring puts the other columns near the intercept's
+// orthogonal complement, so the intercept's row of that sum loses no more
+// digits than the factor itself.
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { inverseUpper, type StepFactor } from './weighted-step.ts';
 

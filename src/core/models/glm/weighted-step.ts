@@ -16,7 +16,8 @@
 // or when centring alone leaves that little of it.
 import type { DesignMatrix } from '../../types.ts';
 import { ALIAS_TOLERANCE } from '../../fit/index.ts';
-import { rowScaleOf, scaledColumns, streamedR, weightedMeans, type ScaledColumns } from '../../inference/streamed-qr.ts';
+import { rowScaleOf, streamedR, type ScaledColumns } from '../../inference/streamed-qr.ts';
+import { designFacts } from './design-facts.ts';
 
 /** The R factor of [√W X D, √W b] over the accepted columns, and how they were centred and scaled. */
 export interface StepFactor {
@@ -47,31 +48,59 @@ export interface StepSolution {
   largestInStandardErrors: number;
 }
 
-/** Index of the intercept: a nonzero constant column the design marks as such; -1 without one. */
-export function interceptColumn(design: DesignMatrix): number {
-  if (!design.intercept) return -1;
-  const j = design.termOfColumn.indexOf(-1);
-  if (j < 0 || design.rows === 0) return -1;
-  const c = design.high[j][0];
-  if (!(c !== 0 && Number.isFinite(c))) return -1;
-  for (let i = 0; i < design.rows; i++) if (design.high[j][i] !== c || design.low[j][i] !== 0) return -1;
-  return j;
-}
-
-const EXACT_COLUMNS = new WeakMap<DesignMatrix, (Float64Array | null)[]>();
-
 /**
- * The design's low parts, with null for a column whose low part is all zero
- * (plain columns and dummies): the row loops then skip reading it. Cached per
- * design, since IRLS reads them at every step.
+ * ||√w (x - c)|| per column in one pass, and whether the intercept (at
+ * position `intercept`, or -1) explains a column: the least-squares rule,
+ * its norm about the weighted mean at most `tolerance` of its raw weighted
+ * norm. With S1 = Σ w (x - c), S2 = Σ w (x - c)², W = Σ w: about the weighted
+ * mean S2 - S1²/W, raw S2 + 2c S1 + c² W. A sum of squares that overflows
+ * is taken again with the column scaled by its largest entry.
  */
-export function lowParts(design: DesignMatrix): (Float64Array | null)[] {
-  let parts = EXACT_COLUMNS.get(design);
-  if (!parts) {
-    parts = design.low.map((l) => (l.some((v) => v !== 0) ? l : null));
-    EXACT_COLUMNS.set(design, parts);
+function weightedNorms(
+  high: Float64Array[], low: (Float64Array | null)[], rowScale: Float64Array, centre: Float64Array | null,
+  intercept: number, tolerance: number,
+): { scale: Float64Array; aliasedByIntercept: boolean[] } {
+  const n = rowScale.length;
+  let total = 0;
+  for (let i = 0; i < n; i++) total += rowScale[i] * rowScale[i];
+  const scale = new Float64Array(high.length);
+  const aliasedByIntercept = high.map(() => false);
+  for (let k = 0; k < high.length; k++) {
+    const h = high[k];
+    const l = low[k];
+    const c = centre ? centre[k] : 0;
+    const value = (i: number) => (l ? h[i] - c + l[i] : h[i] - c) * rowScale[i];
+    let s1 = 0;
+    let s2 = 0;
+    if (l) {
+      for (let i = 0; i < n; i++) {
+        const x = (h[i] - c + l[i]) * rowScale[i];
+        s1 += x * rowScale[i];
+        s2 += x * x;
+      }
+    } else {
+      for (let i = 0; i < n; i++) {
+        const x = (h[i] - c) * rowScale[i];
+        s1 += x * rowScale[i];
+        s2 += x * x;
+      }
+    }
+    if (!Number.isFinite(s2)) {
+      let max = 0;
+      for (let i = 0; i < n; i++) max = Math.max(max, Math.abs(value(i)));
+      let t = 0;
+      for (let i = 0; i < n; i++) t += (value(i) / max) ** 2;
+      scale[k] = max * Math.sqrt(t);
+      continue;
+    }
+    scale[k] = Math.sqrt(s2);
+    if (intercept >= 0 && k !== intercept && total > 0) {
+      const aboutMean = Math.max(0, s2 - (s1 * s1) / total);
+      const raw = s2 + 2 * c * s1 + c * c * total;
+      aliasedByIntercept[k] = !(aboutMean > tolerance * tolerance * raw);
+    }
   }
-  return parts;
+  return { scale, aliasedByIntercept };
 }
 
 function keep(v: ScaledColumns, positions: number[]): ScaledColumns {
@@ -98,28 +127,18 @@ export function solveWeightedStep(
   tolerance = ALIAS_TOLERANCE,
 ): StepSolution {
   const n = design.rows;
-  const intercept = interceptColumn(design);
+  const facts = designFacts(design);
+  const intercept = facts.intercept;
   const order = active.includes(intercept) ? [intercept, ...active.filter((j) => j !== intercept)] : [...active];
   const rowScale = rowScaleOf(weights, n)!;
-  const high = [...order.map((j) => design.high[j]), rhs];
-  const lows = lowParts(design);
-  const low = [...order.map((j) => lows[j]), null];
-  let centre: Float64Array | null = null;
-  let weightTotal = 0;
-  if (order[0] === intercept && intercept >= 0) {
-    centre = weightedMeans(high, low, rowScale, n);
-    centre[0] = 0;
-    centre[order.length] = 0;
-    for (let i = 0; i < n; i++) weightTotal += rowScale[i] * rowScale[i];
-  }
-  let v = scaledColumns(high, low, rowScale, n, centre);
-  // Aliased by the intercept: Σw x² = Σw (x - m)² + (Σw) m² for the weighted mean m.
-  let positions = order.map((_, k) => k).filter((k) => {
-    if (!(v.scale[k] > 0)) return false;
-    if (!centre || k === 0) return true;
-    const raw = Math.sqrt(v.scale[k] * v.scale[k] + weightTotal * centre[k] * centre[k]);
-    return v.scale[k] > tolerance * raw;
-  });
+  const centred = order[0] === intercept && intercept >= 0;
+  const columns0 = [...order, -1];
+  const high = columns0.map((j) => (j < 0 ? rhs : design.high[j]));
+  const low = columns0.map((j) => (j < 0 ? null : facts.low[j]));
+  const centre = centred ? Float64Array.from(columns0, (j) => (j < 0 ? 0 : facts.centre[j])) : null;
+  const { scale, aliasedByIntercept } = weightedNorms(high, low, rowScale, centre, centred ? 0 : -1, tolerance);
+  let v: ScaledColumns = { rows: n, high, low, rowScale, centre, scale };
+  let positions = order.map((_, k) => k).filter((k) => scale[k] > 0 && !aliasedByIntercept[k]);
   let columns = positions.map((k) => order[k]);
   v = keep(v, [...positions, order.length]);
   let r: Float64Array;
