@@ -68,16 +68,13 @@ const POISSON: Family = {
   start: (y) => y + 0.1,
 };
 
+// The negative binomial shares the Poisson's support, links and residual.
 const NEGATIVE_BINOMIAL: Family = {
+  ...POISSON,
   name: 'negativeBinomial',
-  measure: 'mass',
-  canonical: 'log',
-  links: ['log', 'identity', 'sqrt'],
   parameter: 'theta',
-  validMean: positiveMean,
   // NB2: variance μ + μ²/θ (θ → ∞ is the Poisson).
   variance: (mu, _c, theta) => mu + (mu * mu) / theta,
-  residual: (y, _m, mu) => y - mu,
   deviance: (y, _m, mu, _c, theta) => 2 * (xLogXOver(y, mu) - (y + theta) * log1p((y - mu) / (mu + theta))),
   start: (y) => (y === 0 ? 1 / 6 : y),
 };
@@ -99,17 +96,15 @@ const GAMMA: Family = {
   start: (y) => y,
 };
 
+// The inverse Gaussian shares the gamma's support, residual and start.
 const INVERSE_GAUSSIAN: Family = {
+  ...GAMMA,
   name: 'inverseGaussian',
-  measure: 'density',
   canonical: 'inverseSquare',
   links: ['inverseSquare', 'inverse', 'log', 'identity'],
   parameter: 'dispersion',
-  validMean: positiveMean,
   variance: (mu) => mu * mu * mu,
-  residual: (y, _m, mu) => y - mu,
   deviance: (y, _m, mu) => ((y - mu) * (y - mu)) / (mu * mu * y),
-  start: (y) => y,
 };
 
 const GAUSSIAN: Family = {
