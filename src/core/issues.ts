@@ -81,6 +81,22 @@ export interface IssueFacts {
     iterations: number;
     reason: 'iteration_limit' | 'no_ascent' | 'information_singular' | 'scale_collapsed' | 'estimates_diverge';
   };
+  // Generalised linear models (src/core/models/glm).
+  glm_link_not_allowed: { family: string; link: string; allowed: string[] };
+  glm_trials_invalid: { row: number; value: number };
+  glm_successes_above_trials: { row: number; successes: number; trials: number };
+  glm_count_not_integer: { family: string; row: number; value: number };
+  glm_response_outside_support: { family: string; row: number; value: number; support: string };
+  glm_weights_not_supported: { family: string };
+  glm_no_valid_start: { family: string; link: string };
+  glm_step_outside_domain: { family: string; link: string; iteration: number };
+  glm_not_converged: { iterations: number; change: number | null; step: number | null };
+  glm_separation: { family: string; terms: string[]; rows: number };
+  glm_theta_unbounded: { theta: number };
+  glm_dispersion_degenerate: { family: string; parameter: string };
+  glm_fitted_count_mismatch: { fitted: number; rows: number };
+  glm_fitted_mean_invalid: { family: string; row: number; value: number; support: string };
+  glm_distribution_parameter_invalid: { family: string; parameter: string; value: number | null };
 }
 
 export type IssueCode = keyof IssueFacts;
@@ -188,7 +204,8 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
       ? `${at} (${f.label}) is in every model, and under the hierarchy rule it needs ${f.needs}, which is in the pool and so missing from some subsets; move ${f.needs} to always, or set hierarchy to false.`
       : `${at} (${f.label}) is in every model, and under the hierarchy rule it needs ${f.needs}, which is in neither the pool nor always, so no subset is admissible; add ${f.needs} to always, or set hierarchy to false.`,
   search_over_budget: (f, at) =>
-    `${at}: the search is beyond its compute budget ${f.budget} = ${f.limit} (this pool of ${f.poolTerms} terms needs ${f.required}); narrow the pool or move terms to always.`,  // Lifetime distributions and censored observations (src/core/models/lifetime).
+    `${at}: the search is beyond its compute budget ${f.budget} = ${f.limit} (this pool of ${f.poolTerms} terms needs ${f.required}); narrow the pool or move terms to always.`,
+  // Lifetime distributions and censored observations (src/core/models/lifetime).
   censoring_status_unknown: (f, at) =>
     `${at} names column ${JSON.stringify(f.column)}, which holds ${JSON.stringify(f.value)} at row ${f.row}; a censoring status is one of "exact", "right", "left" or "interval".`,
   censoring_upper_missing: (f, at) =>
@@ -218,6 +235,37 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
     }[f.reason];
     return `${at} (${JSON.stringify(f.name)}, ${f.distribution}) did not reach a maximum of its likelihood after ${f.iterations} Newton–Raphson iterations: ${why}`;
   },
+  // Generalised linear models (src/core/models/glm).
+  glm_link_not_allowed: (f, at) =>
+    `${at} asks for the ${f.link} link with the ${f.family} family, which admits only ${quoteList(f.allowed)}; choose one of those links or leave link out for the family's canonical link.`,
+  glm_trials_invalid: (f, at) =>
+    `${at} is ${f.value} at row ${f.row}; trials must be whole numbers of 1 or more.`,
+  glm_successes_above_trials: (f, at) =>
+    `${at} has ${f.successes} successes at row ${f.row}, more than its ${f.trials} trials; successes must lie between 0 and the trials.`,
+  glm_count_not_integer: (f, at) =>
+    `${at} holds ${f.value} at row ${f.row}; the ${f.family} family models counts, so the response must be whole numbers of 0 or more${f.family === 'binomial' ? ' (0 or 1 without trials)' : ''}.`,
+  glm_response_outside_support: (f, at) =>
+    `${at} holds ${f.value} at row ${f.row}, outside the ${f.family} family's range; the response must be ${f.support}.`,
+  glm_weights_not_supported: (f, at) =>
+    `${at}: relative weights apply to the gaussian family only; a ${f.family} likelihood with weights is not a likelihood of the data (use trials for grouped binomial rows).`,
+  glm_no_valid_start: (f, at) =>
+    `${at}: no starting values put every fitted mean inside the ${f.family} family's range under the ${f.link} link; choose another link or check the response.`,
+  glm_step_outside_domain: (f, at) =>
+    `${at}: at iteration ${f.iteration} no step, however shortened, kept every fitted mean inside the ${f.family} family's range under the ${f.link} link; the maximum likelihood may lie on the boundary — choose another link.`,
+  glm_not_converged: (f, at) =>
+    `${at} did not converge in ${f.iterations} iterations (last relative change of the deviance ${f.change === null ? 'unknown' : f.change.toExponential(2)}, last step ${f.step === null ? 'unknown' : `${f.step.toExponential(2)} standard errors`}); its estimates cannot be ranked. The maximum may lie on the edge of the family's range under this link: try the canonical link.`,
+  glm_separation: (f, at) =>
+    `${at}: the ${f.family} likelihood keeps rising as the coefficients of ${quoteList(f.terms)} run to infinity (separation: ${f.rows} rows are fitted ever closer to their observed bound of 0${f.family === 'binomial' ? ' or the trials' : ''}), so their maximum-likelihood estimates do not exist; drop or merge those terms, or merge the factor levels involved.`,
+  glm_theta_unbounded: (f, at) =>
+    `${at}: the negative binomial θ grows without bound (past ${f.theta.toExponential(2)}) because the counts show no overdispersion; the Poisson model is its limit — fit family poisson instead.`,
+  glm_dispersion_degenerate: (f, at) =>
+    `${at}: the ${f.family} fit reproduces the response exactly (deviance 0), so the maximum-likelihood ${f.parameter} is unbounded and the likelihood has no finite value.`,
+  glm_fitted_count_mismatch: (f, at) =>
+    `${at} has ${f.fitted} fitted means for ${f.rows} rows; send one per row the comparison uses.`,
+  glm_fitted_mean_invalid: (f, at) =>
+    `${at} is ${f.value} at row ${f.row}; a ${f.family} fitted mean must be ${f.support}.`,
+  glm_distribution_parameter_invalid: (f, at) =>
+    `${at}: the ${f.family} family needs its ${f.parameter} as a positive finite number${f.value === null ? '' : `, not ${f.value}`}.`,
 };
 
 /** Makes an issue with its standard message. */
