@@ -1,6 +1,7 @@
 // Hierarchy rule cases (marginality principle, common practice: Nelder 1977,
 // Peixoto 1987), the compute budget's refusal, and the worker pool agreeing
-// with one thread.
+// with one thread (a node budget that runs out is not a refusal: see
+// wide-pool.test.ts).
 
 import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
@@ -77,5 +78,5 @@ t.test('worker threads give the single-thread results', async (t) => {
   t.ok(bb.ok && bb.outcome.method === 'branchAndBound' && !bb.outcome.weightsCoverAllSubsets);
   if (bb.ok) t.same(bb.outcome.models.map((m) => m.terms), one.models.map((m) => m.terms), 'branch and bound on workers finds the same top');
   const starved = await runSearch(problem, settings, { threads: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000, maxNodes: 10 } });
-  t.equal(starved.ok ? '' : starved.issue.facts.budget, 'maxNodes', 'node budget exhausted is refused, naming it');
+  t.ok(starved.ok && !starved.outcome.proven && starved.outcome.models.length === 10, 'node budget exhausted: the best found so far, not proven');
 });
