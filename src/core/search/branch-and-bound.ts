@@ -68,12 +68,10 @@ export function branchAndBound(
     tally.notHierarchical += 2 ** open0;
     return tally.partial();
   }
+  // One lower and one upper per depth, made when the walk first reaches it (most tasks end near their root).
   const lowers: Layer[] = [];
   const uppers: Layer[] = [];
-  for (let i = 0; i <= m; i++) {
-    lowers.push(emptyLayer(d));
-    uppers.push(emptyLayer(d));
-  }
+  const at = (layers: Layer[], i: number): Layer => (layers[i] ??= emptyLayer(d));
   const scratch = emptyLayer(d);
   let lowKey = subsetKey(lowerMembers);
   let upKey = subsetKey(upperMembers);
@@ -124,7 +122,7 @@ export function branchAndBound(
       // t needs a term decided out (or is blocked): nothing with it is admissible; the upper, which holds t, is counted.
       tally.notHierarchical += half - 1;
     } else {
-      const nl = lowers[i + 1];
+      const nl = at(lowers, i + 1);
       copyInto(lo, nl);
       sweepTermIn(problem, base, nl, t);
       lowerMembers[t] = 1;
@@ -147,7 +145,7 @@ export function branchAndBound(
       // A term of S needs t: nothing below is admissible; S itself is counted.
       tally.notHierarchical += half - 1;
     } else {
-      const nu = uppers[i + 1];
+      const nu = at(uppers, i + 1);
       copyInto(up, nu);
       if (!sweepTermOut(problem, base, nu, t) || nu.drift - lo.drift > REBUILD_DRIFT) freshUpper(problem, base, lo, order, i + 1, -1, nu);
       scoreUpper(nu, lo, i + 1);
@@ -158,8 +156,8 @@ export function branchAndBound(
     for (const j of dependents[t]) dead[j]--;
   };
 
-  const lower = lowers[depth0];
-  const upper = uppers[depth0];
+  const lower = at(lowers, depth0);
+  const upper = at(uppers, depth0);
   prefixLayers(problem, base, prefix, lower, upper);
   scoreLower(lower);
   if (open0 > 0) scoreUpper(upper, lower, depth0);

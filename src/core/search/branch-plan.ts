@@ -10,8 +10,8 @@
 // (that would make the counts depend on timing); the start's threshold is
 // what lets a task deep in the tree prune from its first node.
 
-import { emptyLayer } from './branch-layers.ts';
-import { branchOrder, prefixLayers, prefixState } from './branch-prefix.ts';
+import { copyInto, emptyLayer, REBUILD_DRIFT, sweepTermIn, sweepTermOut } from './branch-layers.ts';
+import { branchOrder, freshUpper, prefixLayers, prefixState } from './branch-prefix.ts';
 import type { BranchStart } from './branch-and-bound.ts';
 import { correlationFloor, SubsetBound } from './subset-bound.ts';
 import { stepwiseStart } from './stepwise-start.ts';
@@ -44,38 +44,41 @@ export function planBranchAndBound(problem: SubsetProblem, settings: SearchSetti
   const stepwise = stepwiseStart(problem, settings, order);
   const base = baseMatrix(problem);
   const bound = new SubsetBound(problem, base, subsetScorer(settings.criterion, problem.observations, problem.logWeightSum), settings);
-  const lower = emptyLayer(d);
-  const upper = emptyLayer(d);
+  const root = { decided: [] as number[], lower: emptyLayer(d), upper: emptyLayer(d) };
   const rootState = prefixState(problem, { order, decided: [] });
-  prefixLayers(problem, base, { order, decided: [] }, lower, upper);
-  const floor = m >= 2 ? correlationFloor(lower.matrix, d, bound.liveColumns(lower, { order, depth: 0, dead: rootState.dead, floor: 0 })) : 0;
+  prefixLayers(problem, base, { order, decided: [] }, root.lower, root.upper);
+  const floor = m >= 2 ? correlationFloor(root.lower.matrix, d, bound.liveColumns(root.lower, { order, depth: 0, dead: rootState.dead, floor: 0 })) : 0;
   const start: BranchStart = { threshold: stepwise.threshold, counted: stepwise.kept.map((s) => s.terms), floor };
 
-  const open: number[][] = [[]];
+  // Breadth first; a child shares the layer it does not change with its parent (the plan only reads them).
+  const open = [root];
   const setAside: number[][] = [];
   let opened = 0;
   while (open.length > 0 && open.length < tasks && opened < BRANCH_PLAN_NODES) {
-    const decided = open.shift() as number[];
+    const node = open.shift() as (typeof open)[number];
+    const { decided, lower, upper } = node;
     // Subtrees of two or fewer open terms are not worth a task of their own.
     if (m - decided.length <= 2) {
       setAside.push(decided);
       continue;
     }
     opened++;
-    const prefix = { order, decided };
-    const state = prefixState(problem, prefix);
-    if (state.broken > 0) {
+    const state = prefixState(problem, { order, decided });
+    const i = decided.length;
+    if (state.broken > 0 || bound.cannotEnter(lower, upper, { order, depth: i, dead: state.dead, floor }, start.threshold)) {
       setAside.push(decided);
       continue;
     }
-    prefixLayers(problem, base, prefix, lower, upper);
-    if (bound.cannotEnter(lower, upper, { order, depth: decided.length, dead: state.dead, floor }, start.threshold)) {
-      setAside.push(decided);
-      continue;
-    }
-    open.push([...decided, 1], [...decided, 0]);
+    const t = order[i];
+    const lowerIn = emptyLayer(d);
+    copyInto(lower, lowerIn);
+    sweepTermIn(problem, base, lowerIn, t);
+    const upperOut = emptyLayer(d);
+    copyInto(upper, upperOut);
+    if (!sweepTermOut(problem, base, upperOut, t) || upperOut.drift - lower.drift > REBUILD_DRIFT) freshUpper(problem, base, lower, order, i + 1, -1, upperOut);
+    open.push({ decided: [...decided, 1], lower: lowerIn, upper }, { decided: [...decided, 0], lower, upper: upperOut });
   }
-  return { order, start, startPartial: keptPartial(stepwise.kept, m), prefixes: [...open, ...setAside], stepwiseMoves: stepwise.moves };
+  return { order, start, startPartial: keptPartial(stepwise.kept, m), prefixes: [...open.map((n) => n.decided), ...setAside], stepwiseMoves: stepwise.moves };
 }
 
 /** The counts and sums of exactly the start's kept subsets. */

@@ -11,7 +11,8 @@
 // the tree. When a node budget stops the tree, the best found so far are at
 // least as good as this stepwise answer.
 
-import { baseInto, copyInto, emptyLayer, sweepTermIn, type Layer } from './branch-layers.ts';
+import { baseInto, copyInto, emptyLayer, sweepTermIn, sweepTermOut, type Layer } from './branch-layers.ts';
+import { pivotUsable } from './sweep.ts';
 import { blockedFlags, hierarchical } from './branch-prefix.ts';
 import { repeatsColumnSpace } from './column-space.ts';
 import { baseMatrix, type BaseMatrix } from './subset-state.ts';
@@ -46,51 +47,58 @@ export function stepwiseStart(problem: SubsetProblem, settings: SearchSettings, 
   const trial = emptyLayer(d);
   const members = new Uint8Array(m);
 
-  /** The criterion of `members` held in `layer`, or NaN when it is not a scorable full-rank admissible subset. */
-  const quickValue = (layer: Layer): number => {
-    if (layer.aliased + base.aliased > 0 || layer.rank >= problem.observations) return NaN;
-    const rss = layer.matrix[d * d - 1];
-    if (rss <= base.rssFloor || !hierarchical(problem, members, blocked)) return NaN;
-    return quick.score(rss, layer.rank + 1);
-  };
-  let best: { key: number; value: number; terms: number[] } | null = null;
-  const consider = (layer: Layer): void => {
-    const value = quickValue(layer);
+  let best: { value: number; terms: number[] } | null = null;
+  /** Records the subset `members` with residual sum of squares `rss` and design rank `rank`, if it is admissible. */
+  const consider = (rss: number, rank: number): void => {
+    if (rank >= problem.observations || !(rss > base.rssFloor) || !hierarchical(problem, members, blocked)) return;
+    const value = quick.score(rss, rank + 1);
     if (Number.isNaN(value)) return;
-    const key = subsetKey(members);
     const terms: number[] = [];
     for (let t = 0; t < m; t++) if (members[t]) terms.push(t);
+    const key = subsetKey(members);
     if (!met.has(key)) met.set(key, { terms, value });
-    if (best === null || value < best.value || (value === best.value && terms.length < best.terms.length)) best = { key, value, terms };
+    if (best === null || value < best.value || (value === best.value && terms.length < best.terms.length)) best = { value, terms };
+  };
+  /**
+   * Considers `from`'s model plus term t: a one-column term by the update
+   * RSS - r^2 / D from `from`'s swept matrix (no sweep), a factor by a block
+   * sweep into `trial`; skipped when a column is aliased.
+   */
+  const considerWith = (from: Layer, t: number): void => {
+    const block = problem.poolBlocks[t];
+    members[t] = 1;
+    if (block.length === 1) {
+      const c = block[0];
+      if (pivotUsable(from.matrix, d, c, base.original[c])) {
+        const r = from.matrix[c * d + d - 1];
+        consider(from.matrix[d * d - 1] - (r * r) / from.matrix[c * d + c], from.rank + 1);
+      }
+    } else {
+      copyInto(from, trial);
+      sweepTermIn(problem, base, trial, t);
+      if (trial.aliased === from.aliased) consider(trial.matrix[d * d - 1], trial.rank);
+    }
+    members[t] = 0;
   };
 
+  // Every subset holds the aliased always columns: none is counted under 'skip', and the start has nothing to offer.
+  if (base.aliased > 0) return { kept: [], threshold: Infinity, moves: 0 };
   freshLayer(problem, base, order, members, current);
-  let value = quickValue(current);
-  consider(current);
+  consider(current.matrix[d * d - 1], current.rank);
+  let value = (best as { value: number } | null)?.value ?? NaN;
   let moves = 0;
   for (let step = 0; step < STEPWISE_ROUNDS(m); step++) {
     best = null;
-    for (const t of order) {
-      if (members[t]) continue;
-      copyInto(current, trial);
-      sweepTermIn(problem, base, trial, t);
-      members[t] = 1;
-      consider(trial);
-      members[t] = 0;
-    }
+    for (const t of order) if (!members[t]) considerWith(current, t);
     for (const j of order) {
       if (!members[j]) continue;
+      // Dropping j by a downdate of the current model: a few roundings off a fresh sweep, which only steer the
+      // moves here; what the start keeps is re-scored afresh below.
+      copyInto(current, dropped);
+      sweepTermOut(problem, base, dropped, j);
       members[j] = 0;
-      freshLayer(problem, base, order, members, dropped);
-      consider(dropped);
-      for (const t of order) {
-        if (members[t] || t === j) continue;
-        copyInto(dropped, trial);
-        sweepTermIn(problem, base, trial, t);
-        members[t] = 1;
-        consider(trial);
-        members[t] = 0;
-      }
+      consider(dropped.matrix[d * d - 1], dropped.rank);
+      for (const t of order) if (!members[t] && t !== j) considerWith(dropped, t);
       members[j] = 1;
     }
     const move = best as { value: number; terms: number[] } | null;
