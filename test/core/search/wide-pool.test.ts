@@ -12,6 +12,9 @@ import t from 'tap';
 import { widePool } from '../../../scripts/wide-pool-data.ts';
 import { DEFAULT_SEARCH_BUDGET, searchSubsets, type SearchCriterion } from '../../../src/core/search/index.ts';
 import { runSearch, type SearchProgress } from '../../../src/search/workers/index.ts';
+import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { prepareSearch } from '../../../src/core/search/request-problem.ts';
+import { searchRankBy, searchReport } from '../../../src/core/search/report.ts';
 import { problemFor } from './brute-force.ts';
 import { neighbours, NormalEquations, stepwiseWithSwaps } from './stepwise-swaps.ts';
 
@@ -85,4 +88,13 @@ t.test('a node budget that runs out: the best found so far, marked unproven', as
   const stepwise = stepwiseWithSwaps(reference, m, 'aicc');
   t.ok(out.models[0].value <= stepwise.value + 1e-9 * Math.abs(stepwise.value), 'at least as good as stepwise with swaps');
   t.ok(out.evaluated + out.pruned < 2 ** m, 'some subsets neither scored nor ruled out');
+  // The report a caller reads: the models refitted, and a caution that they are not proven.
+  const prepared = prepareSearch({ columns: wide.columns, summary: null, response: wide.response, weights: null, pool: wide.pool, always: [], hierarchy: false, intercept: true, top: TOP }, { maxWorkCells: 1e9 });
+  if ('issues' in prepared) return t.fail('prepared');
+  const report = searchReport(prepared, out, searchRankBy('aicc', DEFAULT_POLICY, null), { policy: DEFAULT_POLICY, hash: 'h' });
+  const caution = report.cautions.find((c) => c.code === 'search_not_proven');
+  t.ok(caution, 'a search_not_proven caution');
+  t.match(caution?.message, /best found so far/);
+  t.ok(report.cautions.some((c) => c.code === 'ranking_is_not_validation'), 'with the standing caution');
+  t.equal(report.models.length, TOP);
 });
