@@ -11,11 +11,13 @@
 // last "out". subset-bound.ts says why no subset below a node can beat its
 // bound; a node above the worst kept model (or the stepwise start's, see
 // stepwise-start.ts) is not explored, and its subsets count as pruned.
-// The hierarchy rule cuts whole subtrees: once a term is in and a term it
-// needs is out, nothing below is admissible.
+// Which open term a node branches on is chosen there (branchTerm: the one
+// costliest to drop from the upper), so the order of the open terms changes
+// along a path. The hierarchy rule cuts whole subtrees: once a term is in and
+// a term it needs is out, nothing below is admissible.
 
-import { copyInto, emptyLayer, REBUILD_DRIFT, sweepTermIn, sweepTermOut, type Layer } from './branch-layers.ts';
-import { blockedFlags, dependentsOf, freshUpper, hierarchical, prefixLayers, prefixState, type BranchPrefix } from './branch-prefix.ts';
+import { copyInto, emptyLayer, sweepTermIn, type Layer } from './branch-layers.ts';
+import { blockedFlags, branchTerm, dependentsOf, freshUpper, hierarchical, prefixLayers, prefixState, swapTerms, upperWithout, type BranchPrefix } from './branch-prefix.ts';
 import { repeatsColumnSpace } from './column-space.ts';
 import { correlationFloor, PRUNE_MARGIN, SubsetBound } from './subset-bound.ts';
 import { baseMatrix } from './subset-state.ts';
@@ -58,7 +60,8 @@ export function branchAndBound(
   const blocked = blockedFlags(problem);
   const dependents = dependentsOf(problem);
   const counted = new CountedSubsets(start.counted);
-  const { order } = prefix;
+  // The task's own copy: the walk re-orders the open part as it branches (branchTerm), and puts it back.
+  const order = [...prefix.order];
   const state = prefixState(problem, prefix);
   const { lowerMembers, upperMembers, dead } = state;
   const depth0 = prefix.decided.length;
@@ -91,9 +94,9 @@ export function branchAndBound(
   /** The upper of a node whose lower is `lower` and whose open terms are order[from..]. */
   const scoreUpper = (layer: Layer, lower: Layer, from: number): void => {
     if (counted.has(upKey)) return;
-    if (layer.downdated) {
+    if (layer.downdateDrift > 0) {
       // A downdate is a few roundings off a fresh sweep: good enough for weights, not for the top list. A subset
-      // within reach of the top is swept afresh, so a listed value does not depend on the path that found it.
+      // within reach of the top is swept afresh, so a listed value is a fresh sweep's whatever path found it.
       const t = threshold();
       const value = tally.score(Math.max(layer.matrix[d * d - 1], base.rssFloor), layer.rank + 1);
       if (!(value > t + PRUNE_MARGIN * (1 + Math.abs(t)))) {
@@ -114,6 +117,8 @@ export function branchAndBound(
       tally.pruned += 2 ** (m - i) - 2 - counted.inside(lowKey, upKey);
       return;
     }
+    const chosen = branchTerm(problem, up, order, i, dead);
+    swapTerms(order, i, chosen);
     const t = order[i];
     const bit = 2 ** t;
     const half = 2 ** (m - i - 1);
@@ -131,9 +136,15 @@ export function branchAndBound(
       if (i + 2 < m) explore(i + 1, nl, up, floor);
       lowerMembers[t] = 0;
       lowKey -= bit;
-      if (tally.stopped) return;
     }
-    // Out: S with F - t; the lower stays.
+    if (!tally.stopped) branchOut(i, t, lo, up, floor);
+    swapTerms(order, i, chosen);
+  };
+
+  /** Out: S with F - t; the lower stays. */
+  const branchOut = (i: number, t: number, lo: Layer, up: Layer, floor: number): void => {
+    const bit = 2 ** t;
+    const half = 2 ** (m - i - 1);
     let broken = 0;
     for (const j of dependents[t]) {
       if (lowerMembers[j] && dead[j] === 0) broken++;
@@ -146,8 +157,7 @@ export function branchAndBound(
       tally.notHierarchical += half - 1;
     } else {
       const nu = at(uppers, i + 1);
-      copyInto(up, nu);
-      if (!sweepTermOut(problem, base, nu, t) || nu.drift - lo.drift > REBUILD_DRIFT) freshUpper(problem, base, lo, order, i + 1, -1, nu);
+      upperWithout(problem, base, up, lo, order, i, nu);
       scoreUpper(nu, lo, i + 1);
       if (i + 2 < m) explore(i + 1, lo, nu, floor);
     }

@@ -1,9 +1,9 @@
 // The swept matrices of branch and bound. A node of the tree holds two: the
 // lower model S (the terms decided in) and the upper model S + F (F: the terms
 // still open). Lowers are only ever built by forward sweeps from the base in
-// branch order (a parent's lower copied, one term swept in), so a lower is
-// bit-identical to a fresh sweep of its terms: the counting-order discipline
-// of the exhaustive kernel. Uppers lose a term at each "out" decision by a
+// the order their path decided the terms (a parent's lower copied, one term
+// swept in), so a lower is bit-identical to a fresh sweep of its terms in that
+// order: the counting-order discipline of the exhaustive kernel. Uppers lose a term at each "out" decision by a
 // reverse sweep (a downdate), which costs accuracy in proportion to the
 // variance inflation of the pivot (reverse sweeps divide by the swept
 // diagonal, -(X'X)^-1_kk). Each layer therefore carries `drift`, an estimate
@@ -26,8 +26,8 @@ export interface Layer {
   aliased: number;
   /** Estimated rounding in the residual sum of squares, as a fraction of the response's sum of squares. */
   drift: number;
-  /** True when a reverse sweep made it (its numbers are then not a fresh sweep's). */
-  downdated: boolean;
+  /** The part of `drift` its reverse sweeps added since it was last a fresh forward sweep (0: fresh). */
+  downdateDrift: number;
 }
 
 /** Unit roundoff of binary64. */
@@ -37,7 +37,7 @@ const UNIT_ROUNDOFF = 2 ** -53;
 export const REBUILD_DRIFT = 1e-11;
 
 export function emptyLayer(d: number): Layer {
-  return { matrix: new Float64Array(d * d), swept: new Uint8Array(d), rank: 0, aliased: 0, drift: 0, downdated: false };
+  return { matrix: new Float64Array(d * d), swept: new Uint8Array(d), rank: 0, aliased: 0, drift: 0, downdateDrift: 0 };
 }
 
 /** The base (always terms swept in) as a layer, written into `to`. */
@@ -47,7 +47,7 @@ export function baseInto(base: BaseMatrix, to: Layer): void {
   to.rank = base.rank;
   to.aliased = 0;
   to.drift = 0;
-  to.downdated = false;
+  to.downdateDrift = 0;
 }
 
 export function copyInto(from: Layer, to: Layer): void {
@@ -56,7 +56,7 @@ export function copyInto(from: Layer, to: Layer): void {
   to.rank = from.rank;
   to.aliased = from.aliased;
   to.drift = from.drift;
-  to.downdated = from.downdated;
+  to.downdateDrift = from.downdateDrift;
 }
 
 /** Sweeps pool term t's columns in (aliased ones, below the pivot tolerance, are counted and left out). */
@@ -89,12 +89,13 @@ export function sweepTermOut(problem: SubsetProblem, base: BaseMatrix, layer: La
   const block = problem.poolBlocks[t];
   for (let i = block.length - 1; i >= 0; i--) {
     const c = block[i];
-    layer.drift += UNIT_ROUNDOFF * d * (-a[c * d + c] * base.original[c]);
+    const added = UNIT_ROUNDOFF * d * (-a[c * d + c] * base.original[c]);
+    layer.drift += added;
+    layer.downdateDrift += added;
     sweepPivot(a, d, c, -1);
     layer.swept[c] = 0;
     layer.rank--;
   }
-  layer.downdated = true;
   return true;
 }
 

@@ -2,7 +2,8 @@
 // stepwise start, and then opens the tree breadth first from the root,
 // setting aside every node the start's threshold already rules out, until
 // BRANCH_TASKS nodes are still open: each becomes a task (a prefix of
-// decisions), and so does each node set aside (its task prunes at once and
+// decisions, branching on the terms the walk would choose), and so does
+// each node set aside (its task prunes at once and
 // counts its subsets). The prefixes' subtrees partition the tree, so the
 // tasks' counts add up to all 2^m subsets, and each task is a pure function
 // of the plan, whatever thread runs it: a search gives the same answer on
@@ -10,8 +11,8 @@
 // (that would make the counts depend on timing); the start's threshold is
 // what lets a task deep in the tree prune from its first node.
 
-import { copyInto, emptyLayer, REBUILD_DRIFT, sweepTermIn, sweepTermOut } from './branch-layers.ts';
-import { branchOrder, freshUpper, prefixLayers, prefixState } from './branch-prefix.ts';
+import { copyInto, emptyLayer, sweepTermIn } from './branch-layers.ts';
+import { branchOrder, branchTerm, prefixLayers, prefixState, swapTerms, upperWithout, type BranchPrefix } from './branch-prefix.ts';
 import type { BranchStart } from './branch-and-bound.ts';
 import { correlationFloor, SubsetBound } from './subset-bound.ts';
 import { stepwiseStart } from './stepwise-start.ts';
@@ -27,12 +28,11 @@ export const BRANCH_TASKS = 64;
 export const BRANCH_PLAN_NODES = 4096;
 
 export interface BranchPlan {
-  order: number[];
   start: BranchStart;
   /** The start's kept subsets as a partial result: they count here, once. */
   startPartial: SearchPartial;
-  /** The tasks' first decisions along `order` (1 in, 0 out). */
-  prefixes: number[][];
+  /** The tasks: each a subtree under its first decisions (1 in, 0 out) along its own order. */
+  prefixes: BranchPrefix[];
   /** Moves stepwise selection took. */
   stepwiseMoves: number;
 }
@@ -50,35 +50,38 @@ export function planBranchAndBound(problem: SubsetProblem, settings: SearchSetti
   const floor = m >= 2 ? correlationFloor(root.lower.matrix, d, bound.liveColumns(root.lower, { order, depth: 0, dead: rootState.dead, floor: 0 })) : 0;
   const start: BranchStart = { threshold: stepwise.threshold, counted: stepwise.kept.map((s) => s.terms), floor };
 
-  // Breadth first; a child shares the layer it does not change with its parent (the plan only reads them).
-  const open = [root];
-  const setAside: number[][] = [];
+  // Breadth first; a child shares the layer it does not change with its parent (the plan only reads them), and
+  // the order its parent's branching left (copied before the next swap).
+  const open = [{ order, ...root }];
+  const setAside: BranchPrefix[] = [];
   let opened = 0;
   while (open.length > 0 && open.length < tasks && opened < BRANCH_PLAN_NODES) {
     const node = open.shift() as (typeof open)[number];
     const { decided, lower, upper } = node;
     // Subtrees of two or fewer open terms are not worth a task of their own.
     if (m - decided.length <= 2) {
-      setAside.push(decided);
+      setAside.push({ order: node.order, decided });
       continue;
     }
     opened++;
-    const state = prefixState(problem, { order, decided });
+    const state = prefixState(problem, { order: node.order, decided });
     const i = decided.length;
-    if (state.broken > 0 || bound.cannotEnter(lower, upper, { order, depth: i, dead: state.dead, floor }, start.threshold)) {
-      setAside.push(decided);
+    if (state.broken > 0 || bound.cannotEnter(lower, upper, { order: node.order, depth: i, dead: state.dead, floor }, start.threshold)) {
+      setAside.push({ order: node.order, decided });
       continue;
     }
-    const t = order[i];
+    // The same choice of term as the walk's (branchTerm), so a task continues the tree the plan began.
+    const childOrder = [...node.order];
+    swapTerms(childOrder, i, branchTerm(problem, upper, childOrder, i, state.dead));
     const lowerIn = emptyLayer(d);
     copyInto(lower, lowerIn);
-    sweepTermIn(problem, base, lowerIn, t);
+    sweepTermIn(problem, base, lowerIn, childOrder[i]);
     const upperOut = emptyLayer(d);
-    copyInto(upper, upperOut);
-    if (!sweepTermOut(problem, base, upperOut, t) || upperOut.drift - lower.drift > REBUILD_DRIFT) freshUpper(problem, base, lower, order, i + 1, -1, upperOut);
-    open.push({ decided: [...decided, 1], lower: lowerIn, upper }, { decided: [...decided, 0], lower, upper: upperOut });
+    upperWithout(problem, base, upper, lower, childOrder, i, upperOut);
+    open.push({ order: childOrder, decided: [...decided, 1], lower: lowerIn, upper }, { order: childOrder, decided: [...decided, 0], lower, upper: upperOut });
   }
-  return { order, start, startPartial: keptPartial(stepwise.kept, m), prefixes: [...open.map((n) => n.decided), ...setAside], stepwiseMoves: stepwise.moves };
+  const prefixes = [...open.map(({ order: o, decided }) => ({ order: o, decided })), ...setAside];
+  return { start, startPartial: keptPartial(stepwise.kept, m), prefixes, stepwiseMoves: stepwise.moves };
 }
 
 /** The counts and sums of exactly the start's kept subsets. */

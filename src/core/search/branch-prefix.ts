@@ -3,12 +3,16 @@
 // the tree; the subtrees of a set of prefixes that cover the tree's leaves
 // partition the 2^m subsets, so tasks can run anywhere and their counts add.
 
-import { baseInto, emptyLayer, sweepTermIn, type Layer } from './branch-layers.ts';
+import { baseInto, copyInto, emptyLayer, REBUILD_DRIFT, sweepTermIn, sweepTermOut, type Layer } from './branch-layers.ts';
 import { sweepPivot } from './sweep.ts';
 import { baseMatrix, type BaseMatrix } from './subset-state.ts';
 import type { SubsetProblem } from './types.ts';
 
-/** A part of the tree: the first `decided.length` terms of `order` fixed in (1) or out (0). */
+/**
+ * A part of the tree: the first `decided.length` terms of `order` fixed in
+ * (1) or out (0). The rest of `order` are the open terms, in the order the
+ * root's branch order left them; a walk re-orders them as it goes.
+ */
 export interface BranchPrefix {
   order: number[];
   decided: number[];
@@ -71,7 +75,7 @@ export function prefixState(problem: SubsetProblem, prefix: BranchPrefix): Prefi
   return { lowerMembers, upperMembers, dead, broken };
 }
 
-/** The node's lower (S swept in, in branch order) and upper (then F, in branch order): both fresh forward sweeps. */
+/** The node's lower (S swept in, in the prefix's order) and upper (then F, in that order): both fresh forward sweeps. */
 export function prefixLayers(problem: SubsetProblem, base: BaseMatrix, prefix: BranchPrefix, lower: Layer, upper: Layer): void {
   baseInto(base, lower);
   prefix.decided.forEach((inside, i) => {
@@ -87,8 +91,54 @@ export function freshUpper(problem: SubsetProblem, base: BaseMatrix, lower: Laye
   to.rank = lower.rank;
   to.aliased = lower.aliased;
   to.drift = lower.drift;
-  to.downdated = lower.downdated;
+  to.downdateDrift = lower.downdateDrift;
   for (let i = from; i < order.length; i++) if (order[i] !== skip) sweepTermIn(problem, base, to, order[i]);
+}
+
+/**
+ * The open term a node branches on, as an index j >= i into `order`: a term
+ * no admissible subset below can hold comes first (its "in" side is passed
+ * over whole and its "out" side sheds it from the upper); otherwise the open
+ * term costliest to drop from the upper model, b^2 / (X'X)^-1_cc summed over
+ * its columns (Furnival & Wilson re-order the free variables at every node
+ * in this spirit), whose "out" side then has the highest bound and is the
+ * likeliest to be pruned at once. Any choice partitions the subtree alike;
+ * this one keeps it small.
+ */
+export function branchTerm(problem: SubsetProblem, upper: Layer, order: readonly number[], i: number, dead: Int32Array): number {
+  const d = problem.dimension;
+  const a = upper.matrix;
+  let best = i;
+  let bestCost = -1;
+  for (let j = i; j < order.length; j++) {
+    const t = order[j];
+    if (dead[t] > 0) return j;
+    let cost = 0;
+    // In the swept upper, row c holds the coefficient in the response's column and -(X'X)^-1_cc on the diagonal.
+    for (const c of problem.poolBlocks[t]) if (upper.swept[c]) cost += a[c * d + d - 1] ** 2 / -a[c * d + c];
+    if (cost > bestCost) {
+      bestCost = cost;
+      best = j;
+    }
+  }
+  return best;
+}
+
+/** Swaps order[i] and order[j] (the walk's re-ordering of its open terms, undone by the same call). */
+export function swapTerms(order: number[], i: number, j: number): void {
+  const t = order[i];
+  order[i] = order[j];
+  order[j] = t;
+}
+
+/**
+ * `to` = the upper `from` (of a node whose lower is `lower`) without its
+ * next term order[i]: a downdate, or forward sweeps from the lower when the
+ * model has aliased columns or its downdates have drifted past REBUILD_DRIFT.
+ */
+export function upperWithout(problem: SubsetProblem, base: BaseMatrix, from: Layer, lower: Layer, order: readonly number[], i: number, to: Layer): void {
+  copyInto(from, to);
+  if (!sweepTermOut(problem, base, to, order[i]) || to.downdateDrift > REBUILD_DRIFT) freshUpper(problem, base, lower, order, i + 1, -1, to);
 }
 
 /** True when no member is blocked and every member's needs are members. */

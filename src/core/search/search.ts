@@ -18,10 +18,10 @@ export function searchSubsets(problem: SubsetProblem, settings: SearchSettings, 
   const plan = planBranchAndBound(problem, settings);
   let nodes = 0;
   const partials = [plan.startPartial];
-  for (const decided of plan.prefixes) {
+  for (const prefix of plan.prefixes) {
     let before = 0;
     partials.push(
-      branchAndBound(problem, settings, { order: plan.order, decided }, plan.start, (visited) => {
+      branchAndBound(problem, settings, prefix, plan.start, (visited) => {
         nodes += visited - before;
         before = visited;
         return nodes < limit;

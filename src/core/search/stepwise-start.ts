@@ -2,14 +2,14 @@
 // model of the always terms alone, take at each step the best of adding one
 // term, dropping one, or swapping one in for one out, while the criterion
 // falls: the sequential replacement of Miller, "Subset Selection in
-// Regression", 2nd ed., ch. 3, cited from memory). It is cheap and usually lands on or near the best
-// subset, so the best `top` subsets it met give branch and bound a threshold
-// from its first node, and a task that starts anywhere in the tree prunes
-// against it. Being only a start, it changes no answer: its kept subsets are
-// scored exactly as the tree would score them (a fresh sweep in branch
-// order, through the same tally rules), counted once here and passed over by
-// the tree. When a node budget stops the tree, the best found so far are at
-// least as good as this stepwise answer.
+// Regression", 2nd ed., ch. 3, cited from memory). It is cheap and usually
+// lands on or near the best subset, so the best `top` subsets it met give
+// branch and bound a threshold from its first node, and a task that starts
+// anywhere in the tree prunes against it. Being only a start, it changes no
+// answer: its kept subsets are scored as the tree scores a subset (a fresh
+// forward sweep, through the same tally rules), counted once here and passed
+// over by the tree. When a node budget stops the tree, the best found so far
+// are at least as good as this stepwise answer.
 
 import { baseInto, copyInto, emptyLayer, sweepTermIn, sweepTermOut, type Layer } from './branch-layers.ts';
 import { pivotUsable } from './sweep.ts';
@@ -126,7 +126,7 @@ export function stepwiseStart(problem: SubsetProblem, settings: SearchSettings, 
   return { kept, threshold: kept.length >= settings.top ? kept[kept.length - 1].value : Infinity, moves };
 }
 
-/** `to` = the base with `members` swept in, in branch order: the numbers a lower of the tree holds for that subset. */
+/** `to` = the base with `members` swept in, in the root's branch order: a fresh forward sweep, as a lower of the tree is. */
 function freshLayer(problem: SubsetProblem, base: BaseMatrix, order: readonly number[], members: Uint8Array, to: Layer): void {
   baseInto(base, to);
   for (const t of order) if (members[t]) sweepTermIn(problem, base, to, t);

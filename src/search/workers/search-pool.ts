@@ -93,9 +93,7 @@ function branchTasks(problem: SubsetProblem, settings: SearchSettings, budget: S
   const plan = planBranchAndBound(problem, settings);
   const nodeCounter = new SharedArrayBuffer(4);
   const maxNodes = Math.min(budget.maxNodes, 2 ** 30);
-  const tasks: SearchTask[] = plan.prefixes.map((decided, id) => ({
-    kind: 'branchAndBound', id, problem, settings, prefix: { order: plan.order, decided }, start: plan.start, nodeCounter, maxNodes,
-  }));
+  const tasks: SearchTask[] = plan.prefixes.map((prefix, id) => ({ kind: 'branchAndBound', id, problem, settings, prefix, start: plan.start, nodeCounter, maxNodes }));
   return { tasks, start: plan.startPartial, nodeCounter };
 }
 
