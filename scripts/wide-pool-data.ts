@@ -10,22 +10,7 @@
 // The eight effects range from strong to faint (t about 3 at 2,000 rows),
 // so the best subsets are not a foregone conclusion.
 
-/** mulberry32: a small seeded generator with good equidistribution for test data. */
-export function seededUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Box–Muller on a seeded uniform; 1 − u keeps the logarithm's argument in (0, 1]. */
-export function seededNormal(uniform: () => number): () => number {
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
+import { seededNormal, seededUniform } from './seeded-random.ts';
 
 /** The real effects: reading index (0-based, spread over the groups) and coefficient. */
 const EFFECTS: [number, number][] = [

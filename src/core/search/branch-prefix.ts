@@ -86,12 +86,7 @@ export function prefixLayers(problem: SubsetProblem, base: BaseMatrix, prefix: B
 
 /** `to` = `lower` with the open terms order[from..] (except `skip`) swept in after it: a fresh upper. */
 export function freshUpper(problem: SubsetProblem, base: BaseMatrix, lower: Layer, order: readonly number[], from: number, skip: number, to: Layer): void {
-  to.matrix.set(lower.matrix);
-  to.swept.set(lower.swept);
-  to.rank = lower.rank;
-  to.aliased = lower.aliased;
-  to.drift = lower.drift;
-  to.downdateDrift = lower.downdateDrift;
+  copyInto(lower, to);
   for (let i = from; i < order.length; i++) if (order[i] !== skip) sweepTermIn(problem, base, to, order[i]);
 }
 

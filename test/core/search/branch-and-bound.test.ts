@@ -13,9 +13,8 @@ import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
 import { widePool } from '../../../scripts/wide-pool-data.ts';
 import { searchSubsets, type SearchCriterion, type SearchOutcome } from '../../../src/core/search/index.ts';
-import type { Term } from '../../../src/core/types.ts';
 import { bestByCriterion, bestBySize } from './best-by-size.ts';
-import { problemFor } from './brute-force.ts';
+import { demoPool, problemFor } from './brute-force.ts';
 
 const CRITERIA: SearchCriterion[] = ['aic', 'aicc', 'bic', 'hqc'];
 const close = (a: number, b: number, tol = 1e-9) => Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
@@ -68,15 +67,6 @@ for (const c of cases) {
   });
 }
 
-const demoPool: Term[] = [
-  'peakTemp', 'holdMinutes', 'moisture', { kind: 'factor', of: 'kiln' },
-  { kind: 'power', of: 'peakTemp', degree: 2 }, { kind: 'power', of: 'holdMinutes', degree: 2 },
-  { kind: 'power', of: 'moisture', degree: 2 }, { kind: 'product', of: ['peakTemp', 'holdMinutes'] },
-  { kind: 'product', of: ['peakTemp', 'moisture'] }, { kind: 'product', of: ['holdMinutes', 'moisture'] },
-  { kind: 'product', of: ['peakTemp', 'kiln'] }, { kind: 'product', of: ['moisture', 'kiln'] },
-  { kind: 'transform', of: 'moisture', fn: 'log' }, { kind: 'transform', of: 'holdMinutes', fn: 'sqrt' },
-  { kind: 'product', of: ['holdMinutes', 'kiln'] }, { kind: 'power', of: 'peakTemp', degree: 3 },
-];
 for (const hierarchy of [false, true]) {
   t.test(`demo pool of 16 terms (powers, products, a factor), hierarchy ${hierarchy}`, (t) => {
     const { problem } = problemFor({ columns: demoColumns(), response: 'shrinkage', pool: demoPool, always: [], intercept: true, hierarchy });

@@ -8,7 +8,7 @@ import { demoColumns } from '../../../scripts/demo-data.ts';
 import { hierarchyRules, planSearch, searchSubsets, DEFAULT_SEARCH_BUDGET } from '../../../src/core/search/index.ts';
 import { runSearch } from '../../../src/search/workers/index.ts';
 import type { Term } from '../../../src/core/types.ts';
-import { problemFor } from './brute-force.ts';
+import { demoPool, problemFor } from './brute-force.ts';
 
 t.test('hierarchy: powers need lower powers, products need every sub-product', (t) => {
   const pool: Term[] = [
@@ -52,15 +52,7 @@ t.test('a pool beyond the budget is refused with the budget named', (t) => {
 
 t.test('worker threads give the single-thread results', async (t) => {
   const demo = demoColumns();
-  const pool: Term[] = [
-    'peakTemp', 'holdMinutes', 'moisture', { kind: 'factor', of: 'kiln' },
-    { kind: 'power', of: 'peakTemp', degree: 2 }, { kind: 'power', of: 'holdMinutes', degree: 2 },
-    { kind: 'power', of: 'moisture', degree: 2 }, { kind: 'product', of: ['peakTemp', 'holdMinutes'] },
-    { kind: 'product', of: ['peakTemp', 'moisture'] }, { kind: 'product', of: ['holdMinutes', 'moisture'] },
-    { kind: 'product', of: ['peakTemp', 'kiln'] }, { kind: 'product', of: ['moisture', 'kiln'] },
-    { kind: 'transform', of: 'moisture', fn: 'log' }, { kind: 'transform', of: 'holdMinutes', fn: 'sqrt' },
-    { kind: 'product', of: ['holdMinutes', 'kiln'] },
-  ];
+  const pool = demoPool.slice(0, 15);
   const { problem } = problemFor({ columns: demo, response: 'shrinkage', pool, always: [], intercept: true, hierarchy: false });
   const settings = { criterion: 'aicc', top: 10, rankDeficient: 'score' } as const;
   const one = searchSubsets(problem, settings, 'exhaustive');
