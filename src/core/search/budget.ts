@@ -5,6 +5,7 @@
 // multiply-adds for d design columns plus the response.
 
 import { MAX_EXHAUSTIVE_TERMS } from './counting-search.ts';
+import { MAX_KEYED_TERMS } from './subset-keys.ts';
 import type { SubsetProblem } from './types.ts';
 
 export interface SearchBudget {
@@ -51,13 +52,15 @@ export function planSearch(problem: SubsetProblem, request: { exhaustive?: boole
   if (request.exhaustive) {
     return refusal('maxSubsets', budget.maxSubsets, subsets, m, `every subset of ${m} pool terms is ${subsets} subsets, beyond the budget of ${budget.maxSubsets}.`);
   }
-  if (m > budget.maxBranchAndBoundTerms) {
+  // Branch and bound names a subset by one exact double (subset-keys.ts), whatever budget a caller configures.
+  const branchLimit = Math.min(budget.maxBranchAndBoundTerms, MAX_KEYED_TERMS);
+  if (m > branchLimit) {
     return refusal(
       'maxBranchAndBoundTerms',
-      budget.maxBranchAndBoundTerms,
+      branchLimit,
       m,
       m,
-      `a pool of ${m} terms is beyond the branch-and-bound budget of ${budget.maxBranchAndBoundTerms} terms.`,
+      `a pool of ${m} terms is beyond the branch-and-bound budget of ${branchLimit} terms.`,
     );
   }
   return { ok: true, method: 'branchAndBound', subsets, estimatedFlops: null, budget };

@@ -5,6 +5,9 @@
 
 const TWO32 = 2 ** 32;
 
+/** Most pool terms a key holds exactly. */
+export const MAX_KEYED_TERMS = 52;
+
 export function subsetKey(members: Uint8Array): number {
   let key = 0;
   for (let t = 0; t < members.length; t++) if (members[t]) key += 2 ** t;

@@ -5,6 +5,8 @@
 
 import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
+import { widePool } from '../../../scripts/wide-pool-data.ts';
+import { MAX_KEYED_TERMS } from '../../../src/core/search/subset-keys.ts';
 import { hierarchyRules, planSearch, searchSubsets, DEFAULT_SEARCH_BUDGET } from '../../../src/core/search/index.ts';
 import { runSearch } from '../../../src/search/workers/index.ts';
 import type { Term } from '../../../src/core/types.ts';
@@ -47,6 +49,15 @@ t.test('a pool beyond the budget is refused with the budget named', (t) => {
   t.same(exhaustive.ok ? null : exhaustive.issue.facts, { budget: 'maxSubsets', limit: 16, required: 32, poolTerms: 5 });
   const bb = planSearch(problem, {}, { ...budget, maxBranchAndBoundTerms: 40 });
   t.equal(bb.ok && bb.method, 'branchAndBound', 'over the exhaustive budget, branch and bound');
+  t.end();
+});
+
+t.test('branch and bound stops where a subset key stops being exact, whatever budget is configured', (t) => {
+  // A subset is named by the exact double sum of 2^t (subset-keys.ts): 52 terms at most.
+  const wide = widePool({ terms: MAX_KEYED_TERMS + 1, rows: 80 });
+  const { problem } = problemFor({ columns: wide.columns, response: wide.response, pool: wide.pool, always: [], intercept: true, hierarchy: false });
+  const plan = planSearch(problem, {}, { ...DEFAULT_SEARCH_BUDGET, maxBranchAndBoundTerms: 64 });
+  t.same(plan.ok ? null : plan.issue.facts, { budget: 'maxBranchAndBoundTerms', limit: MAX_KEYED_TERMS, required: 53, poolTerms: 53 });
   t.end();
 });
 
