@@ -5,26 +5,7 @@
 //                   + 0.35·(moisture − 6) + 0.25·[kiln = west] + N(0, 0.15²)
 // Hold time has no effect at all; a candidate that uses it is over-fitted.
 
-/** mulberry32: a tiny seeded generator, so the demo prints the same table every run. */
-export function seededUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-function seededNormal(uniform: () => number): () => number {
-  return () => {
-    // Box–Muller; 1 − u keeps the logarithm's argument in (0, 1].
-    const u = 1 - uniform();
-    const v = uniform();
-    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
-  };
-}
+import { seededNormal, seededUniform } from './seeded-random.ts';
 
 const round = (x: number, digits: number) => Number(x.toFixed(digits));
 

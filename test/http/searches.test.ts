@@ -3,10 +3,12 @@
 // models with the same numbers (the refits are the comparison's own QR fits,
 // so to the last digit), weights and importance over every subset to 1e-9
 // (weights by their definition in api.md: exp(-Δ/2) / Σ exp(-Δ_j/2)).
-// Data: the demo scenario's generator (scripts/demo-data.ts).
+// Data: the demo scenario's generator (scripts/demo-data.ts); for branch and
+// bound, correlated readings (scripts/wide-pool-data.ts).
 import t from 'tap';
 import { buildTestApp } from '../helper.ts';
 import { demoColumns } from '../../scripts/demo-data.ts';
+import { widePool } from '../../scripts/wide-pool-data.ts';
 import type { Term } from '../../src/core/types.ts';
 
 const close = (a: number, b: number, tol = 1e-9) => Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
@@ -156,4 +158,36 @@ t.test('what a search passed over is in the response, and requests it cannot sco
   const hierarchy = await app.inject({ method: 'POST', url: '/v1/searches', payload: { data: { columns: { shrinkage, peakTemp, moisture } }, response: 'shrinkage', pool: ['peakTemp', 'moisture'], always: [{ kind: 'power', of: 'peakTemp', degree: 2 }], hierarchy: true } });
   t.equal(hierarchy.statusCode, 422);
   t.equal(hierarchy.json().errors[0].code, 'hierarchy_always_incomplete');
+});
+
+t.test('a pool beyond exhaustive reach: branch and bound, proven, with nodes and the bound in progress events', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  // 26 correlated readings (scripts/wide-pool-data.ts): 2^26 subsets, beyond the exhaustive budget of 2^24.
+  const wide = widePool({ terms: 26, rows: 300, seed: 7 });
+  const payload = { data: { columns: wide.columns }, response: wide.response, pool: wide.pool, rankBy: 'bic', top: 5 };
+  const res = await app.inject({ method: 'POST', url: '/v1/searches', headers: { accept: 'text/event-stream' }, payload });
+  t.equal(res.statusCode, 200);
+  const events = res.body.trim().split('\n\n').map((block) => {
+    const [event, data] = block.split('\n');
+    return { event: event.replace('event: ', ''), data: JSON.parse(data.replace('data: ', '')) };
+  });
+  const result = events.at(-1)!;
+  t.equal(result.event, 'result');
+  const body = result.data;
+  t.equal(body.method, 'branchAndBound');
+  t.equal(body.proven, true, 'proven');
+  t.equal(body.models.length, 5);
+  t.equal(body.subsets, 2 ** 26);
+  t.ok(body.passedOver.pruned > 0 && body.weightsCoverAllSubsets === false, 'pruned, and weights say they cover the evaluated subsets');
+  t.equal(body.evaluated + body.passedOver.pruned + body.passedOver.notHierarchical + body.passedOver.rankDeficient + body.passedOver.sameColumnSpace + body.passedOver.exactFit + body.passedOver.unscorable, 2 ** 26, 'every subset accounted for');
+  t.ok(body.budget.nodes > 0, 'nodes visited are stated');
+  t.ok(body.cautions.some((c: { code: string }) => c.code === 'weights_over_evaluated_subsets'));
+  t.notOk(body.cautions.some((c: { code: string }) => c.code === 'search_not_proven'));
+  const progress = events.slice(0, -1).map((e) => e.data);
+  t.ok(progress.every((p) => 'nodes' in p && 'bound' in p), 'progress events carry nodes and the bound');
+  const last = progress.at(-1);
+  t.ok(last.bound === null || last.bound >= body.models[4].bic - 1e-6, 'the bound is never below the last listed model\'s value');
+  t.equal((await store.get(body.id))?.kind, 'search', 'recorded');
+  const exhaustive = await app.inject({ method: 'POST', url: '/v1/searches', payload: { ...payload, exhaustive: true } });
+  t.equal(exhaustive.statusCode, 422, 'exhaustive: true refuses instead');
 });

@@ -1,214 +1,184 @@
-// Branch and bound over subsets in the manner of Furnival & Wilson's leaps
-// and bounds (Technometrics 16, 1974): a node holds S (terms decided in) and
-// F (terms still open); every subset below it is S plus part of F, so the
-// residual sum of squares of S + F bounds theirs from below, and with the
-// smallest parameter count below the node (that of S) it bounds the
-// criterion from below — every criterion here rises with RSS and with k.
-// A subtree whose bound is above the worst kept model cannot enter the top
-// and is skipped. Two matrices per depth: `lower` (S swept in) and `upper`
-// (S + F swept in); a branch costs one sweep into lower (term in) or one
-// reverse sweep out of upper (term out). Weights and importance then cover
-// only the evaluated subsets; the partial says how many were pruned.
+// Branch and bound over subsets after Furnival & Wilson's leaps and bounds
+// (Technometrics 16, 1974): a regression tree paired with an inverse tree.
+// A node holds S (terms decided in) and F (terms still open) with two swept
+// matrices, the lower S and the upper S + F. Deciding the next term in
+// sweeps it into a copy of the lower (the regression tree); deciding it out
+// reverse-sweeps it out of a copy of the upper (the inverse tree). Each new
+// lower and each new upper is itself a subset and is scored where it is made,
+// so the big models of the inverse tree come at the price of the bound they
+// were needed for, and every subset is made exactly once: a subset is the
+// lower of the node after its last "in" or the upper of the node after its
+// last "out". subset-bound.ts says why no subset below a node can beat its
+// bound; a node above the worst kept model (or the stepwise start's, see
+// stepwise-start.ts) is not explored, and its subsets count as pruned.
+// Which open term a node branches on is chosen there (branchTerm: the one
+// costliest to drop from the upper), so the order of the open terms changes
+// along a path. The hierarchy rule cuts whole subtrees: once a term is in and
+// a term it needs is out, nothing below is admissible.
 
+import { copyInto, emptyLayer, sweepTermIn, type Layer } from './branch-layers.ts';
+import { blockedFlags, branchTerm, dependentsOf, freshUpper, hierarchical, prefixLayers, prefixState, swapTerms, upperWithout, type BranchPrefix } from './branch-prefix.ts';
 import { repeatsColumnSpace } from './column-space.ts';
-import { pivotUsable, sweepPivot } from './sweep.ts';
-import { baseMatrix, type BaseMatrix } from './subset-state.ts';
+import { correlationFloor, PRUNE_MARGIN, SubsetBound } from './subset-bound.ts';
+import { baseMatrix } from './subset-state.ts';
+import { CountedSubsets, subsetKey } from './subset-keys.ts';
 import { SubsetTally } from './tally.ts';
 import type { SearchPartial, SearchSettings, SubsetProblem } from './types.ts';
 
-/** A part of the tree: the first `decided.length` terms of `order` fixed in (1) or out (0). */
-export interface BranchPrefix {
-  order: number[];
-  decided: number[];
+/** What a task is given besides its subtree: the stepwise start. */
+export interface BranchStart {
+  /** The worst value among the `top` models the start kept (Infinity when it kept fewer): nothing worse can enter. */
+  threshold: number;
+  /** The start's kept subsets (pool term indices): counted by the start, so passed over here. */
+  counted: number[][];
+  /** Eigenvalue floor at the search's root (subset-bound.ts), valid at every node; 0 when unknown. */
+  floor: number;
 }
 
-/** Criterion noise allowance for pruning: a bound must exceed the worst kept value by this much (relative). */
-const PRUNE_MARGIN = 1e-9;
+export const NO_START: BranchStart = { threshold: Infinity, counted: [], floor: 0 };
 
-interface Layer {
-  matrix: Float64Array;
-  swept: Uint8Array;
-  rank: number;
-  aliased: number;
-}
+/** Open terms below which a task does not compute its own eigenvalue floor (the root's serves). */
+const OWN_FLOOR_TERMS = 6;
 
 /**
- * Terms most costly to drop from the full model first: excluding them early
- * raises the upper bound most, so whole subtrees fall away near the root
- * (Furnival & Wilson order by the full model's t statistics; this is the
- * block form of that, the rise in RSS when the term leaves the full model).
+ * The subsets of one subtree. `keepGoing` is asked every 256 nodes (and at
+ * the first) with the nodes visited so far; false stops the walk, and the
+ * partial says so (`stopped`).
  */
-export function branchOrder(problem: SubsetProblem): number[] {
-  const base = baseMatrix(problem);
-  const full = layerFrom(base);
-  const m = problem.poolBlocks.length;
-  for (let t = 0; t < m; t++) sweepBlockIn(problem, base, full, t);
-  const d = problem.dimension;
-  const rise = problem.poolBlocks.map((block) => {
-    const trial = cloneLayer(full);
-    for (const c of block) if (trial.swept[c]) sweepPivot(trial.matrix, d, c, -1);
-    return trial.matrix[d * d - 1] - full.matrix[d * d - 1];
-  });
-  return [...rise.keys()].sort((a, b) => rise[b] - rise[a] || a - b);
-}
-
 export function branchAndBound(
   problem: SubsetProblem,
   settings: SearchSettings,
   prefix: BranchPrefix,
-  keepGoing?: (nodes: number, covered: number) => boolean,
+  start: BranchStart = NO_START,
+  keepGoing?: (nodes: number) => boolean,
 ): SearchPartial {
   const m = problem.poolBlocks.length;
   const d = problem.dimension;
   const base = baseMatrix(problem);
   const tally = new SubsetTally(problem, settings, base.rssFloor);
-  const { order } = prefix;
-  const members = new Uint8Array(m);
+  const bound = new SubsetBound(problem, base, tally.score, settings);
+  const blocked = blockedFlags(problem);
+  const dependents = dependentsOf(problem);
+  const counted = new CountedSubsets(start.counted);
+  // The task's own copy: the walk re-orders the open part as it branches (branchTerm), and puts it back.
+  const order = [...prefix.order];
+  const state = prefixState(problem, prefix);
+  const { lowerMembers, upperMembers, dead } = state;
+  const depth0 = prefix.decided.length;
+  const open0 = m - depth0;
+  if (state.broken > 0) {
+    // A term in S needs one decided out: nothing in this subtree is admissible (and nothing the start counted is here).
+    tally.notHierarchical += 2 ** open0;
+    return tally.partial();
+  }
+  // One lower and one upper per depth, made when the walk first reaches it (most tasks end near their root).
   const lowers: Layer[] = [];
   const uppers: Layer[] = [];
-  for (let i = 0; i <= m; i++) {
-    lowers.push(emptyLayer(d));
-    uppers.push(emptyLayer(d));
-  }
-  // The prefix root: S = decided-in terms, F = the undecided ones.
-  const depth0 = prefix.decided.length;
-  const lower = lowers[depth0];
-  copyInto(layerFrom(base), lower);
-  const upper = uppers[depth0];
-  copyInto(layerFrom(base), upper);
-  for (let i = 0; i < depth0; i++) {
-    if (prefix.decided[i] === 1) {
-      members[order[i]] = 1;
-      sweepBlockIn(problem, base, lower, order[i]);
-      sweepBlockIn(problem, base, upper, order[i]);
-    }
-  }
-  for (let i = depth0; i < m; i++) sweepBlockIn(problem, base, upper, order[i]);
+  const at = (layers: Layer[], i: number): Layer => (layers[i] ??= emptyLayer(d));
+  const scratch = emptyLayer(d);
+  let lowKey = subsetKey(lowerMembers);
+  let upKey = subsetKey(upperMembers);
+  const threshold = () => Math.min(tally.top.threshold, start.threshold);
 
-  const hierarchical = (): boolean => {
-    for (let t = 0; t < m; t++) {
-      if (!members[t]) continue;
-      if (problem.blocked.includes(t)) return false;
-      for (const r of problem.requires[t]) if (!members[r]) return false;
-    }
-    return true;
-  };
-  let current = lower.matrix;
-  const repeats = () => repeatsColumnSpace(problem, base, current, members);
-  const evaluate = (layer: Layer): void => {
+  let current = scratch.matrix;
+  let currentMembers = lowerMembers;
+  const repeats = () => repeatsColumnSpace(problem, base, current, currentMembers);
+  const add = (layer: Layer, members: Uint8Array): void => {
     current = layer.matrix;
-    tally.add(members, layer.rank, layer.matrix[d * d - 1], layer.aliased + base.aliased > 0, hierarchical(), repeats);
+    currentMembers = members;
+    tally.add(members, layer.rank, layer.matrix[d * d - 1], layer.aliased + base.aliased > 0, hierarchical(problem, members, blocked), repeats);
   };
-
-  let covered = 0;
-  const explore = (i: number, lo: Layer, up: Layer): void => {
-    if (tally.stopped || i >= m) return;
-    tally.nodes++;
-    if (keepGoing && (tally.nodes & 255) === 0 && !keepGoing(tally.nodes, covered + tally.pruned)) {
-      tally.stopped = true;
-      return;
-    }
-    const worst = tally.top.threshold;
-    if (worst !== Infinity) {
-      const rss = Math.max(up.matrix[d * d - 1], base.rssFloor);
-      const bound = tally.score(rss, lo.rank + 1);
-      // NaN: no subset below is scorable (AICc past n - k - 1 <= 0 only grows k).
-      if (Number.isNaN(bound) || bound > worst + PRUNE_MARGIN * (1 + Math.abs(worst))) {
-        tally.pruned += 2 ** (m - i) - 1;
+  const scoreLower = (layer: Layer): void => {
+    if (!counted.has(lowKey)) add(layer, lowerMembers);
+  };
+  /** The upper of a node whose lower is `lower` and whose open terms are order[from..]. */
+  const scoreUpper = (layer: Layer, lower: Layer, from: number): void => {
+    if (counted.has(upKey)) return;
+    if (layer.downdateDrift > 0) {
+      // A downdate is a few roundings off a fresh sweep: good enough for weights, not for the top list. A subset
+      // within reach of the top is swept afresh, so a listed value is a fresh sweep's whatever path found it.
+      const t = threshold();
+      const value = tally.score(Math.max(layer.matrix[d * d - 1], base.rssFloor), layer.rank + 1);
+      if (!(value > t + PRUNE_MARGIN * (1 + Math.abs(t)))) {
+        freshUpper(problem, base, lower, order, from, -1, scratch);
+        add(scratch, upperMembers);
         return;
       }
     }
+    add(layer, upperMembers);
+  };
+
+  /** Node at depth i (order[0..i-1] decided, |F| = m - i >= 2); its lower and upper are already counted. */
+  const explore = (i: number, lo: Layer, up: Layer, floor: number): void => {
+    tally.nodes++;
+    if (keepGoing && (tally.nodes & 255) === 1 && !keepGoing(tally.nodes)) tally.stopped = true;
+    if (tally.stopped) return;
+    if (bound.cannotEnter(lo, up, { order, depth: i, dead, floor }, threshold())) {
+      tally.pruned += 2 ** (m - i) - 2 - counted.inside(lowKey, upKey);
+      return;
+    }
+    const chosen = branchTerm(problem, up, order, i, dead);
+    swapTerms(order, i, chosen);
     const t = order[i];
-    const inLower = lowers[i + 1];
-    copyInto(lo, inLower);
-    sweepBlockIn(problem, base, inLower, t);
-    members[t] = 1;
-    evaluate(inLower);
-    covered++;
-    explore(i + 1, inLower, up);
-    members[t] = 0;
-    const outUpper = uppers[i + 1];
-    copyInto(up, outUpper);
-    sweepBlockOut(problem, base, outUpper, t, members, order, i + 1);
-    explore(i + 1, lo, outUpper);
+    const bit = 2 ** t;
+    const half = 2 ** (m - i - 1);
+    // In: S + t with F - t; the upper stays.
+    if (dead[t] > 0) {
+      // t needs a term decided out (or is blocked): nothing with it is admissible; the upper, which holds t, is counted.
+      tally.notHierarchical += half - 1;
+    } else {
+      const nl = at(lowers, i + 1);
+      copyInto(lo, nl);
+      sweepTermIn(problem, base, nl, t);
+      lowerMembers[t] = 1;
+      lowKey += bit;
+      scoreLower(nl);
+      if (i + 2 < m) explore(i + 1, nl, up, floor);
+      lowerMembers[t] = 0;
+      lowKey -= bit;
+    }
+    if (!tally.stopped) branchOut(i, t, lo, up, floor);
+    swapTerms(order, i, chosen);
   };
-  evaluate(lower);
-  explore(depth0, lower, upper);
+
+  /** Out: S with F - t; the lower stays. */
+  const branchOut = (i: number, t: number, lo: Layer, up: Layer, floor: number): void => {
+    const bit = 2 ** t;
+    const half = 2 ** (m - i - 1);
+    let broken = 0;
+    for (const j of dependents[t]) {
+      if (lowerMembers[j] && dead[j] === 0) broken++;
+      dead[j]++;
+    }
+    upperMembers[t] = 0;
+    upKey -= bit;
+    if (broken > 0) {
+      // A term of S needs t: nothing below is admissible; S itself is counted.
+      tally.notHierarchical += half - 1;
+    } else {
+      const nu = at(uppers, i + 1);
+      upperWithout(problem, base, up, lo, order, i, nu);
+      scoreUpper(nu, lo, i + 1);
+      if (i + 2 < m) explore(i + 1, lo, nu, floor);
+    }
+    upperMembers[t] = 1;
+    upKey += bit;
+    for (const j of dependents[t]) dead[j]--;
+  };
+
+  const lower = at(lowers, depth0);
+  const upper = at(uppers, depth0);
+  prefixLayers(problem, base, prefix, lower, upper);
+  scoreLower(lower);
+  if (open0 > 0) scoreUpper(upper, lower, depth0);
+  if (open0 >= 2) {
+    let floor = start.floor;
+    const view = { order, depth: depth0, dead, floor };
+    if (open0 >= OWN_FLOOR_TERMS && !bound.cannotEnter(lower, upper, view, threshold())) {
+      // A task's open terms are fewer than the root's, and its S is swept out of them: often a better-conditioned C.
+      floor = Math.max(floor, correlationFloor(lower.matrix, d, bound.liveColumns(lower, view)));
+    }
+    explore(depth0, lower, upper, floor);
+  }
   return tally.partial();
-}
-
-function emptyLayer(d: number): Layer {
-  return { matrix: new Float64Array(d * d), swept: new Uint8Array(d), rank: 0, aliased: 0 };
-}
-
-function layerFrom(base: BaseMatrix): Layer {
-  return { matrix: Float64Array.from(base.matrix), swept: Uint8Array.from(base.swept), rank: base.rank, aliased: 0 };
-}
-
-function cloneLayer(l: Layer): Layer {
-  return { matrix: Float64Array.from(l.matrix), swept: Uint8Array.from(l.swept), rank: l.rank, aliased: l.aliased };
-}
-
-function copyInto(from: Layer, to: Layer): void {
-  to.matrix.set(from.matrix);
-  to.swept.set(from.swept);
-  to.rank = from.rank;
-  to.aliased = from.aliased;
-}
-
-function sweepBlockIn(problem: SubsetProblem, base: BaseMatrix, layer: Layer, t: number): void {
-  const d = problem.dimension;
-  for (const c of problem.poolBlocks[t]) {
-    if (pivotUsable(layer.matrix, d, c, base.original[c])) {
-      sweepPivot(layer.matrix, d, c, 1);
-      layer.swept[c] = 1;
-      layer.rank++;
-    } else {
-      layer.aliased++;
-    }
-  }
-}
-
-/**
- * Removes term t from an upper model. If that model had aliased columns,
- * removing t may free some of them (they were aliased only through t), so
- * the still-open and decided-in terms' unswept columns are tried again;
- * otherwise the bound would be too high and could prune a subset wrongly.
- */
-function sweepBlockOut(
-  problem: SubsetProblem,
-  base: BaseMatrix,
-  layer: Layer,
-  t: number,
-  members: Uint8Array,
-  order: number[],
-  openFrom: number,
-): void {
-  const d = problem.dimension;
-  const block = problem.poolBlocks[t];
-  let freed = false;
-  for (let i = block.length - 1; i >= 0; i--) {
-    const c = block[i];
-    if (layer.swept[c]) {
-      sweepPivot(layer.matrix, d, c, -1);
-      layer.swept[c] = 0;
-      layer.rank--;
-    } else {
-      layer.aliased--;
-      freed = true;
-    }
-  }
-  if (layer.aliased === 0 && !freed) return;
-  const retry = (u: number) => {
-    for (const c of problem.poolBlocks[u]) {
-      if (!layer.swept[c] && pivotUsable(layer.matrix, d, c, base.original[c])) {
-        sweepPivot(layer.matrix, d, c, 1);
-        layer.swept[c] = 1;
-        layer.rank++;
-        layer.aliased--;
-      }
-    }
-  };
-  for (let u = 0; u < members.length; u++) if (members[u]) retry(u);
-  for (let i = openFrom; i < order.length; i++) retry(order[i]);
 }

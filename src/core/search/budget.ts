@@ -1,9 +1,11 @@
 // The compute budget of one search request, checked before any work starts
 // (and, for branch and bound, whose cost is not known in advance, by a node
-// count while it runs). The work of one subset is one block sweep, about d^2
+// count while it runs: when it runs out, the search answers the best found so
+// far, marked unproven). The work of one subset is one block sweep, about d^2
 // multiply-adds for d design columns plus the response.
 
 import { MAX_EXHAUSTIVE_TERMS } from './counting-search.ts';
+import { MAX_KEYED_TERMS } from './subset-keys.ts';
 import type { SubsetProblem } from './types.ts';
 
 export interface SearchBudget {
@@ -18,7 +20,9 @@ export interface SearchBudget {
 /**
  * Measured on the 2-core development machine (scripts/bench-search.ts):
  * about 1e6 subsets/s per core for a 20-term pool, so 2^24 subsets take
- * some 8 s on two cores; a node of branch and bound costs about two sweeps.
+ * some 8 s on two cores; a node of branch and bound costs about two sweeps
+ * and a bound, so 2^24 nodes take longer (README: speed figures), but a
+ * 40-term pool of the kind the budget is for needs thousands, not millions.
  */
 export const DEFAULT_SEARCH_BUDGET: SearchBudget = { maxSubsets: 2 ** 24, maxBranchAndBoundTerms: 40, maxNodes: 2 ** 24 };
 
@@ -48,13 +52,15 @@ export function planSearch(problem: SubsetProblem, request: { exhaustive?: boole
   if (request.exhaustive) {
     return refusal('maxSubsets', budget.maxSubsets, subsets, m, `every subset of ${m} pool terms is ${subsets} subsets, beyond the budget of ${budget.maxSubsets}.`);
   }
-  if (m > budget.maxBranchAndBoundTerms) {
+  // Branch and bound names a subset by one exact double (subset-keys.ts), whatever budget a caller configures.
+  const branchLimit = Math.min(budget.maxBranchAndBoundTerms, MAX_KEYED_TERMS);
+  if (m > branchLimit) {
     return refusal(
       'maxBranchAndBoundTerms',
-      budget.maxBranchAndBoundTerms,
+      branchLimit,
       m,
       m,
-      `a pool of ${m} terms is beyond the branch-and-bound budget of ${budget.maxBranchAndBoundTerms} terms.`,
+      `a pool of ${m} terms is beyond the branch-and-bound budget of ${branchLimit} terms.`,
     );
   }
   return { ok: true, method: 'branchAndBound', subsets, estimatedFlops: null, budget };
@@ -64,15 +70,5 @@ function refusal(budget: keyof SearchBudget, limit: number, required: number, po
   return {
     ok: false,
     issue: { code: 'search_over_budget', path: ['pool'], message: `The search cannot run: ${why} Narrow the pool or add always terms.`, facts: { budget, limit, required, poolTerms } },
-  };
-}
-
-/** The issue when branch and bound ran out of nodes before it could prove its top models. */
-export function nodeBudgetIssue(budget: SearchBudget, poolTerms: number): BudgetIssue {
-  return {
-    code: 'search_over_budget',
-    path: ['pool'],
-    message: `The search stopped: branch and bound needed more than the budget of ${budget.maxNodes} tree nodes for ${poolTerms} pool terms. Narrow the pool or add always terms.`,
-    facts: { budget: 'maxNodes', limit: budget.maxNodes, required: budget.maxNodes + 1, poolTerms },
   };
 }

@@ -24,6 +24,12 @@ export interface SearchOutcome extends SubsetCounts {
   subsets: number;
   /** True when weights and importance cover every admissible subset (no pruning). */
   weightsCoverAllSubsets: boolean;
+  /**
+   * True when every subset was scored or proven unable to enter the best
+   * `top`, so the models are the best; false when a node budget stopped
+   * branch and bound first, and the models are the best found so far.
+   */
+  proven: boolean;
   models: RankedSubset[];
   /** Per pool term (index order). */
   importance: { term: number; weight: number }[];
@@ -54,6 +60,7 @@ export function finishSearch(method: SearchMethod, settings: SearchSettings, poo
     evaluated: sum((p) => p.evaluated),
     subsets: 2 ** poolSize,
     weightsCoverAllSubsets: pruned === 0 && !stopped,
+    proven: !stopped,
     notHierarchical: sum((p) => p.notHierarchical),
     unscorable: sum((p) => p.unscorable),
     rankDeficient: sum((p) => p.rankDeficient),

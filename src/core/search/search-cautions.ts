@@ -36,6 +36,15 @@ export function searchCautions(prepared: PreparedSearch, outcome: SearchOutcome,
       message: `Under the hierarchy rule these pool terms can never enter, because a term they are built from is in neither the pool nor always: ${list.join('; ')}.`,
     });
   }
+  if (!outcome.proven) {
+    // Under the 'score' rule rank-deficient subsets are among the evaluated ones; under 'skip' they were passed over.
+    const deficient = outcome.rankDeficientRule === 'skip' ? outcome.rankDeficient : 0;
+    const accounted = outcome.evaluated + outcome.notHierarchical + outcome.unscorable + deficient + outcome.sameColumnSpace + outcome.exactFits + outcome.pruned;
+    out.push({
+      code: 'search_not_proven',
+      message: `The node budget of branch and bound (budget.maxNodes) ran out after ${outcome.nodes} tree nodes, before the best ${input.top} subsets were proven: the models listed are the best found so far (at least as good as stepwise selection with swaps finds), but a better subset may be among the ${outcome.subsets - accounted} subsets neither scored nor ruled out. Do not read them as the best subsets; narrow the pool, add always terms the domain already requires, or ask for fewer models (top).`,
+    });
+  }
   if (!outcome.weightsCoverAllSubsets) {
     out.push({
       code: 'weights_over_evaluated_subsets',

@@ -75,3 +75,9 @@ export class TopModels {
 export function mergeTopModels(lists: readonly ScoredSubset[][], capacity: number): ScoredSubset[] {
   return lists.flat().sort(compareSubsets).slice(0, capacity);
 }
+
+/** The worst value among the best `capacity` of several kept lists: what a subset must beat to enter; null while fewer are known. */
+export function keptThreshold(lists: readonly ScoredSubset[][], capacity: number): number | null {
+  const merged = mergeTopModels(lists, capacity);
+  return merged.length >= capacity && merged.length > 0 ? merged[merged.length - 1].value : null;
+}

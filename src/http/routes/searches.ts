@@ -66,7 +66,7 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
       tags: ['searches'],
       summary: 'Score every subset of a pool of terms, refit the best and record the search',
       description:
-        'With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total }) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start are answered with their status as usual.',
+        'With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start are answered with their status as usual.',
       body: SearchRequest,
       response: { 200: SearchResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
     },
@@ -84,7 +84,7 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
     const abort = new AbortController();
     const stream = wantsEventStream(request.headers.accept) ? new EventStream(reply, () => abort.abort()) : null;
     let lastProgress = 0;
-    stream?.send('progress', { covered: 0, total: plan.subsets });
+    stream?.send('progress', { covered: 0, total: plan.subsets, nodes: 0, bound: null });
     const started = performance.now();
     let run;
     try {
@@ -95,7 +95,7 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
           const now = performance.now();
           if (stream && now - lastProgress >= PROGRESS_INTERVAL_MS) {
             lastProgress = now;
-            stream.send('progress', { covered: p.covered, total: p.total });
+            stream.send('progress', { covered: p.covered, total: p.total, nodes: p.nodes, bound: p.bound });
           }
         },
       });
@@ -127,6 +127,7 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
       evaluated: outcome.evaluated,
       subsets: outcome.subsets,
       weightsCoverAllSubsets: outcome.weightsCoverAllSubsets,
+      proven: outcome.proven,
       passedOver: {
         notHierarchical: outcome.notHierarchical,
         unscorable: outcome.unscorable,

@@ -28,7 +28,7 @@ export const SearchRequest = z
     rankBy: SearchCriterionSchema.optional().meta({ description: 'Default from the team policy (aicc when the policy ranks by adjustedR2).' }),
     top: z.number().int().min(1).max(100).default(20).meta({ description: 'How many of the best subsets to return, refitted.' }),
     exhaustive: z.boolean().default(false).meta({
-      description: 'Refuse (422) rather than fall back to branch and bound when scoring every subset is beyond the compute budget; with branch and bound the best models are exact but weights cover only the evaluated subsets.',
+      description: 'Refuse (422) rather than fall back to branch and bound when scoring every subset is beyond the compute budget; with branch and bound the best models are exact when `proven` is true (the best found so far when the node budget ran out first), and weights cover only the evaluated subsets.',
     }),
     label: z.string().max(1000).optional(),
   })

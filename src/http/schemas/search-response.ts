@@ -17,7 +17,7 @@ export const SearchBudgetSchema = z
     maxBranchAndBoundTerms: z.number().int().meta({ description: 'Largest pool branch and bound accepts.' }),
     maxNodes: z.number().int().meta({ description: 'Most tree nodes branch and bound may visit.' }),
     estimatedFlops: z.number().nullable().meta({ description: 'Exhaustive: about 2 d² multiply-adds per subset (d design columns); null for branch and bound.' }),
-    nodes: z.number().int().meta({ description: 'Branch-and-bound nodes visited (0 exhaustive).' }),
+    nodes: z.number().int().meta({ description: 'Branch-and-bound tree nodes visited, on every thread (0 exhaustive).' }),
     elapsedMs: z.number().meta({ description: 'Wall time of the subset scoring (not the refits).' }),
   })
   .meta({ id: 'SearchBudget' });
@@ -34,6 +34,10 @@ export const SearchResult = z
     evaluated: z.number().int().meta({ description: 'Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded).' }),
     subsets: z.number().int().meta({ description: '2^m: every subset of the pool.' }),
     weightsCoverAllSubsets: z.boolean().meta({ description: 'True when no admissible subset was pruned, so weights and importance are over all of them.' }),
+    proven: z.boolean().meta({
+      description:
+        'True when `models` are proven the best `top`: every subset was scored, or proven by branch and bound unable to enter. False when the node budget (budget.maxNodes) ran out first: `models` are then the best found so far, at least as good as stepwise selection with swaps finds, and a caution says so.',
+    }),
     passedOver: z
       .strictObject({
         notHierarchical: z.number().int(),

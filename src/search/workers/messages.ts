@@ -1,6 +1,6 @@
 // What the search pool and its workers say to each other (structured clone).
 
-import type { BranchPrefix, SearchPartial, SearchSettings, SubsetProblem } from '../../core/search/index.ts';
+import type { BranchPrefix, BranchStart, SearchPartial, SearchSettings, SubsetProblem } from '../../core/search/index.ts';
 
 export type SearchTask =
   | { kind: 'exhaustive'; id: number; problem: SubsetProblem; settings: SearchSettings; from: number; to: number }
@@ -10,6 +10,8 @@ export type SearchTask =
       problem: SubsetProblem;
       settings: SearchSettings;
       prefix: BranchPrefix;
+      /** The stepwise start's threshold and counted subsets, and the root's eigenvalue floor (planBranchAndBound). */
+      start: BranchStart;
       /** Int32 node counter shared by every task of one search, for the node budget. */
       nodeCounter: SharedArrayBuffer;
       maxNodes: number;

@@ -5,14 +5,16 @@
 import { branchAndBound, scoreSubsetRange, type SearchPartial } from '../../core/search/index.ts';
 import type { SearchTask } from './messages.ts';
 
-/** Nodes are counted in batches of this size (the kernel asks every 256 nodes). */
-const NODE_BATCH = 256;
-
 export function runTask(task: SearchTask): SearchPartial {
   if (task.kind === 'exhaustive') return scoreSubsetRange(task.problem, task.settings, task.from, task.to);
   const counter = new Int32Array(task.nodeCounter);
-  return branchAndBound(task.problem, task.settings, task.prefix, () => {
-    const total = Atomics.add(counter, 0, NODE_BATCH) + NODE_BATCH;
+  let reported = 0;
+  // The kernel asks at its first node and every 256 after: the nodes since the last ask go to the shared count.
+  const partial = branchAndBound(task.problem, task.settings, task.prefix, task.start, (nodes) => {
+    const total = Atomics.add(counter, 0, nodes - reported) + nodes - reported;
+    reported = nodes;
     return total <= task.maxNodes;
   });
+  Atomics.add(counter, 0, partial.nodes - reported);
+  return partial;
 }

@@ -1,19 +1,20 @@
 // The search across every core: the pure kernel's work split into tasks
-// (contiguous Gray-code ranges, or subtrees of branch and bound under fixed
-// first decisions), run on worker threads, joined by finishSearch. Ranges
-// start at multiples of the kernel's refresh interval, so exhaustive results
-// are bit-identical to one thread's apart from the order of the final weight
-// sums (agreement to ~1e-15 relative). Branch and bound prunes within each
-// subtree against that subtree's own top list, so it may evaluate more
-// subsets than one thread would; the top models are the same.
+// (contiguous counting-order ranges, or subtrees of branch and bound under
+// fixed first decisions from planBranchAndBound), run on worker threads,
+// joined by finishSearch in task order. Exhaustive results are bit-identical
+// to one thread's apart from the order of the final weight sums (agreement to
+// ~1e-15 relative). Branch-and-bound tasks are pure functions of the plan, so
+// their results are the same on any number of threads; only when the shared
+// node budget runs out does which work was done depend on timing (the result
+// then says it is not proven).
 
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import {
-  branchOrder,
   DEFAULT_SEARCH_BUDGET,
   finishSearch,
-  nodeBudgetIssue,
+  keptThreshold,
+  planBranchAndBound,
   planSearch,
   REFRESH_STEPS,
   type BudgetIssue,
@@ -32,6 +33,14 @@ export interface SearchProgress {
   total: number;
   tasksDone: number;
   tasks: number;
+  /** Branch and bound: tree nodes visited so far, on every thread (0 exhaustive). */
+  nodes: number;
+  /**
+   * Branch and bound: the criterion value a subset must beat to enter the
+   * best `top` known so far (the stepwise start's and the finished tasks');
+   * null until `top` are known, and for exhaustive searches.
+   */
+  bound: number | null;
 }
 
 export interface RunSearchOptions {
@@ -50,6 +59,7 @@ export type RunSearchResult =
 
 /** Below this many subsets the search runs on the calling thread: starting workers would cost more. */
 const IN_THREAD_SUBSETS = 2 ** 14;
+/** Exhaustive ranges per thread, so threads finishing early take more. */
 const TASKS_PER_THREAD = 8;
 
 export async function runSearch(problem: SubsetProblem, settings: SearchSettings, options: RunSearchOptions = {}): Promise<RunSearchResult> {
@@ -60,10 +70,10 @@ export async function runSearch(problem: SubsetProblem, settings: SearchSettings
   const total = 2 ** m;
   const wanted = Math.max(1, Math.floor(options.threads ?? availableParallelism()));
   const threads = total <= IN_THREAD_SUBSETS ? 1 : wanted;
-  const tasks = plan.method === 'exhaustive' ? exhaustiveTasks(problem, settings, threads) : branchTasks(problem, settings, threads, budget);
-  const partials = await runTasks(tasks, threads, total, options);
-  const outcome = finishSearch(plan.method, settings, m, partials);
-  if (outcome.stopped) return { ok: false, issue: nodeBudgetIssue(budget, m), budget };
+  const branch = plan.method === 'branchAndBound' ? branchTasks(problem, settings, budget) : null;
+  const tasks = branch ? branch.tasks : exhaustiveTasks(problem, settings, threads);
+  const partials = await runTasks(tasks, threads, total, options, branch ? [branch.start] : [], branch?.nodeCounter);
+  const outcome = finishSearch(plan.method, settings, m, branch ? [branch.start, ...partials] : partials);
   return { ok: true, outcome, threads, budget, estimatedFlops: plan.estimatedFlops };
 }
 
@@ -78,18 +88,13 @@ function exhaustiveTasks(problem: SubsetProblem, settings: SearchSettings, threa
   return tasks;
 }
 
-function branchTasks(problem: SubsetProblem, settings: SearchSettings, threads: number, budget: SearchBudget): SearchTask[] {
-  const m = problem.poolBlocks.length;
-  const order = branchOrder(problem);
-  const depth = threads === 1 ? 0 : Math.min(m, Math.ceil(Math.log2(threads * TASKS_PER_THREAD)));
+/** The plan's subtrees as tasks (the same on any number of threads), and the start's partial, counted once. */
+function branchTasks(problem: SubsetProblem, settings: SearchSettings, budget: SearchBudget) {
+  const plan = planBranchAndBound(problem, settings);
   const nodeCounter = new SharedArrayBuffer(4);
   const maxNodes = Math.min(budget.maxNodes, 2 ** 30);
-  const tasks: SearchTask[] = [];
-  for (let code = 0; code < 2 ** depth; code++) {
-    const decided = Array.from({ length: depth }, (_, i) => (code >>> (depth - 1 - i)) & 1);
-    tasks.push({ kind: 'branchAndBound', id: tasks.length, problem, settings, prefix: { order, decided }, nodeCounter, maxNodes });
-  }
-  return tasks;
+  const tasks: SearchTask[] = plan.prefixes.map((prefix, id) => ({ kind: 'branchAndBound', id, problem, settings, prefix, start: plan.start, nodeCounter, maxNodes }));
+  return { tasks, start: plan.startPartial, nodeCounter };
 }
 
 function covers(task: SearchTask): number {
@@ -104,15 +109,33 @@ function startWorker(): Worker {
   return new Worker(new URL('./worker-entry.mjs', import.meta.url), { workerData: { entry } });
 }
 
-async function runTasks(tasks: SearchTask[], threads: number, total: number, options: RunSearchOptions): Promise<SearchPartial[]> {
+async function runTasks(
+  tasks: SearchTask[],
+  threads: number,
+  total: number,
+  options: RunSearchOptions,
+  known: SearchPartial[],
+  nodeCounter?: SharedArrayBuffer,
+): Promise<SearchPartial[]> {
   const results: SearchPartial[] = new Array(tasks.length);
+  const tops = known.map((p) => p.top);
+  const nodes = nodeCounter ? new Int32Array(nodeCounter) : null;
   let covered = 0;
   let done = 0;
   const report = (task: SearchTask, p: SearchPartial) => {
     results[task.id] = p;
     covered += covers(task);
     done++;
-    options.onProgress?.({ covered, total, tasksDone: done, tasks: tasks.length });
+    if (!options.onProgress) return;
+    tops.push(p.top);
+    options.onProgress({
+      covered,
+      total,
+      tasksDone: done,
+      tasks: tasks.length,
+      nodes: nodes ? Atomics.load(nodes, 0) : 0,
+      bound: task.kind === 'branchAndBound' ? keptThreshold(tops, task.settings.top) : null,
+    });
   };
   if (threads === 1) {
     for (const task of tasks) {

@@ -72,3 +72,14 @@ export function bruteForce(c: SearchCase, criterion: SearchCriterion): { models:
   ranked.sort((a, b) => a.value - b.value || a.terms.length - b.terms.length);
   return { models: ranked, importance };
 }
+
+/** The demo scenario's columns as a 16-term pool: numeric terms, a factor, powers, products, transforms. */
+export const demoPool: Term[] = [
+  'peakTemp', 'holdMinutes', 'moisture', { kind: 'factor', of: 'kiln' },
+  { kind: 'power', of: 'peakTemp', degree: 2 }, { kind: 'power', of: 'holdMinutes', degree: 2 },
+  { kind: 'power', of: 'moisture', degree: 2 }, { kind: 'product', of: ['peakTemp', 'holdMinutes'] },
+  { kind: 'product', of: ['peakTemp', 'moisture'] }, { kind: 'product', of: ['holdMinutes', 'moisture'] },
+  { kind: 'product', of: ['peakTemp', 'kiln'] }, { kind: 'product', of: ['moisture', 'kiln'] },
+  { kind: 'transform', of: 'moisture', fn: 'log' }, { kind: 'transform', of: 'holdMinutes', fn: 'sqrt' },
+  { kind: 'product', of: ['holdMinutes', 'kiln'] }, { kind: 'power', of: 'peakTemp', degree: 3 },
+];

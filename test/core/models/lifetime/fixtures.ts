@@ -4,7 +4,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { buildDesign } from '../../../../src/core/design/index.ts';
-import { seededUniform as demoUniform } from '../../../../scripts/demo-data.ts';
+import { seededUniform as demoUniform } from '../../../../scripts/seeded-random.ts';
 import type { Columns, DesignMatrix, Term } from '../../../../src/core/types.ts';
 import { censoredResponse, type CensoredResponse, type CensoringColumns } from '../../../../src/core/models/lifetime/index.ts';
 
