@@ -42,6 +42,19 @@ const ConfigSchema = z.object({
     }
     return origins;
   }),
+  // Deepest nesting of arrays and objects in a JSON body. Requests nest six
+  // levels today; a body nested a million deep would otherwise become a million
+  // objects before any check could see it.
+  JSON_MAX_DEPTH: wholeNumber(2, 10_000).default(64),
+  // Failed authentications (no key, a malformed header, an unknown key) one
+  // client address may make per minute before every keyed request from it is
+  // answered 429 for the rest of the minute. A dashboard polling with a stale
+  // key stays well under; a guesser is slowed to a trickle.
+  AUTH_FAILURES_PER_MINUTE: positiveInt(30),
+  // POST /v1/summaries in flight at once per caller (API key, or client
+  // address when open): each holds a socket and a share of the CPU for as long
+  // as its rows stream.
+  SUMMARY_UPLOADS_PER_CALLER: positiveInt(2),
   // Per API key (per client address when no keys are configured). 600/min is ten
   // a second: far above a dashboard, far below what one core can fit.
   RATE_LIMIT_PER_MINUTE: positiveInt(600),
@@ -65,6 +78,9 @@ export type Config = Readonly<{
   maxWorkCells: number;
   summaryBodyLimitBytes: number;
   corsOrigins: ReadonlyArray<string>;
+  jsonMaxDepth: number;
+  authFailuresPerMinute: number;
+  summaryUploadsPerCaller: number;
   rateLimitPerMinute: number;
   requestTimeoutMs: number;
   eventLoopMaxDelayMs: number;
@@ -92,6 +108,9 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     maxWorkCells: c.MAX_WORK_CELLS,
     summaryBodyLimitBytes: c.SUMMARY_BODY_LIMIT_BYTES,
     corsOrigins: Object.freeze(c.CORS_ORIGINS),
+    jsonMaxDepth: c.JSON_MAX_DEPTH,
+    authFailuresPerMinute: c.AUTH_FAILURES_PER_MINUTE,
+    summaryUploadsPerCaller: c.SUMMARY_UPLOADS_PER_CALLER,
     rateLimitPerMinute: c.RATE_LIMIT_PER_MINUTE,
     requestTimeoutMs: c.REQUEST_TIMEOUT_MS,
     eventLoopMaxDelayMs: c.EVENT_LOOP_MAX_DELAY_MS,

@@ -56,7 +56,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
     return503OnClosing: false,
   }).withTypeProvider<ZodTypeProvider>();
 
-  registerJsonBody(app as unknown as FastifyInstance);
+  registerJsonBody(app as unknown as FastifyInstance, { maxDepth: config.jsonMaxDepth });
   // The body exactly as sent (before schema defaults), for the audit record's request and digest.
   app.addHook('preValidation', async (request) => {
     request.sentBody = request.body;
