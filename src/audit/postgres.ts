@@ -11,8 +11,8 @@ import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { postgresMigrations } from './migrations/postgres.ts';
-import { listFilter, pageOf, whereClause } from './query.ts';
-import { chainRecord, prepareRecord, RECORD_COLUMNS, recordToRow, rowToRecord, type PreparedRecord, type RecordRow } from './rows.ts';
+import { listFilter, listQuery, pageOf, postgresDialect } from './query.ts';
+import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
 import { headFromRow, verifyByPages } from './verify-pages.ts';
 
@@ -71,6 +71,11 @@ async function migrate(pool: pg.Pool, schema: string | undefined): Promise<void>
   }
 }
 
+/** "($1, $2), ($3, $4)" for the rows, appending their values to params. */
+function valuesList(rows: unknown[][], params: unknown[]): string {
+  return rows.map((row) => `(${row.map((value) => `$${params.push(value)}`).join(', ')})`).join(', ');
+}
+
 class PostgresAuditStore implements AuditStore {
   readonly backend = 'postgres' as const;
   private closed = false;
@@ -110,12 +115,13 @@ class PostgresAuditStore implements AuditStore {
         stored.push(r);
         head = { seq: r.seq, id: r.id, hash: r.hash };
       }
-      const width = RECORD_COLUMNS.length;
-      const values = stored.map((_, i) => `(${RECORD_COLUMNS.map((__, j) => `$${i * width + j + 1}`).join(', ')})`);
-      const params = stored.flatMap(recordToRow);
+      const params: unknown[] = [];
+      const recordValues = valuesList(stored.map(recordToRow), params);
+      const listingValues = valuesList(stored.map(recordToListingRow), params);
       const n = params.length;
       await client.query(
-        `WITH inserted AS (INSERT INTO audit_records (${COLUMNS}) VALUES ${values.join(', ')} RETURNING 1)` +
+        `WITH inserted AS (INSERT INTO audit_records (${COLUMNS}) VALUES ${recordValues} RETURNING 1),` +
+          ` listed AS (INSERT INTO audit_listing (${LISTING_COLUMNS.join(', ')}) VALUES ${listingValues} RETURNING 1)` +
           ` UPDATE audit_head SET seq = $${n + 1}, record_id = $${n + 2}, hash = $${n + 3} WHERE singleton = 1`,
         [...params, head.seq, head.id, head.hash],
       );
@@ -142,12 +148,9 @@ class PostgresAuditStore implements AuditStore {
 
   async list(query?: ListQuery): Promise<ListPage> {
     const filter = listFilter(query);
-    const where = whereClause(filter, (n) => `$${n}`);
-    const { rows } = await this.query(
-      `SELECT ${COLUMNS} FROM audit_records ${where.sql} ORDER BY seq DESC LIMIT $${where.params.length + 1}`,
-      [...where.params, filter.limit + 1],
-    );
-    return pageOf(rows as RecordRow[], filter.limit);
+    const { sql, params } = listQuery(filter, postgresDialect);
+    const { rows } = await this.query(sql, params);
+    return pageOf(rows as ListedRow[], filter.limit);
   }
 
   async verify(): Promise<VerifyReport> {

@@ -11,8 +11,8 @@ import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { sqliteMigrations } from './migrations/sqlite.ts';
-import { listFilter, pageOf, whereClause } from './query.ts';
-import { chainRecord, prepareRecord, RECORD_COLUMNS, recordToRow, rowToRecord, type PreparedRecord, type RecordRow } from './rows.ts';
+import { listFilter, listQuery, pageOf, sqliteDialect } from './query.ts';
+import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
 import { headFromRow, verifyByPages } from './verify-pages.ts';
 
@@ -53,12 +53,14 @@ class SqliteAuditStore implements AuditStore {
   private writable = true;
   private readonly queue: GroupCommit | null;
   private readonly insert: Database.Statement;
+  private readonly insertListing: Database.Statement;
   private readonly selectHead: Database.Statement;
   private readonly updateHead: Database.Statement;
   private readonly commitBatch: (records: PreparedRecord[]) => StoredRecord[];
 
   constructor(private readonly db: Database.Database, private readonly ids: RecordIdSource, options: AuditStoreOptions) {
     this.insert = db.prepare(`INSERT INTO audit_records (${COLUMNS}) VALUES (${RECORD_COLUMNS.map(() => '?').join(', ')})`);
+    this.insertListing = db.prepare(`INSERT INTO audit_listing (${LISTING_COLUMNS.join(', ')}) VALUES (${LISTING_COLUMNS.map(() => '?').join(', ')})`);
     this.selectHead = db.prepare('SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1');
     this.updateHead = db.prepare('UPDATE audit_head SET seq = ?, record_id = ?, hash = ? WHERE singleton = 1');
     const tx = db.transaction((records: PreparedRecord[]) => {
@@ -67,6 +69,7 @@ class SqliteAuditStore implements AuditStore {
       for (const record of records) {
         const r = chainRecord(record, head, this.ids.next());
         this.insert.run(...recordToRow(r));
+        this.insertListing.run(...recordToListingRow(r));
         stored.push(r);
         head = { seq: r.seq, id: r.id, hash: r.hash };
       }
@@ -107,10 +110,8 @@ class SqliteAuditStore implements AuditStore {
 
   async list(query?: ListQuery): Promise<ListPage> {
     const filter = listFilter(query);
-    const where = whereClause(filter, () => '?');
-    const rows = this.read(() =>
-      this.db.prepare(`SELECT ${COLUMNS} FROM audit_records ${where.sql} ORDER BY seq DESC LIMIT ?`).all(...where.params, filter.limit + 1),
-    ) as RecordRow[];
+    const { sql, params } = listQuery(filter, sqliteDialect);
+    const rows = this.read(() => this.db.prepare(sql).all(...params)) as ListedRow[];
     return pageOf(rows, filter.limit);
   }
 

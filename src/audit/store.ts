@@ -40,6 +40,19 @@ export const StoredRecordSchema = NewRecordSchema.extend({
 }).strict();
 export type StoredRecord = z.output<typeof StoredRecordSchema>;
 
+/**
+ * What a list shows of a record: the envelope, the best model and the chain
+ * position. Read without touching the request or result (a page of large
+ * records would otherwise be parsed whole).
+ */
+export const ListedRecordSchema = StoredRecordSchema.pick({
+  seq: true, id: true, createdAt: true, kind: true, caller: true, label: true, datasetFingerprint: true, hash: true,
+}).extend({
+  /** A comparison's verdict.chosen, a search's first model; null when the record has none (or predates the listing table and its result did not say). */
+  best: z.string().nullable(),
+}).strict();
+export type ListedRecord = z.output<typeof ListedRecordSchema>;
+
 export const LIST_LIMIT_DEFAULT = 20;
 export const LIST_LIMIT_MAX = 100;
 
@@ -50,6 +63,7 @@ export interface ListQuery {
   limit?: number;
   fingerprint?: string;
   caller?: string;
+  /** Records whose label contains this text (case as written). */
   label?: string;
   kind?: RecordKind;
   /** Inclusive lower bound on createdAt (any ISO 8601 date or date-time). */
@@ -67,7 +81,7 @@ export interface CorruptRow {
 
 export interface ListPage {
   /** Newest first (descending seq: the chain's order is the store's order). */
-  records: StoredRecord[];
+  records: ListedRecord[];
   corrupt: CorruptRow[];
   /** Pass back as `cursor` for the next (older) page; null on the last page. */
   nextCursor: string | null;

@@ -1,0 +1,81 @@
+// Listing after large records are stored, and again after a restart: the list
+// reads the envelope and the listing table only, so its cost does not grow
+// with the size of the records on the page. Asserted by behaviour: nothing
+// the size of a record body is parsed while a page is answered.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import t from 'tap';
+import { defaultConfig } from '../../src/config.ts';
+import { openAuditStore, requestDigest, type AuditStore, type NewRecord } from '../../src/audit/open.ts';
+import { buildApp } from '../../src/http/app.ts';
+
+// Demo scenario (invented): predictions of glaze thickness for many planned firings.
+export function largeRecord(i: number, predictionRows: number): NewRecord {
+  const request = { response: 'thickness', candidates: [{ name: 'by-dwell', terms: ['dwell'] }], planned: i };
+  const predictions = Array.from({ length: predictionRows }, (_, r) => ({ estimate: 0.4 + r * 1e-6, standardError: 0.01, lower: 0.38, upper: 0.42 }));
+  return {
+    kind: 'comparison', caller: 'kiln-planning', label: `planned firings ${i}`, serviceVersion: '0.1.0', conventionsVersion: '1', policy: null,
+    datasetFingerprint: `sha256:${String(i).repeat(64).slice(0, 64)}`, requestDigest: requestDigest(request), request,
+    result: {
+      verdict: { chosen: 'by-dwell', rankBy: 'aicc', agree: true },
+      models: [{ name: 'by-dwell', predictions }, { name: 'dwell-squared', predictions }],
+      rankings: { aicc: [{ rank: 1, name: 'by-dwell', value: 1, delta: 0, weight: 0.7 }, { rank: 2, name: 'dwell-squared', value: 2.7, delta: 1.7, weight: 0.3 }] },
+    },
+  };
+}
+
+/** The longest text JSON.parse is given while `during` runs. */
+export async function longestParsed<T>(during: () => Promise<T>): Promise<{ value: T; longest: number }> {
+  const parse = JSON.parse;
+  let longest = 0;
+  JSON.parse = ((text: string, reviver?: (this: unknown, key: string, value: unknown) => unknown) => {
+    longest = Math.max(longest, String(text).length);
+    return parse(text, reviver);
+  }) as typeof JSON.parse;
+  try {
+    return { value: await during(), longest };
+  } finally {
+    JSON.parse = parse;
+  }
+}
+
+t.test('a page of large records lists without reading their bodies, before and after a restart', async (t) => {
+  const dir = mkdtempSync(join(tmpdir(), 'parsimetry-large-'));
+  t.teardown(() => rmSync(dir, { recursive: true, force: true }));
+  const file = join(dir, 'audit.sqlite');
+  // Load shedding off: the test's own appends of large records hold the loop.
+  const config = defaultConfig({ auditDb: file, eventLoopMaxDelayMs: 0 });
+
+  const open = async (): Promise<{ store: AuditStore; list: () => Promise<{ records: { id: string; best: string; label: string }[] }> }> => {
+    const store = await openAuditStore(file);
+    const app = await buildApp({ config, store, logger: false });
+    t.teardown(async () => {
+      await app.close();
+      await store.close();
+    });
+    return {
+      store,
+      list: async () => {
+        const res = await app.inject({ method: 'GET', url: '/v1/comparisons?limit=100' });
+        t.equal(res.statusCode, 200, res.body.slice(0, 200));
+        return JSON.parse(res.body);
+      },
+    };
+  };
+
+  const first = await open();
+  // Four records of ~5 MB of result each (2 models × 30,000 prediction rows).
+  const ids: string[] = [];
+  for (let i = 1; i <= 4; i++) ids.push((await first.store.append(largeRecord(i, 30_000))).id);
+  const before = await longestParsed(first.list);
+  t.same(before.value.records.map((r) => r.id), [...ids].reverse());
+  t.ok(before.value.records.every((r) => r.best === 'by-dwell'), 'the best model comes from the listing table');
+  t.ok(before.longest < 100_000, `nothing record-sized was parsed (longest text parsed: ${before.longest} characters)`);
+
+  // A restart: a new store and app on the same file.
+  const second = await open();
+  const after = await longestParsed(second.list);
+  t.same(after.value.records.map((r) => r.label), ['planned firings 4', 'planned firings 3', 'planned firings 2', 'planned firings 1']);
+  t.ok(after.longest < 100_000, `after a restart too (${after.longest})`);
+});
