@@ -75,3 +75,27 @@ t.test('a key never reaches the logs, even at trace level', async (t) => {
   t.notOk(all.includes(secrets.dashboard), 'the valid key is absent');
   t.notOk(all.includes('a-wrong-key-that-must-not-be-logged'), 'a wrong key is absent');
 });
+
+t.test('a key sent in a query string never reaches the logs; the path does', async (t) => {
+  const lines: string[] = [];
+  const sink = new Writable({ write(chunk, _enc, done) { lines.push(String(chunk)); done(); } });
+  const config = defaultConfig({ auditDb: ':memory:', logLevel: 'trace' });
+  const store = await openAuditStore(':memory:');
+  const app = await buildApp({ config, store, logger: pino(loggerOptions(config), sink), keys: ring });
+  t.teardown(async () => { await app.close(); await store.close(); });
+  const key = secrets.dashboard;
+  const urls = [
+    `/v1/comparisons?api_key=${key}`, // refused (no bearer key), 401
+    `/v1/comparisons?${key}`, // a bare key
+    `/v1/comparisons?limit=5&key=${encodeURIComponent(key)}`, // alongside a real parameter: 400 (unknown parameter)
+    `/no/such/route?token=${key}`, // 404
+  ];
+  for (const url of urls) await app.inject({ url, headers: bearer(key) });
+  await app.inject({ url: `/v1/comparisons?token=${key}` });
+  const all = lines.join('');
+  t.ok(all.includes('/v1/comparisons?[redacted]'), 'the path is logged, its query marked as redacted');
+  t.ok(all.includes('/no/such/route?[redacted]'));
+  t.notOk(all.includes(key), 'the key is absent from every line');
+  t.notOk(all.includes(encodeURIComponent(key)), 'in any encoding');
+  t.notOk(all.includes('api_key='), 'parameter names go too: a bare key would be one');
+});
