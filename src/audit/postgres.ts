@@ -14,7 +14,7 @@ import { postgresMigrations } from './migrations/postgres.ts';
 import { listFilter, listQuery, pageOf, postgresDialect } from './query.ts';
 import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
-import { headFromRow, verifyByPages } from './verify-pages.ts';
+import { headFromRow, rowsThatFit, verifyByPages } from './verify-pages.ts';
 
 const COLUMNS = RECORD_COLUMNS.join(', ');
 // Any fixed 64-bit key; only this program's migrations take it.
@@ -154,14 +154,22 @@ class PostgresAuditStore implements AuditStore {
   }
 
   async verify(): Promise<VerifyReport> {
-    return verifyByPages(async (afterSeq, limit) => {
+    return verifyByPages(async (afterSeq, limits) => {
       const client = await this.connect();
       try {
         await client.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
         const head = await client.query('SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1');
-        const page = await client.query(`SELECT ${COLUMNS} FROM audit_records WHERE seq > $1 ORDER BY seq LIMIT $2`, [afterSeq, limit]);
+        // Sizes first (octet_length reads TOAST headers, not the bodies), so a
+        // page never fetches more than its byte limit plus one row.
+        const sizes = await client.query(
+          'SELECT COALESCE(octet_length(request), 0) + octet_length(result) AS length FROM audit_records WHERE seq > $1 ORDER BY seq LIMIT $2',
+          [afterSeq, limits.rows],
+        );
+        const count = rowsThatFit(sizes.rows.map((r) => Number(r.length)), limits);
+        const page = count === 0 ? { rows: [] }
+          : await client.query(`SELECT ${COLUMNS} FROM audit_records WHERE seq > $1 ORDER BY seq LIMIT $2`, [afterSeq, count]);
         await client.query('COMMIT');
-        return { rows: page.rows as RecordRow[], head: headFromRow(head.rows[0]) };
+        return { rows: page.rows as RecordRow[], head: headFromRow(head.rows[0]), complete: sizes.rows.length < limits.rows && count === sizes.rows.length };
       } catch (err) {
         await client.query('ROLLBACK').catch(() => {});
         throw new AuditUnavailable(`the PostgreSQL audit store cannot be read: ${(err as Error).message}`, { cause: err });

@@ -6,7 +6,7 @@
 import Database from 'better-sqlite3';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
-import type { RecordedHead, VerifyReport } from './chain.ts';
+import type { VerifyReport } from './chain.ts';
 import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
@@ -14,7 +14,8 @@ import { sqliteMigrations } from './migrations/sqlite.ts';
 import { listFilter, listQuery, pageOf, sqliteDialect } from './query.ts';
 import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
-import { headFromRow, verifyByPages } from './verify-pages.ts';
+import { headFromRow, verifyByPages, type VerifyPage, type VerifyPageLimits } from './verify-pages.ts';
+import { rowBodyLength } from './verify-row.ts';
 
 const COLUMNS = RECORD_COLUMNS.join(', ');
 const BUSY_TIMEOUT_MS = 5000;
@@ -116,16 +117,25 @@ class SqliteAuditStore implements AuditStore {
   }
 
   async verify(): Promise<VerifyReport> {
-    const page = this.db.prepare(`SELECT ${COLUMNS} FROM audit_records WHERE seq > ? ORDER BY seq LIMIT ?`);
-    const snapshot = this.db.transaction((afterSeq: number, limit: number) => ({
-      rows: page.all(afterSeq, limit) as RecordRow[],
-      head: headFromRow(this.selectHead.get() as { seq: unknown; record_id: unknown; hash: unknown }) as RecordedHead,
-    }));
-    return verifyByPages(async (afterSeq, limit) => {
-      const result = this.read(() => snapshot.deferred(afterSeq, limit));
-      await new Promise((resolve) => setImmediate(resolve)); // let requests in between pages
-      return result;
+    const after = this.db.prepare(`SELECT ${COLUMNS} FROM audit_records WHERE seq > ? ORDER BY seq`);
+    // One read transaction per page: its rows and the head from one snapshot.
+    const snapshot = this.db.transaction((afterSeq: number, limits: VerifyPageLimits): VerifyPage => {
+      const rows: RecordRow[] = [];
+      let bytes = 0;
+      let complete = true;
+      // Row by row, so the row that fills the page is the last one read.
+      for (const row of after.iterate(afterSeq) as IterableIterator<RecordRow>) {
+        rows.push(row);
+        bytes += rowBodyLength(row);
+        if (rows.length >= limits.rows || bytes >= limits.bytes) {
+          complete = false;
+          break;
+        }
+      }
+      const head = headFromRow(this.selectHead.get() as { seq: unknown; record_id: unknown; hash: unknown });
+      return { rows, head, complete };
     });
+    return verifyByPages(async (afterSeq, limits) => this.read(() => snapshot.deferred(afterSeq, limits)));
   }
 
   async ready(): Promise<boolean> {

@@ -172,6 +172,17 @@ export function auditStoreSuite(t: Test, makeHarness: () => Promise<StoreHarness
     t.same(await store.verify(), { ok: true, records: 5, head: { seq: 5, id: last!.id, hash: last!.hash }, firstBroken: null });
   });
 
+  t.test('verify pages by size and checks large rows in a worker: records of a megabyte each', async (t) => {
+    const { harness, store } = await withStore(t);
+    // 12 records of ~1 MB of result: more than one page of 8 MiB, each row above the inline threshold.
+    const residuals = Array.from({ length: 50_000 }, (_, i) => Math.round(Math.sin(i) * 1e6) / 1e6);
+    const ids: string[] = [];
+    for (let i = 1; i <= 12; i++) ids.push((await store.append(comparisonRecord(i, { result: { residuals, firing: i } }))).id);
+    t.same(await store.verify(), { ok: true, records: 12, head: { seq: 12, id: ids[11], hash: (await store.get(ids[11]))!.hash }, firstBroken: null });
+    await harness.exec(`UPDATE audit_records SET result = replace(result, '"firing":11', '"firing":111') WHERE seq = 11`);
+    t.same((await store.verify()).firstBroken, { seq: 11, id: ids[10], reason: 'hash_mismatch' }, 'an edit on the second page, found by the worker');
+  });
+
   t.test('digest-only requests keep the digest and not the request', async (t) => {
     const { store } = await withStore(t);
     const full = comparisonRecord(1);

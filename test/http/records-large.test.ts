@@ -1,14 +1,17 @@
-// Listing after large records are stored, and again after a restart: the list
-// reads the envelope and the listing table only, so its cost does not grow
-// with the size of the records on the page. Asserted by behaviour: nothing
-// the size of a record body is parsed while a page is answered.
+// Large records stored, then read: the list reads the envelope and the listing
+// table only, so its cost does not grow with the size of the records on the
+// page (asserted by behaviour: nothing the size of a record body is parsed
+// while a page is answered), before and after a restart; verification checks
+// large rows in a worker thread while the service keeps answering.
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { setTimeout as sleep } from 'node:timers/promises';
 import t from 'tap';
 import { defaultConfig } from '../../src/config.ts';
 import { openAuditStore, requestDigest, type AuditStore, type NewRecord } from '../../src/audit/open.ts';
 import { buildApp } from '../../src/http/app.ts';
+import { buildTestApp } from '../helper.ts';
 
 // Demo scenario (invented): predictions of glaze thickness for many planned firings.
 export function largeRecord(i: number, predictionRows: number): NewRecord {
@@ -78,4 +81,23 @@ t.test('a page of large records lists without reading their bodies, before and a
   const after = await longestParsed(second.list);
   t.same(after.value.records.map((r) => r.label), ['planned firings 4', 'planned firings 3', 'planned firings 2', 'planned firings 1']);
   t.ok(after.longest < 100_000, `after a restart too (${after.longest})`);
+});
+
+t.test('verify walks many large records while /healthz keeps answering', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  // Six records of ~2 MB of result each: every one is checked in the worker thread.
+  for (let i = 1; i <= 6; i++) await store.append(largeRecord(i, 12_000));
+  let settled = false;
+  const verifying = app.inject({ method: 'GET', url: '/v1/audit/verify' }).finally(() => { settled = true; });
+  let answered = 0;
+  const statuses = new Set<number>();
+  while (!settled) {
+    statuses.add((await app.inject('/healthz')).statusCode);
+    if (!settled) answered++;
+    await sleep(5);
+  }
+  t.same([...statuses], [200]);
+  const report = (await verifying).json();
+  t.same({ ok: report.ok, records: report.records, firstBroken: report.firstBroken }, { ok: true, records: 6, firstBroken: null });
+  t.ok(answered >= 3, `/healthz answered ${answered} times while the chain was being verified`);
 });
