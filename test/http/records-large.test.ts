@@ -101,3 +101,31 @@ t.test('verify walks many large records while /healthz keeps answering', async (
   t.same({ ok: report.ok, records: report.records, firstBroken: report.firstBroken }, { ok: true, records: 6, firstBroken: null });
   t.ok(answered >= 3, `/healthz answered ${answered} times while the chain was being verified`);
 });
+
+t.test('chart and report of a record with 100,000 prediction rows per model: a bounded page that says what it left out', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  const base = largeRecord(7, 100_000);
+  const coefficients = Array.from({ length: 1_000 }, (_, j) => ({ term: `dwell×batch=${j}`, estimate: j / 1000, standardError: 0.01 }));
+  const result = base.result as { models: Record<string, unknown>[] };
+  const record = await store.append({
+    ...base,
+    result: {
+      ...base.result,
+      models: result.models.map((m) => ({ ...m, coefficients, aliased: Array.from({ length: 300 }, (_, j) => `batch=${j}`) })),
+      averaged: {
+        terms: coefficients.map((c) => ({ term: c.term, estimate: c.estimate, unconditionalStandardError: 0.02, importance: 0.5 })),
+        predictions: (result.models[0].predictions as unknown[]),
+      },
+    },
+  });
+  const report = await app.inject({ method: 'GET', url: `/v1/comparisons/${record.id}/report` });
+  t.equal(report.statusCode, 200, report.body.slice(0, 300));
+  t.ok(report.body.length < 1_000_000, `the page stays small (${report.body.length} characters)`);
+  t.match(report.body, /Showing the first 50 of 100000 averaged predictions; the stored record \(GET \/v1\/comparisons\/[0-9a-f-]+\) holds them all\./);
+  t.match(report.body, /Showing the first 200 of 1000 coefficients/);
+  t.match(report.body, /Showing the first 200 of 1000 averaged terms/);
+  t.match(report.body, /and 100 more/, 'aliased names are cut short too');
+  const chart = await app.inject({ method: 'GET', url: `/v1/comparisons/${record.id}/chart.svg` });
+  t.equal(chart.statusCode, 200);
+  t.ok(chart.body.length < 100_000, `the chart draws the models, not the rows (${chart.body.length} characters)`);
+});
