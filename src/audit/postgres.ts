@@ -6,7 +6,8 @@
 // throughput is one commit at a time across all replicas; group commit puts every
 // append waiting in this process into that one commit.
 import pg from 'pg';
-import type { VerifyReport } from './chain.ts';
+import type { RecordedHead as ChainHead, VerifyReport } from './chain.ts';
+import { WriteProof } from './write-proof.ts';
 import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
@@ -79,13 +80,13 @@ function valuesList(rows: unknown[][], params: unknown[]): string {
 class PostgresAuditStore implements AuditStore {
   readonly backend = 'postgres' as const;
   private closed = false;
-  private writable = true;
+  private readonly writes = new WriteProof();
   private readonly queue: GroupCommit | null;
 
   constructor(private readonly pool: pg.Pool, private readonly ids: RecordIdSource, options: AuditStoreOptions) {
     // An idle client losing its connection must not crash the process; the next query reports it.
     pool.on('error', () => {
-      this.writable = false;
+      this.writes.failed();
     });
     this.queue = (options.groupCommit ?? true) ? new GroupCommit((r) => this.write(r), options.maxBatch ?? 256) : null;
   }
@@ -126,11 +127,11 @@ class PostgresAuditStore implements AuditStore {
         [...params, head.seq, head.id, head.hash],
       );
       await client.query('COMMIT');
-      this.writable = true;
+      this.writes.succeeded();
       return stored;
     } catch (err) {
       broken = err as Error;
-      this.writable = false;
+      this.writes.failed();
       await client?.query('ROLLBACK').catch(() => {});
       throw new AuditUnavailable(`the PostgreSQL audit store refused the record: ${broken.message}`, { cause: err });
     } finally {
@@ -183,17 +184,25 @@ class PostgresAuditStore implements AuditStore {
     if (this.closed) return false;
     try {
       await this.pool.query('SELECT seq FROM audit_head WHERE singleton = 1');
-      if (!this.writable) {
+      if (this.writes.needsProbe) {
+        // A committed transaction, as an append makes; bounded, so a probe
+        // never hangs behind a lock longer than a load balancer waits.
         await this.pool.query(
-          'INSERT INTO audit_probe (singleton, at) VALUES (1, $1) ON CONFLICT (singleton) DO UPDATE SET at = EXCLUDED.at',
-          [new Date().toISOString()],
+          "BEGIN; SET LOCAL synchronous_commit TO on; SET LOCAL lock_timeout TO '2s'; SET LOCAL statement_timeout TO '5s';" +
+            ` INSERT INTO audit_probe (singleton, at) VALUES (1, '${new Date().toISOString()}') ON CONFLICT (singleton) DO UPDATE SET at = EXCLUDED.at; COMMIT`,
         );
-        this.writable = true;
+        this.writes.succeeded();
       }
       return true;
     } catch {
+      this.writes.failed();
       return false;
     }
+  }
+
+  async head(): Promise<ChainHead> {
+    const { rows } = await this.query('SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1', []);
+    return headFromRow(rows[0]);
   }
 
   async close(): Promise<void> {

@@ -6,7 +6,8 @@
 import Database from 'better-sqlite3';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
-import type { VerifyReport } from './chain.ts';
+import type { RecordedHead as ChainHead, VerifyReport } from './chain.ts';
+import { WriteProof } from './write-proof.ts';
 import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
@@ -51,7 +52,7 @@ function migrate(db: Database.Database): void {
 class SqliteAuditStore implements AuditStore {
   readonly backend = 'sqlite' as const;
   private closed = false;
-  private writable = true;
+  private readonly writes = new WriteProof();
   private readonly queue: GroupCommit | null;
   private readonly insert: Database.Statement;
   private readonly insertListing: Database.Statement;
@@ -93,10 +94,10 @@ class SqliteAuditStore implements AuditStore {
     if (this.closed) throw new AuditUnavailable('the audit store is closed');
     try {
       const stored = this.commitBatch(records);
-      this.writable = true;
+      this.writes.succeeded();
       return stored;
     } catch (err) {
-      this.writable = false;
+      this.writes.failed();
       throw new AuditUnavailable(`the SQLite audit store refused the record: ${(err as Error).message}`, { cause: err });
     }
   }
@@ -142,14 +143,20 @@ class SqliteAuditStore implements AuditStore {
     if (this.closed) return false;
     try {
       this.selectHead.get();
-      if (!this.writable) {
+      if (this.writes.needsProbe) {
+        // A committed transaction, as an append makes (WAL frame and fsync).
         this.db.prepare('INSERT OR REPLACE INTO audit_probe (singleton, at) VALUES (1, ?)').run(new Date().toISOString());
-        this.writable = true;
+        this.writes.succeeded();
       }
       return true;
     } catch {
+      this.writes.failed();
       return false;
     }
+  }
+
+  async head(): Promise<ChainHead> {
+    return headFromRow(this.read(() => this.selectHead.get()) as { seq: unknown; record_id: unknown; hash: unknown });
   }
 
   async close(): Promise<void> {

@@ -1,7 +1,7 @@
 // The audit store's one face: the record's shape (validated on the way in and on
 // the way back out) and the AuditStore interface both databases implement.
 import { z } from 'zod';
-import type { VerifyReport } from './chain.ts';
+import type { RecordedHead, VerifyReport } from './chain.ts';
 
 const hex64 = z.string().regex(/^[0-9a-f]{64}$/, 'expected 64 lowercase hex characters');
 const jsonObject = z.record(z.string(), z.unknown());
@@ -100,8 +100,14 @@ export interface AuditStore {
   list(query?: ListQuery): Promise<ListPage>;
   /** Re-hashes the whole chain in seq order. */
   verify(): Promise<VerifyReport>;
-  /** The database answers and the last write (or a write probe) succeeded. */
+  /**
+   * The database answers and a write has been proven: by an append or a write
+   * probe since the store opened, not after a failed write, and not longer ago
+   * than PROBE_AFTER_MS (src/audit/write-proof.ts); otherwise ready() probes one.
+   */
   ready(): Promise<boolean>;
+  /** The committed chain head: seq 0 and 64 zeros for an empty chain. */
+  head(): Promise<RecordedHead>;
   close(): Promise<void>;
 }
 
