@@ -94,7 +94,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   await app.register(auditRoutes, { store });
   await app.register(replayRoutes, { store, config, policy });
   await app.register(searchRoutes, { store, config, policy });
-  await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes });
+  await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes, uploadsPerCaller: config.summaryUploadsPerCaller });
 
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app as unknown as FastifyInstance;

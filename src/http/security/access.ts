@@ -23,6 +23,11 @@ declare module 'fastify' {
   }
 }
 
+/** Who a per-caller limit counts against: the API key id, or the client address when the service runs open. */
+export function callerKey(request: FastifyRequest): string {
+  return request.caller === ANONYMOUS ? `ip:${request.ip}` : `key:${request.caller}`;
+}
+
 function bearerToken(request: FastifyRequest): string | null {
   const header = request.headers.authorization;
   if (typeof header !== 'string') return null;
