@@ -35,7 +35,13 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number; upl
       description: `Send the rows as application/x-ndjson (one JSON object per line) or text/csv (a header row, then one record per line). Rows with a null or empty value in a listed column are left out (common rows); any other value that is not a finite number is a 400 naming the line. Memory is constant in the row count: (p + 1) × 8192 doubles for a block of rows plus O(p²). Body limit ${limit} bytes (SUMMARY_BODY_LIMIT_BYTES). At most ${options.uploadsPerCaller} uploads in flight at once per API key (per client address when open; SUMMARY_UPLOADS_PER_CALLER): one more is a 429 with Retry-After, before its body is read.`,
       querystring: SummaryUploadQuery,
       consumes: Object.keys(FORMATS),
-      response: { 200: SummaryUploadResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 429: ProblemSchema },
+      response: {
+        200: SummaryUploadResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema,
+        429: {
+          description: 'The caller already has SUMMARY_UPLOADS_PER_CALLER uploads in flight (refused before the body is read; Retry-After), or a rate limit as for every keyed operation.',
+          content: { 'application/json': { schema: ProblemSchema } },
+        },
+      },
     },
   }, async (request, reply) => {
     const type = String(request.headers['content-type'] ?? '').split(';')[0].trim().toLowerCase();
