@@ -29,6 +29,14 @@ t.test('numbers are decimal digits: empty, hexadecimal and exponent forms are re
   t.match(refused({ SUMMARY_UPLOADS_PER_CALLER: '' }), /SUMMARY_UPLOADS_PER_CALLER/);
 });
 
+t.test('TRUST_PROXY lists addresses, CIDR ranges and the named ranges; anything else is refused by name', async (t) => {
+  t.same(loadConfig({ TRUST_PROXY: '10.0.0.7, 172.16.0.0/12,uniquelocal, ::1, fd00::/8' }).trustProxy, ['10.0.0.7', '172.16.0.0/12', 'uniquelocal', '::1', 'fd00::/8']);
+  t.same(loadConfig({}).trustProxy, [], 'none by default');
+  t.match(refused({ TRUST_PROXY: 'nginx' }), /TRUST_PROXY: "nginx" is not an address/);
+  t.match(refused({ TRUST_PROXY: '10.0.0.0/33' }), /TRUST_PROXY/);
+  t.match(refused({ TRUST_PROXY: '10.0.0.0/8/8' }), /TRUST_PROXY/);
+});
+
 t.test('AUDIT_DB is a file path or a postgres:// URL; another scheme is a typo', async (t) => {
   t.match(refused({ AUDIT_DB: 'postgress://db.internal/audit' }), /AUDIT_DB/);
   t.equal(refused({ AUDIT_DB: 'postgresql://u@h/d' }), null);

@@ -54,6 +54,8 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
       return typeof given === 'string' && /^[\w.-]{1,100}$/.test(given) ? given : randomUUID();
     },
     ajv: undefined,
+    // request.ip: the client behind the listed proxies (TRUST_PROXY), else the socket's peer.
+    trustProxy: config.trustProxy.length > 0 ? [...config.trustProxy] : false,
     ...requestTimeoutOptions(config.requestTimeoutMs),
     // Refused by our own onRequest hook instead, as a problem naming the reason.
     return503OnClosing: false,

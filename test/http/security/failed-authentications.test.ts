@@ -33,6 +33,17 @@ t.test('invalid keys from one address: 401 up to the limit, then 429 for every k
   t.equal((await app.inject({ url: '/readyz', remoteAddress: guesser })).statusCode, 200);
 });
 
+t.test('behind a trusted proxy (TRUST_PROXY) each client behind it has its own count', async (t) => {
+  const { app } = await buildTestApp(t, { authFailuresPerMinute: 2, trustProxy: ['10.0.0.0/8'] }, { keys: ring });
+  const via = (client: string, key: string, proxy = '10.0.0.5') =>
+    app.inject({ url: '/v1/comparisons', remoteAddress: proxy, headers: { ...bearer(key), 'x-forwarded-for': client } });
+  for (let i = 0; i < 2; i++) t.equal((await via('198.51.100.7', 'guess')).statusCode, 401);
+  t.equal((await via('198.51.100.7', 'guess')).statusCode, 429, 'the guesser behind the proxy is limited');
+  t.equal((await via('198.51.100.8', secrets.dashboard)).statusCode, 200, 'another client behind the same proxy is not');
+  const spoofed = await app.inject({ url: '/v1/comparisons', remoteAddress: '198.51.100.7', headers: { ...bearer(secrets.dashboard), 'x-forwarded-for': '198.51.100.9' } });
+  t.equal(spoofed.statusCode, 429, 'X-Forwarded-For from an untrusted peer is ignored');
+});
+
 t.test('a known key without the role is a 403 and does not count as a failed authentication', async (t) => {
   const { app } = await buildTestApp(t, { authFailuresPerMinute: 2 }, { keys: ring });
   for (let i = 0; i < 4; i++) {
