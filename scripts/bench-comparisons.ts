@@ -45,6 +45,7 @@ function nothingKeptBaseline(): AuditStore {
     list: async () => ({ records: [], corrupt: [], nextCursor: null }),
     verify: async () => ({ ok: true, records: seq, head: null, firstBroken: null }),
     ready: async () => true,
+    head: async () => ({ seq, id: null, hash: zeros }),
     close: async () => {},
   };
 }

@@ -1,5 +1,6 @@
 // The only reader of process.env. Every setting is validated once at start so a
 // typo in a deployment fails loudly instead of running with a silent default.
+import { isIP } from 'node:net';
 import { z } from 'zod';
 
 // Decimal digits only: z.coerce.number() would read "" as 0 and "0x1F90" as
@@ -42,6 +43,37 @@ const ConfigSchema = z.object({
     }
     return origins;
   }),
+  // Deepest nesting of arrays and objects in a JSON body. Requests nest six
+  // levels today; a body nested a million deep would otherwise become a million
+  // objects before any check could see it.
+  JSON_MAX_DEPTH: wholeNumber(2, 10_000).default(64),
+  // Failed authentications (no key, a malformed header, an unknown key) one
+  // client address may make per minute before every keyed request from it is
+  // answered 429 for the rest of the minute. A dashboard polling with a stale
+  // key stays well under; a guesser is slowed to a trickle.
+  AUTH_FAILURES_PER_MINUTE: positiveInt(30),
+  // POST /v1/summaries in flight at once per caller (API key, or client
+  // address when open): each holds a socket and a share of the CPU for as long
+  // as its rows stream.
+  SUMMARY_UPLOADS_PER_CALLER: positiveInt(2),
+  // The proxies in front of the service (addresses, CIDR ranges, or loopback,
+  // linklocal, uniquelocal), comma-separated; none by default. Requests from
+  // them are taken to be from the address in X-Forwarded-For, so the limits
+  // per client address (AUTH_FAILURES_PER_MINUTE, and RATE_LIMIT_PER_MINUTE
+  // when open) count each client rather than the proxy: without it every
+  // caller behind a proxy shares one address, and one bad key locks them all out.
+  TRUST_PROXY: z.string().default('').transform((s, ctx) => {
+    const entries = s.split(',').map((e) => e.trim()).filter((e) => e.length > 0);
+    for (const e of entries) {
+      const [address, prefix, ...rest] = e.split('/');
+      const family = isIP(address);
+      const prefixOk = prefix === undefined || (/^\d{1,3}$/.test(prefix) && Number(prefix) <= (family === 6 ? 128 : 32));
+      if (!['loopback', 'linklocal', 'uniquelocal'].includes(e) && (family === 0 || !prefixOk || rest.length > 0)) {
+        ctx.addIssue({ code: 'custom', message: `"${e}" is not an address, a CIDR range, or loopback, linklocal or uniquelocal` });
+      }
+    }
+    return entries;
+  }),
   // Per API key (per client address when no keys are configured). 600/min is ten
   // a second: far above a dashboard, far below what one core can fit.
   RATE_LIMIT_PER_MINUTE: positiveInt(600),
@@ -65,6 +97,10 @@ export type Config = Readonly<{
   maxWorkCells: number;
   summaryBodyLimitBytes: number;
   corsOrigins: ReadonlyArray<string>;
+  trustProxy: ReadonlyArray<string>;
+  jsonMaxDepth: number;
+  authFailuresPerMinute: number;
+  summaryUploadsPerCaller: number;
   rateLimitPerMinute: number;
   requestTimeoutMs: number;
   eventLoopMaxDelayMs: number;
@@ -92,6 +128,10 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     maxWorkCells: c.MAX_WORK_CELLS,
     summaryBodyLimitBytes: c.SUMMARY_BODY_LIMIT_BYTES,
     corsOrigins: Object.freeze(c.CORS_ORIGINS),
+    trustProxy: Object.freeze(c.TRUST_PROXY),
+    jsonMaxDepth: c.JSON_MAX_DEPTH,
+    authFailuresPerMinute: c.AUTH_FAILURES_PER_MINUTE,
+    summaryUploadsPerCaller: c.SUMMARY_UPLOADS_PER_CALLER,
     rateLimitPerMinute: c.RATE_LIMIT_PER_MINUTE,
     requestTimeoutMs: c.REQUEST_TIMEOUT_MS,
     eventLoopMaxDelayMs: c.EVENT_LOOP_MAX_DELAY_MS,

@@ -1,8 +1,9 @@
-// config -> keys -> logger -> store -> app -> listen. The only place that opens a socket.
+// config -> keys -> logger -> store (and its chain head) -> app -> listen. The only place that opens a socket.
 import pino from 'pino';
 import { loadConfig, ConfigError, type Config } from './config.ts';
 import { loggerOptions } from './logger.ts';
 import { openAuditStore } from './audit/open.ts';
+import { checkChainAtStart, describeFinding } from './audit/chain-at-start.ts';
 import { buildApp } from './http/app.ts';
 import { KeyRing } from './http/security/key-ring.ts';
 import { KeysFileError, loadKeysFile } from './http/security/keys-file.ts';
@@ -36,8 +37,12 @@ function startupChecks(): { config: Config; keys: KeyRing } {
 async function main(): Promise<void> {
   const { config, keys } = startupChecks();
   const logger = pino(loggerOptions(config));
-  const store = await openAuditStore(config.auditDb);
-  const app = await buildApp({ config, store, logger, keys, processMetrics: true });
+  const opened = await openAuditStore(config.auditDb);
+  const { store, chain } = await checkChainAtStart(opened, config.auditDb,
+    (err) => logger.warn({ err }, 'the audit chain head could not be written to its side file'));
+  logger.info({ chainHead: chain.head, auditStore: store.backend }, `audit chain head at start: seq ${chain.head.seq}, hash ${chain.head.hash}`);
+  if (chain.finding) logger.error({ chainFinding: chain.finding }, describeFinding(chain.finding, chain.witnessFile));
+  const app = await buildApp({ config, store, logger, keys, processMetrics: true, chainAtStart: chain });
   closeGracefully({ app, store, logger, graceMs: config.shutdownGraceMs });
 
   const address = await app.listen({ port: config.port, host: config.host });

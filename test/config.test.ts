@@ -14,7 +14,7 @@ const refused = (env: Record<string, string>) => {
 
 t.test('defaults are those of the README configuration table', async (t) => {
   const c = loadConfig({});
-  t.match(c, { port: 8080, host: '127.0.0.1', auditDb: './data/audit.sqlite', auditRequests: 'full', logLevel: 'info', bodyLimitBytes: 33554432, maxWorkCells: 60000000, rateLimitPerMinute: 600, requestTimeoutMs: 60000, eventLoopMaxDelayMs: 1000, shutdownGraceMs: 20000 });
+  t.match(c, { port: 8080, host: '127.0.0.1', auditDb: './data/audit.sqlite', auditRequests: 'full', logLevel: 'info', bodyLimitBytes: 33554432, maxWorkCells: 60000000, rateLimitPerMinute: 600, requestTimeoutMs: 60000, eventLoopMaxDelayMs: 1000, shutdownGraceMs: 20000, jsonMaxDepth: 64, authFailuresPerMinute: 30, summaryUploadsPerCaller: 2 });
 });
 
 t.test('numbers are decimal digits: empty, hexadecimal and exponent forms are refused by name', async (t) => {
@@ -23,6 +23,18 @@ t.test('numbers are decimal digits: empty, hexadecimal and exponent forms are re
   t.match(refused({ SHUTDOWN_GRACE_MS: '1e3' }), /SHUTDOWN_GRACE_MS/);
   t.match(refused({ EVENT_LOOP_MAX_DELAY_MS: '' }), /EVENT_LOOP_MAX_DELAY_MS/);
   t.equal(refused({ PORT: '9090' }), null);
+  t.match(refused({ JSON_MAX_DEPTH: '0x40' }), /JSON_MAX_DEPTH/);
+  t.match(refused({ JSON_MAX_DEPTH: '1' }), /JSON_MAX_DEPTH/, 'a request nests at least two levels');
+  t.match(refused({ AUTH_FAILURES_PER_MINUTE: '0' }), /AUTH_FAILURES_PER_MINUTE/);
+  t.match(refused({ SUMMARY_UPLOADS_PER_CALLER: '' }), /SUMMARY_UPLOADS_PER_CALLER/);
+});
+
+t.test('TRUST_PROXY lists addresses, CIDR ranges and the named ranges; anything else is refused by name', async (t) => {
+  t.same(loadConfig({ TRUST_PROXY: '10.0.0.7, 172.16.0.0/12,uniquelocal, ::1, fd00::/8' }).trustProxy, ['10.0.0.7', '172.16.0.0/12', 'uniquelocal', '::1', 'fd00::/8']);
+  t.same(loadConfig({}).trustProxy, [], 'none by default');
+  t.match(refused({ TRUST_PROXY: 'nginx' }), /TRUST_PROXY: "nginx" is not an address/);
+  t.match(refused({ TRUST_PROXY: '10.0.0.0/33' }), /TRUST_PROXY/);
+  t.match(refused({ TRUST_PROXY: '10.0.0.0/8/8' }), /TRUST_PROXY/);
 });
 
 t.test('AUDIT_DB is a file path or a postgres:// URL; another scheme is a typo', async (t) => {

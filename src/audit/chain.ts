@@ -121,8 +121,17 @@ export interface VerifyReport {
   firstBroken: { seq: number; id: string | null; reason: BreakReason } | null;
 }
 
-/** One row as read for verification: a record, or the reason it could not be read. */
-export type WalkRow = { record: ChainedRecord } | { unreadable: { seq: number; id: string | null } };
+/** A record's chain fields with the hash its content was found to have (computed elsewhere, e.g. in a worker thread). */
+export interface CheckedRecord {
+  seq: number;
+  id: string;
+  prevHash: string;
+  hash: string;
+  contentHash: string;
+}
+
+/** One row as read for verification: a record, a record already hashed, or the reason it could not be read. */
+export type WalkRow = { record: ChainedRecord } | { checked: CheckedRecord } | { unreadable: { seq: number; id: string | null } };
 
 /** The head the store recorded when it last committed (null: the store keeps none). */
 export interface RecordedHead {
@@ -149,12 +158,12 @@ export class ChainWalk {
       this.breakAt(row.unreadable.seq, row.unreadable.id, 'unreadable');
       return;
     }
-    const r = row.record;
+    const r = 'record' in row ? row.record : row.checked;
     this.last = { seq: r.seq, id: r.id, hash: r.hash };
     if (this.broken) return;
     if (r.seq !== this.expectedSeq) this.breakAt(r.seq, r.id, 'sequence_gap');
     else if (r.prevHash !== this.prevHash) this.breakAt(r.seq, r.id, 'prev_hash_mismatch');
-    else if (hashOfRecord(r) !== r.hash) this.breakAt(r.seq, r.id, 'hash_mismatch');
+    else if (('record' in row ? hashOfRecord(row.record) : row.checked.contentHash) !== r.hash) this.breakAt(r.seq, r.id, 'hash_mismatch');
     this.expectedSeq = r.seq + 1;
     this.prevHash = r.hash;
   }

@@ -6,15 +6,16 @@
 // throughput is one commit at a time across all replicas; group commit puts every
 // append waiting in this process into that one commit.
 import pg from 'pg';
-import type { VerifyReport } from './chain.ts';
+import type { RecordedHead as ChainHead, VerifyReport } from './chain.ts';
+import { WriteProof } from './write-proof.ts';
 import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { postgresMigrations } from './migrations/postgres.ts';
-import { listFilter, pageOf, whereClause } from './query.ts';
-import { chainRecord, prepareRecord, RECORD_COLUMNS, recordToRow, rowToRecord, type PreparedRecord, type RecordRow } from './rows.ts';
+import { listFilter, listQuery, pageOf, postgresDialect } from './query.ts';
+import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
-import { headFromRow, verifyByPages } from './verify-pages.ts';
+import { headFromRow, rowsThatFit, verifyByPages } from './verify-pages.ts';
 
 const COLUMNS = RECORD_COLUMNS.join(', ');
 // Any fixed 64-bit key; only this program's migrations take it.
@@ -71,16 +72,21 @@ async function migrate(pool: pg.Pool, schema: string | undefined): Promise<void>
   }
 }
 
+/** "($1, $2), ($3, $4)" for the rows, appending their values to params. */
+function valuesList(rows: unknown[][], params: unknown[]): string {
+  return rows.map((row) => `(${row.map((value) => `$${params.push(value)}`).join(', ')})`).join(', ');
+}
+
 class PostgresAuditStore implements AuditStore {
   readonly backend = 'postgres' as const;
   private closed = false;
-  private writable = true;
+  private readonly writes = new WriteProof();
   private readonly queue: GroupCommit | null;
 
   constructor(private readonly pool: pg.Pool, private readonly ids: RecordIdSource, options: AuditStoreOptions) {
     // An idle client losing its connection must not crash the process; the next query reports it.
     pool.on('error', () => {
-      this.writable = false;
+      this.writes.failed();
     });
     this.queue = (options.groupCommit ?? true) ? new GroupCommit((r) => this.write(r), options.maxBatch ?? 256) : null;
   }
@@ -110,21 +116,22 @@ class PostgresAuditStore implements AuditStore {
         stored.push(r);
         head = { seq: r.seq, id: r.id, hash: r.hash };
       }
-      const width = RECORD_COLUMNS.length;
-      const values = stored.map((_, i) => `(${RECORD_COLUMNS.map((__, j) => `$${i * width + j + 1}`).join(', ')})`);
-      const params = stored.flatMap(recordToRow);
+      const params: unknown[] = [];
+      const recordValues = valuesList(stored.map(recordToRow), params);
+      const listingValues = valuesList(stored.map(recordToListingRow), params);
       const n = params.length;
       await client.query(
-        `WITH inserted AS (INSERT INTO audit_records (${COLUMNS}) VALUES ${values.join(', ')} RETURNING 1)` +
+        `WITH inserted AS (INSERT INTO audit_records (${COLUMNS}) VALUES ${recordValues} RETURNING 1),` +
+          ` listed AS (INSERT INTO audit_listing (${LISTING_COLUMNS.join(', ')}) VALUES ${listingValues} RETURNING 1)` +
           ` UPDATE audit_head SET seq = $${n + 1}, record_id = $${n + 2}, hash = $${n + 3} WHERE singleton = 1`,
         [...params, head.seq, head.id, head.hash],
       );
       await client.query('COMMIT');
-      this.writable = true;
+      this.writes.succeeded();
       return stored;
     } catch (err) {
       broken = err as Error;
-      this.writable = false;
+      this.writes.failed();
       await client?.query('ROLLBACK').catch(() => {});
       throw new AuditUnavailable(`the PostgreSQL audit store refused the record: ${broken.message}`, { cause: err });
     } finally {
@@ -142,23 +149,28 @@ class PostgresAuditStore implements AuditStore {
 
   async list(query?: ListQuery): Promise<ListPage> {
     const filter = listFilter(query);
-    const where = whereClause(filter, (n) => `$${n}`);
-    const { rows } = await this.query(
-      `SELECT ${COLUMNS} FROM audit_records ${where.sql} ORDER BY seq DESC LIMIT $${where.params.length + 1}`,
-      [...where.params, filter.limit + 1],
-    );
-    return pageOf(rows as RecordRow[], filter.limit);
+    const { sql, params } = listQuery(filter, postgresDialect);
+    const { rows } = await this.query(sql, params);
+    return pageOf(rows as ListedRow[], filter.limit);
   }
 
   async verify(): Promise<VerifyReport> {
-    return verifyByPages(async (afterSeq, limit) => {
+    return verifyByPages(async (afterSeq, limits) => {
       const client = await this.connect();
       try {
         await client.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
         const head = await client.query('SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1');
-        const page = await client.query(`SELECT ${COLUMNS} FROM audit_records WHERE seq > $1 ORDER BY seq LIMIT $2`, [afterSeq, limit]);
+        // Sizes first (octet_length reads TOAST headers, not the bodies), so a
+        // page never fetches more than its byte limit plus one row.
+        const sizes = await client.query(
+          'SELECT COALESCE(octet_length(request), 0) + octet_length(result) AS length FROM audit_records WHERE seq > $1 ORDER BY seq LIMIT $2',
+          [afterSeq, limits.rows],
+        );
+        const count = rowsThatFit(sizes.rows.map((r) => Number(r.length)), limits);
+        const page = count === 0 ? { rows: [] }
+          : await client.query(`SELECT ${COLUMNS} FROM audit_records WHERE seq > $1 ORDER BY seq LIMIT $2`, [afterSeq, count]);
         await client.query('COMMIT');
-        return { rows: page.rows as RecordRow[], head: headFromRow(head.rows[0]) };
+        return { rows: page.rows as RecordRow[], head: headFromRow(head.rows[0]), complete: sizes.rows.length < limits.rows && count === sizes.rows.length };
       } catch (err) {
         await client.query('ROLLBACK').catch(() => {});
         throw new AuditUnavailable(`the PostgreSQL audit store cannot be read: ${(err as Error).message}`, { cause: err });
@@ -172,17 +184,25 @@ class PostgresAuditStore implements AuditStore {
     if (this.closed) return false;
     try {
       await this.pool.query('SELECT seq FROM audit_head WHERE singleton = 1');
-      if (!this.writable) {
+      if (this.writes.needsProbe) {
+        // A committed transaction, as an append makes; bounded, so a probe
+        // never hangs behind a lock longer than a load balancer waits.
         await this.pool.query(
-          'INSERT INTO audit_probe (singleton, at) VALUES (1, $1) ON CONFLICT (singleton) DO UPDATE SET at = EXCLUDED.at',
-          [new Date().toISOString()],
+          "BEGIN; SET LOCAL synchronous_commit TO on; SET LOCAL lock_timeout TO '2s'; SET LOCAL statement_timeout TO '5s';" +
+            ` INSERT INTO audit_probe (singleton, at) VALUES (1, '${new Date().toISOString()}') ON CONFLICT (singleton) DO UPDATE SET at = EXCLUDED.at; COMMIT`,
         );
-        this.writable = true;
+        this.writes.succeeded();
       }
       return true;
     } catch {
+      this.writes.failed();
       return false;
     }
+  }
+
+  async head(): Promise<ChainHead> {
+    const { rows } = await this.query('SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1', []);
+    return headFromRow(rows[0]);
   }
 
   async close(): Promise<void> {

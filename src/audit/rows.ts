@@ -4,7 +4,7 @@
 import { z } from 'zod';
 import { canonicalJson, recordHash, requestDigest, toJsonValue } from './chain.ts';
 import { AuditRecordInvalid } from './errors.ts';
-import { NewRecordSchema, StoredRecordSchema, type CorruptRow, type NewRecord, type StoredRecord } from './store.ts';
+import { ListedRecordSchema, NewRecordSchema, StoredRecordSchema, type CorruptRow, type ListedRecord, type NewRecord, type StoredRecord } from './store.ts';
 
 export const RECORD_COLUMNS = [
   'seq', 'id', 'created_at', 'kind', 'caller', 'label', 'service_version', 'conventions_version',
@@ -12,6 +12,43 @@ export const RECORD_COLUMNS = [
 ] as const;
 
 export type RecordRow = Record<(typeof RECORD_COLUMNS)[number], unknown>;
+
+/** The narrow table the listing reads beside audit_records (migration 2 says why). */
+export const LISTING_COLUMNS = ['seq', 'best', 'hash'] as const;
+
+/**
+ * The listing's columns, as a SELECT list over audit_records r LEFT JOIN
+ * audit_listing l: a record appended by an older version, without a listing
+ * row, still lists (its hash read from the record itself, its best unknown).
+ */
+export const LISTED_SELECT = 'r.seq, r.id, r.created_at, r.kind, r.caller, r.label, r.dataset_fingerprint, l.best, COALESCE(l.hash, r.hash) AS hash';
+
+export type ListedRow = Record<'seq' | 'id' | 'created_at' | 'kind' | 'caller' | 'label' | 'dataset_fingerprint' | 'best' | 'hash', unknown>;
+
+const nameAt = (value: unknown): string | null => (typeof value === 'string' ? value : null);
+
+/** What the listing shows as the best model: a comparison's verdict.chosen, a search's first model. */
+export function bestModelOf(record: Pick<StoredRecord, 'kind' | 'result'>): string | null {
+  const result = record.result as { verdict?: { chosen?: unknown }; models?: { name?: unknown }[] };
+  if (record.kind === 'comparison') return nameAt(result.verdict?.chosen);
+  return Array.isArray(result.models) ? nameAt(result.models[0]?.name) : null;
+}
+
+export function recordToListingRow(r: StoredRecord): unknown[] {
+  return [r.seq, bestModelOf(r), r.hash];
+}
+
+export type ListedReading = { record: ListedRecord } | { corrupt: CorruptRow };
+
+export function rowToListed(row: ListedRow): ListedReading {
+  const seq = Number(row.seq); // pg returns bigint columns as strings
+  const parsed = ListedRecordSchema.safeParse({
+    seq, id: row.id, createdAt: row.created_at, kind: row.kind, caller: row.caller, label: row.label,
+    datasetFingerprint: row.dataset_fingerprint, best: row.best, hash: row.hash,
+  });
+  if (parsed.success) return { record: parsed.data };
+  return { corrupt: { seq, id: typeof row.id === 'string' ? row.id : null, problems: parsed.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`) } };
+}
 
 /** A validated new record in its JSON form (what will be hashed and stored). */
 export type PreparedRecord = z.output<typeof NewRecordSchema>;

@@ -6,15 +6,17 @@
 import Database from 'better-sqlite3';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
-import type { RecordedHead, VerifyReport } from './chain.ts';
+import type { RecordedHead as ChainHead, VerifyReport } from './chain.ts';
+import { WriteProof } from './write-proof.ts';
 import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { sqliteMigrations } from './migrations/sqlite.ts';
-import { listFilter, pageOf, whereClause } from './query.ts';
-import { chainRecord, prepareRecord, RECORD_COLUMNS, recordToRow, rowToRecord, type PreparedRecord, type RecordRow } from './rows.ts';
+import { listFilter, listQuery, pageOf, sqliteDialect } from './query.ts';
+import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
-import { headFromRow, verifyByPages } from './verify-pages.ts';
+import { headFromRow, verifyByPages, type VerifyPage, type VerifyPageLimits } from './verify-pages.ts';
+import { rowBodyLength } from './verify-row.ts';
 
 const COLUMNS = RECORD_COLUMNS.join(', ');
 const BUSY_TIMEOUT_MS = 5000;
@@ -50,15 +52,17 @@ function migrate(db: Database.Database): void {
 class SqliteAuditStore implements AuditStore {
   readonly backend = 'sqlite' as const;
   private closed = false;
-  private writable = true;
+  private readonly writes = new WriteProof();
   private readonly queue: GroupCommit | null;
   private readonly insert: Database.Statement;
+  private readonly insertListing: Database.Statement;
   private readonly selectHead: Database.Statement;
   private readonly updateHead: Database.Statement;
   private readonly commitBatch: (records: PreparedRecord[]) => StoredRecord[];
 
   constructor(private readonly db: Database.Database, private readonly ids: RecordIdSource, options: AuditStoreOptions) {
     this.insert = db.prepare(`INSERT INTO audit_records (${COLUMNS}) VALUES (${RECORD_COLUMNS.map(() => '?').join(', ')})`);
+    this.insertListing = db.prepare(`INSERT INTO audit_listing (${LISTING_COLUMNS.join(', ')}) VALUES (${LISTING_COLUMNS.map(() => '?').join(', ')})`);
     this.selectHead = db.prepare('SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1');
     this.updateHead = db.prepare('UPDATE audit_head SET seq = ?, record_id = ?, hash = ? WHERE singleton = 1');
     const tx = db.transaction((records: PreparedRecord[]) => {
@@ -67,6 +71,7 @@ class SqliteAuditStore implements AuditStore {
       for (const record of records) {
         const r = chainRecord(record, head, this.ids.next());
         this.insert.run(...recordToRow(r));
+        this.insertListing.run(...recordToListingRow(r));
         stored.push(r);
         head = { seq: r.seq, id: r.id, hash: r.hash };
       }
@@ -89,10 +94,10 @@ class SqliteAuditStore implements AuditStore {
     if (this.closed) throw new AuditUnavailable('the audit store is closed');
     try {
       const stored = this.commitBatch(records);
-      this.writable = true;
+      this.writes.succeeded();
       return stored;
     } catch (err) {
-      this.writable = false;
+      this.writes.failed();
       throw new AuditUnavailable(`the SQLite audit store refused the record: ${(err as Error).message}`, { cause: err });
     }
   }
@@ -107,38 +112,51 @@ class SqliteAuditStore implements AuditStore {
 
   async list(query?: ListQuery): Promise<ListPage> {
     const filter = listFilter(query);
-    const where = whereClause(filter, () => '?');
-    const rows = this.read(() =>
-      this.db.prepare(`SELECT ${COLUMNS} FROM audit_records ${where.sql} ORDER BY seq DESC LIMIT ?`).all(...where.params, filter.limit + 1),
-    ) as RecordRow[];
+    const { sql, params } = listQuery(filter, sqliteDialect);
+    const rows = this.read(() => this.db.prepare(sql).all(...params)) as ListedRow[];
     return pageOf(rows, filter.limit);
   }
 
   async verify(): Promise<VerifyReport> {
-    const page = this.db.prepare(`SELECT ${COLUMNS} FROM audit_records WHERE seq > ? ORDER BY seq LIMIT ?`);
-    const snapshot = this.db.transaction((afterSeq: number, limit: number) => ({
-      rows: page.all(afterSeq, limit) as RecordRow[],
-      head: headFromRow(this.selectHead.get() as { seq: unknown; record_id: unknown; hash: unknown }) as RecordedHead,
-    }));
-    return verifyByPages(async (afterSeq, limit) => {
-      const result = this.read(() => snapshot.deferred(afterSeq, limit));
-      await new Promise((resolve) => setImmediate(resolve)); // let requests in between pages
-      return result;
+    const after = this.db.prepare(`SELECT ${COLUMNS} FROM audit_records WHERE seq > ? ORDER BY seq`);
+    // One read transaction per page: its rows and the head from one snapshot.
+    const snapshot = this.db.transaction((afterSeq: number, limits: VerifyPageLimits): VerifyPage => {
+      const rows: RecordRow[] = [];
+      let bytes = 0;
+      let complete = true;
+      // Row by row, so the row that fills the page is the last one read.
+      for (const row of after.iterate(afterSeq) as IterableIterator<RecordRow>) {
+        rows.push(row);
+        bytes += rowBodyLength(row);
+        if (rows.length >= limits.rows || bytes >= limits.bytes) {
+          complete = false;
+          break;
+        }
+      }
+      const head = headFromRow(this.selectHead.get() as { seq: unknown; record_id: unknown; hash: unknown });
+      return { rows, head, complete };
     });
+    return verifyByPages(async (afterSeq, limits) => this.read(() => snapshot.deferred(afterSeq, limits)));
   }
 
   async ready(): Promise<boolean> {
     if (this.closed) return false;
     try {
       this.selectHead.get();
-      if (!this.writable) {
+      if (this.writes.needsProbe) {
+        // A committed transaction, as an append makes (WAL frame and fsync).
         this.db.prepare('INSERT OR REPLACE INTO audit_probe (singleton, at) VALUES (1, ?)').run(new Date().toISOString());
-        this.writable = true;
+        this.writes.succeeded();
       }
       return true;
     } catch {
+      this.writes.failed();
       return false;
     }
+  }
+
+  async head(): Promise<ChainHead> {
+    return headFromRow(this.read(() => this.selectHead.get()) as { seq: unknown; record_id: unknown; hash: unknown });
   }
 
   async close(): Promise<void> {

@@ -1,7 +1,7 @@
 // The audit store's one face: the record's shape (validated on the way in and on
 // the way back out) and the AuditStore interface both databases implement.
 import { z } from 'zod';
-import type { VerifyReport } from './chain.ts';
+import type { RecordedHead, VerifyReport } from './chain.ts';
 
 const hex64 = z.string().regex(/^[0-9a-f]{64}$/, 'expected 64 lowercase hex characters');
 const jsonObject = z.record(z.string(), z.unknown());
@@ -40,6 +40,19 @@ export const StoredRecordSchema = NewRecordSchema.extend({
 }).strict();
 export type StoredRecord = z.output<typeof StoredRecordSchema>;
 
+/**
+ * What a list shows of a record: the envelope, the best model and the chain
+ * position. Read without touching the request or result (a page of large
+ * records would otherwise be parsed whole).
+ */
+export const ListedRecordSchema = StoredRecordSchema.pick({
+  seq: true, id: true, createdAt: true, kind: true, caller: true, label: true, datasetFingerprint: true, hash: true,
+}).extend({
+  /** A comparison's verdict.chosen, a search's first model; null when the record has none (or predates the listing table and its result did not say). */
+  best: z.string().nullable(),
+}).strict();
+export type ListedRecord = z.output<typeof ListedRecordSchema>;
+
 export const LIST_LIMIT_DEFAULT = 20;
 export const LIST_LIMIT_MAX = 100;
 
@@ -50,6 +63,7 @@ export interface ListQuery {
   limit?: number;
   fingerprint?: string;
   caller?: string;
+  /** Records whose label contains this text (case as written). */
   label?: string;
   kind?: RecordKind;
   /** Inclusive lower bound on createdAt (any ISO 8601 date or date-time). */
@@ -67,7 +81,7 @@ export interface CorruptRow {
 
 export interface ListPage {
   /** Newest first (descending seq: the chain's order is the store's order). */
-  records: StoredRecord[];
+  records: ListedRecord[];
   corrupt: CorruptRow[];
   /** Pass back as `cursor` for the next (older) page; null on the last page. */
   nextCursor: string | null;
@@ -86,8 +100,14 @@ export interface AuditStore {
   list(query?: ListQuery): Promise<ListPage>;
   /** Re-hashes the whole chain in seq order. */
   verify(): Promise<VerifyReport>;
-  /** The database answers and the last write (or a write probe) succeeded. */
+  /**
+   * The database answers and a write has been proven: by an append or a write
+   * probe since the store opened, not after a failed write, and not longer ago
+   * than PROBE_AFTER_MS (src/audit/write-proof.ts); otherwise ready() probes one.
+   */
   ready(): Promise<boolean>;
+  /** The committed chain head: seq 0 and 64 zeros for an empty chain. */
+  head(): Promise<RecordedHead>;
   close(): Promise<void>;
 }
 

@@ -8,6 +8,7 @@ import { serializerCompiler, type ZodTypeProvider } from 'fastify-type-provider-
 import type { Logger } from 'pino';
 import type { Config } from '../config.ts';
 import type { AuditStore } from '../audit/store.ts';
+import type { ChainAtStart } from '../audit/chain-at-start.ts';
 import { errorHandler } from './errors.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 import { zodValidatorCompiler } from './validation.ts';
@@ -38,10 +39,12 @@ export interface AppDependencies {
   processMetrics?: boolean;
   /** The team policy; when absent, read from config.policyFile (none: the built-in default). */
   policy?: ActivePolicy;
+  /** The chain head at start and what it was compared with (server.ts); shown on /readyz and /metrics. */
+  chainAtStart?: ChainAtStart;
 }
 
 
-export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy }: AppDependencies): Promise<FastifyInstance> {
+export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy, chainAtStart }: AppDependencies): Promise<FastifyInstance> {
   const policy = givenPolicy ?? loadPolicyFile(config.policyFile);
   const app = Fastify({
     loggerInstance: (logger || undefined) as FastifyBaseLogger | undefined,
@@ -51,12 +54,14 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
       return typeof given === 'string' && /^[\w.-]{1,100}$/.test(given) ? given : randomUUID();
     },
     ajv: undefined,
+    // request.ip: the client behind the listed proxies (TRUST_PROXY), else the socket's peer.
+    trustProxy: config.trustProxy.length > 0 ? [...config.trustProxy] : false,
     ...requestTimeoutOptions(config.requestTimeoutMs),
     // Refused by our own onRequest hook instead, as a problem naming the reason.
     return503OnClosing: false,
   }).withTypeProvider<ZodTypeProvider>();
 
-  registerJsonBody(app as unknown as FastifyInstance);
+  registerJsonBody(app as unknown as FastifyInstance, { maxDepth: config.jsonMaxDepth });
   // The body exactly as sent (before schema defaults), for the audit record's request and digest.
   app.addHook('preValidation', async (request) => {
     request.sentBody = request.body;
@@ -83,14 +88,15 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
 
   await app.register(swaggerUi, { routePrefix: '/docs' });
 
-  await app.register(healthRoutes, { store });
+  if (chainAtStart?.finding) app.metrics.recordChainFinding(chainAtStart.finding);
+  await app.register(healthRoutes, { store, chainAtStart });
   await app.register(comparisonRoutes, { store, config, policy });
   await app.register(recordRoutes, { store });
   await app.register(pictureRoutes, { store });
   await app.register(auditRoutes, { store });
   await app.register(replayRoutes, { store, config, policy });
   await app.register(searchRoutes, { store, config, policy });
-  await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes });
+  await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes, uploadsPerCaller: config.summaryUploadsPerCaller });
 
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
   return app as unknown as FastifyInstance;

@@ -4,7 +4,15 @@ import type { FastifyError, FastifyReply, FastifyRequest } from 'fastify';
 import { ResponseSerializationError } from 'fastify-type-provider-zod';
 import { problem, problemTypes, toPointer, PROBLEM_CONTENT_TYPE, type Problem } from './problems.ts';
 import { RequestValidationError } from './validation.ts';
-import { BodyRefused } from './json-body.ts';
+import { BodyRefused, type BodyRefusalKind } from './json-body.ts';
+
+const BODY_REFUSAL_TITLES: Record<BodyRefusalKind, string> = {
+  'invalid-json': 'Body is not JSON',
+  'unsafe-key': 'The request holds a value that is refused',
+  'bad-text': 'The request holds a value that is refused',
+  'duplicate-key': 'The request repeats a key',
+  'too-deep': 'The body nests too deeply',
+};
 
 function fromFastifyError(error: FastifyError, request: FastifyRequest, bodyLimitBytes: number): Problem | null {
   switch (error.code) {
@@ -33,9 +41,9 @@ export function errorHandler(bodyLimitBytes: number) {
     let body: Problem | null = null;
     if (error instanceof BodyRefused) {
       body = problem(400, error.kind === 'invalid-json' ? problemTypes.invalidJson : problemTypes.invalidRequest,
-        error.kind === 'invalid-json' ? 'Body is not JSON' : 'The request holds a value that is refused',
+        BODY_REFUSAL_TITLES[error.kind],
         error.path === null ? error.message : `${error.path || '(root)'}: ${error.message}`,
-        error.path === null ? {} : { errors: [{ path: error.path, message: error.message, code: error.kind }] });
+        error.path === null ? {} : { ...error.facts, errors: [{ path: error.path, message: error.message, code: error.kind, ...error.facts }] });
     } else if (error instanceof RequestValidationError) {
       body = problem(400, problemTypes.invalidRequest, 'The request does not match the schema', error.summary(), {
         errors: error.issues.map((i) => ({ path: toPointer(i.path), message: i.message, code: i.code })),

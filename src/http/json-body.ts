@@ -1,14 +1,30 @@
 // The JSON body parser. Besides JSON itself it refuses, with the path of the
-// first offender: keys that could pollute prototypes (__proto__, and a
-// constructor holding prototype), strings that are not well-formed UTF-16 (a
-// lone surrogate cannot be stored as UTF-8 text, so the audit record would no
-// longer hash as it was hashed), and U+0000 (PostgreSQL text cannot hold it).
+// offender: nesting deeper than JSON_MAX_DEPTH (checked on the text, before
+// JSON.parse allocates anything), an object key written twice (I-JSON, RFC
+// 7493 §2.3: the meaning of such an object is not interoperable, and
+// JSON.parse would silently keep the last), keys that could pollute
+// prototypes, lone UTF-16 surrogates and U+0000 (body/value-walk.ts says why).
+//
+// Speed: JSON.parse does the parsing; the text scan and the walk add a small
+// fraction on a columnar body (scripts/bench-json-body.ts, README: Speed). The
+// slow token walk that names a path runs only on a body being refused.
 import type { FastifyInstance } from 'fastify';
 import { toPointer } from './problems.ts';
+import { locateInJson } from './body/locate.ts';
+import { scanJsonText } from './body/text-scan.ts';
+import { textNeedsChecks, walkValue } from './body/value-walk.ts';
+
+export type BodyRefusalKind = 'invalid-json' | 'unsafe-key' | 'bad-text' | 'too-deep' | 'duplicate-key';
 
 export class BodyRefused extends Error {
   readonly statusCode = 400;
-  constructor(readonly kind: 'invalid-json' | 'unsafe-key' | 'bad-text', readonly path: string | null, detail: string) {
+  constructor(
+    readonly kind: BodyRefusalKind,
+    readonly path: string | null,
+    detail: string,
+    /** Facts for the problem document (the limit and the setting that sets it). */
+    readonly facts: Readonly<Record<string, unknown>> = {},
+  ) {
     super(detail);
   }
 }
@@ -20,57 +36,52 @@ declare module 'fastify' {
   }
 }
 
-type Path = (string | number)[];
-
-function firstProblem(value: unknown, path: Path): BodyRefused | null {
-  if (typeof value === 'string') {
-    if (!(value as unknown as { isWellFormed(): boolean }).isWellFormed()) return new BodyRefused('bad-text', toPointer(path), 'a string holds a lone UTF-16 surrogate, which is not text');
-    if (value.includes('\u0000')) return new BodyRefused('bad-text', toPointer(path), 'a string holds the NUL character (U+0000)');
-    return null;
-  }
-  if (value === null || typeof value !== 'object') return null;
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) {
-      const v = value[i];
-      // Numbers are most of a request's bulk; skip them without a call.
-      if (typeof v === 'number' || v === null) continue;
-      const p = firstProblem(v, [...path, i]);
-      if (p) return p;
+/** The body as a value, or the refusal; pure, for tests and the benchmark. */
+export function parseJsonBody(text: string, maxDepth: number): { value: unknown } | { refused: BodyRefused } {
+  if (text.trim() === '') return { refused: new BodyRefused('invalid-json', null, 'the body is empty; send a JSON object') };
+  const scan = scanJsonText(text, maxDepth);
+  if (scan.tooDeepAt !== null) {
+    const located = locateInJson(text, { containerAt: scan.tooDeepAt });
+    if (located) {
+      const depth = located.path.length + 1;
+      return {
+        refused: new BodyRefused('too-deep', toPointer(located.path),
+          `the body nests containers ${depth} levels deep here; the limit is ${maxDepth} (JSON_MAX_DEPTH)`,
+          { depth, limit: maxDepth, setting: 'JSON_MAX_DEPTH' }),
+      };
     }
-    return null;
+    // Not located: the text is not JSON either, and JSON.parse says where.
   }
-  for (const key of Object.keys(value)) {
-    const child = (value as Record<string, unknown>)[key];
-    if (key === '__proto__' || (key === 'constructor' && child !== null && typeof child === 'object' && 'prototype' in child)) {
-      return new BodyRefused('unsafe-key', toPointer([...path, key]), `the key "${key}" is refused: it could alter object prototypes`);
+  let value: unknown;
+  try {
+    // JSON.parse makes "__proto__" an own property (it never sets the
+    // prototype), so the walk sees it and refuses it.
+    value = JSON.parse(text);
+  } catch (error) {
+    return { refused: new BodyRefused('invalid-json', null, `the body is not valid JSON: ${(error as Error).message}`) };
+  }
+  const walk = walkValue(value, textNeedsChecks(text));
+  if (walk.refusal) return { refused: new BodyRefused(walk.refusal.kind, toPointer(walk.refusal.path), walk.refusal.message) };
+  if (walk.keys < scan.keysAtLeast) {
+    // Fewer keys parsed than may have been written: find out exactly.
+    const located = locateInJson(text, { duplicateKey: true });
+    if (located) {
+      const key = String(located.path[located.path.length - 1]);
+      return {
+        refused: new BodyRefused('duplicate-key', toPointer(located.path),
+          `the key ${JSON.stringify(key)} appears twice in the same object; send each key once (I-JSON, RFC 7493)`),
+      };
     }
-    const bad = firstProblem(key, [...path, key]);
-    if (bad) return bad;
-    const p = firstProblem(child, [...path, key]);
-    if (p) return p;
   }
-  return null;
+  return { value };
 }
 
-export function registerJsonBody(app: FastifyInstance): void {
+/** maxDepth: JSON_MAX_DEPTH (src/config.ts has the default and why). */
+export function registerJsonBody(app: FastifyInstance, { maxDepth }: { maxDepth: number }): void {
   app.removeContentTypeParser(['application/json', 'text/plain']);
   app.addContentTypeParser('application/json', { parseAs: 'string' }, (_request, body, done) => {
-    const text = body as string;
-    if (text.trim() === '') {
-      done(new BodyRefused('invalid-json', null, 'the body is empty; send a JSON object'), undefined);
-      return;
-    }
-    let value: unknown;
-    try {
-      // JSON.parse makes "__proto__" an own property (it never sets the
-      // prototype), so the walk below sees it and refuses it.
-      value = JSON.parse(text);
-    } catch (error) {
-      done(new BodyRefused('invalid-json', null, `the body is not valid JSON: ${(error as Error).message}`), undefined);
-      return;
-    }
-    const problem = firstProblem(value, []);
-    if (problem) done(problem, undefined);
-    else done(null, value);
+    const parsed = parseJsonBody(body as string, maxDepth);
+    if ('refused' in parsed) done(parsed.refused, undefined);
+    else done(null, parsed.value);
   });
 }

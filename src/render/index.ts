@@ -16,4 +16,5 @@ export { escapeText, escapeAttribute, toCarriableText } from './escape.ts';
 export type { StoredComparisonView, ComparisonResultView, ModelView, RankingEntry, CriterionName } from './types.ts';
 export { criterionNames } from './types.ts';
 export { storedComparisonView } from './stored-view.ts';
+export { REPORT_ROW_LIMITS } from './bounded-rows.ts';
 export type { StoredRecordLike } from './stored-view.ts';

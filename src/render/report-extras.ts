@@ -1,6 +1,7 @@
 // Parts of the report that appear only when the record has them: nested
 // tests and averaged estimates (diagnostics: report-diagnostics.ts); and the cautions, which always
 // appear because one of them stands for every comparison.
+import { firstRows, leftOutNote, REPORT_ROW_LIMITS } from './bounded-rows.ts';
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatPValue, formatSignificant } from './number-format.ts';
 import type { CautionView, StoredComparisonView } from './types.ts';
@@ -61,21 +62,26 @@ export function nestedTestsSection(record: StoredComparisonView): Html | null {
   );
 }
 
-function predictionsTable(predictions: unknown[]): Html {
-  const rows = predictions.filter((p): p is Record<string, unknown> => p !== null && typeof p === 'object' && !Array.isArray(p));
+function predictionsTable(predictions: unknown[], recordId: string): Html {
+  const { shown, total } = firstRows(predictions, REPORT_ROW_LIMITS.averagedPredictions);
+  const rows = shown.filter((p): p is Record<string, unknown> => p !== null && typeof p === 'object' && !Array.isArray(p));
   const keys = [...new Set(rows.flatMap((r) => Object.keys(r)))];
-  return tag('div', { class: 'table-wrap' }, tag('table', { 'data-section': 'averaged-predictions' },
-    tag('caption', {}, 'Averaged predictions'),
-    tag('thead', {}, tag('tr', {}, tag('th', { scope: 'col' }, 'row'), ...keys.map((k) => tag('th', { scope: 'col' }, k)))),
-    tag('tbody', {}, ...rows.map((r, i) => tag('tr', {}, tag('td', {}, String(i + 1)), ...keys.map((k) => tag('td', {}, valueTree(r[k], 3)))))),
-  ));
+  return fragment(
+    tag('div', { class: 'table-wrap' }, tag('table', { 'data-section': 'averaged-predictions' },
+      tag('caption', {}, 'Averaged predictions'),
+      tag('thead', {}, tag('tr', {}, tag('th', { scope: 'col' }, 'row'), ...keys.map((k) => tag('th', { scope: 'col' }, k)))),
+      tag('tbody', {}, ...rows.map((r, i) => tag('tr', {}, tag('td', {}, String(i + 1)), ...keys.map((k) => tag('td', {}, valueTree(r[k], 3)))))),
+    )),
+    leftOutNote(shown.length, total, 'averaged predictions', recordId),
+  );
 }
 
 export function averagedSection(record: StoredComparisonView): Html | null {
   const averaged = record.result.averaged;
-  const terms = averaged?.terms ?? [];
+  const allTerms = averaged?.terms ?? [];
   const predictions = averaged?.predictions ?? [];
-  if (terms.length === 0 && predictions.length === 0) return null;
+  if (allTerms.length === 0 && predictions.length === 0) return null;
+  const { shown: terms, total: termCount } = firstRows(allTerms, REPORT_ROW_LIMITS.averagedTerms);
   return fragment(
     tag('h2', { id: 'averaged' }, 'Averaged estimates'),
     tag('p', { class: 'note' }, 'Estimates averaged over the candidates with their weights; the unconditional standard error includes the uncertainty of which model is right.'),
@@ -88,7 +94,8 @@ export function averagedSection(record: StoredComparisonView): Html | null {
         tag('td', {}, finiteOrNull(t.importance) === null ? 'n/a' : formatSignificant(t.importance)),
       ))),
     )),
-    predictions.length === 0 ? null : predictionsTable(predictions),
+    leftOutNote(terms.length, termCount, 'averaged terms', record.id),
+    predictions.length === 0 ? null : predictionsTable(predictions, record.id),
   );
 }
 

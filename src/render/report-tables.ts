@@ -5,6 +5,7 @@ import { rankedCriteria } from './chart-options.ts';
 import { criterionDisplayName } from './criteria.ts';
 import { describeBands } from './band-legend.ts';
 import { bandsApply, entryBandWording, ownBands } from './delta-bands.ts';
+import { firstRows, leftOutNote, REPORT_ROW_LIMITS } from './bounded-rows.ts';
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatCount, formatCriterionDelta, formatFixed, formatPercent, formatSignificant } from './number-format.ts';
 import type { CriterionName, ModelView, RankingEntry, StoredComparisonView } from './types.ts';
@@ -98,20 +99,22 @@ export function rankingTables(record: StoredComparisonView): Html {
 export function coefficientTables(record: StoredComparisonView): Html {
   return fragment(
     ...(record.result.models ?? []).map((m) => {
-      const rows = m.coefficients ?? [];
-      const aliased = m.aliased ?? [];
+      const rows = firstRows(m.coefficients ?? [], REPORT_ROW_LIMITS.coefficients);
+      const aliased = firstRows(m.aliased ?? [], REPORT_ROW_LIMITS.aliasedNames);
+      const moreAliased = aliased.total > aliased.shown.length ? ` and ${formatCount(aliased.total - aliased.shown.length)} more` : '';
       return tag(
         'section',
         { class: 'coefficients', 'data-model': m.name },
         tag('h3', {}, m.name),
-        rows.length === 0
+        rows.total === 0
           ? tag('p', { class: 'note' }, 'No coefficients: this candidate was fitted elsewhere.')
           : table(null, [
               { heading: 'term', cell: (c) => String(c.term), className: 'name' },
               { heading: 'estimate', cell: (c) => formatSignificant(c.estimate) },
               { heading: 'standard error', cell: (c) => formatSignificant(c.standardError) },
-            ], rows, () => ({})),
-        aliased.length === 0 ? null : tag('p', { class: 'note' }, `Aliased (not estimable from these data, left out of k): ${aliased.join(', ')}`),
+            ], rows.shown, () => ({})),
+        leftOutNote(rows.shown.length, rows.total, 'coefficients', record.id),
+        aliased.total === 0 ? null : tag('p', { class: 'note' }, `Aliased (not estimable from these data, left out of k): ${aliased.shown.join(', ')}${moreAliased}`),
       );
     }),
   );

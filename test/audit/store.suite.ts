@@ -101,11 +101,15 @@ export function auditStoreSuite(t: Test, makeHarness: () => Promise<StoreHarness
     t.same(p3.records.map((r) => r.seq), [1]);
     t.equal(p3.nextCursor, null);
     t.same((await store.list({ limit: 7 })).nextCursor, null, 'an exact last page has no next cursor');
-    t.same(p1.records[0], made[6]);
+    const { seq, id, createdAt, kind, caller, label, datasetFingerprint, hash } = made[6];
+    t.same(p1.records[0], { seq, id, createdAt, kind, caller, label, datasetFingerprint, hash, best: null }, 'the envelope and chain position, no body');
     t.same((await store.list({ caller: 'key-west' })).records.map((r) => r.seq), [6, 4, 2]);
     t.same((await store.list({ fingerprint: 'fp-a' })).records.map((r) => r.seq), [3, 2, 1]);
     t.same((await store.list({ kind: 'search' })).records.map((r) => r.seq), [5]);
     t.same((await store.list({ label: 'run 4' })).records.map((r) => r.seq), [4]);
+    t.same((await store.list({ label: 'un ' })).records.map((r) => r.seq), [7, 6, 5, 4, 3, 2, 1], 'label matches a substring');
+    t.same((await store.list({ label: 'RUN' })).records, [], 'case as written');
+    t.same((await store.list({ label: '%' })).records, [], 'no wildcard characters');
     t.same((await store.list({ caller: 'key-east', fingerprint: 'fp-b' })).records.map((r) => r.seq), [7, 5]);
     // createdAt steps a minute per record from 2026-01-01T00:00Z; from is inclusive, to exclusive.
     t.same((await store.list({ from: '2026-01-01T00:02:00Z', to: '2026-01-01T00:04:00.000Z' })).records.map((r) => r.seq), [4, 3]);
@@ -120,12 +124,63 @@ export function auditStoreSuite(t: Test, makeHarness: () => Promise<StoreHarness
     t.type(big.nextCursor, 'string');
   });
 
+  t.test('the list never reads a request or result: damaged bodies still list, with the best model', async (t) => {
+    const { harness, store } = await withStore(t);
+    const chose = (name: string) => ({ verdict: { chosen: name }, models: [{ name }] });
+    await store.append(comparisonRecord(1, { result: chose('linear') }));
+    await store.append(comparisonRecord(2, { kind: 'search', result: { models: [{ name: 'peakTemp+moisture' }, { name: 'peakTemp' }] } }));
+    await store.append(comparisonRecord(3, { result: chose('quadratic') }));
+    await harness.exec(`UPDATE audit_records SET result = 'not JSON at all', request = '{' WHERE seq IN (1, 3)`);
+    const page = await store.list();
+    t.same(page.records.map((r) => [r.seq, r.best]), [[3, 'quadratic'], [2, 'peakTemp+moisture'], [1, 'linear']]);
+    t.same(page.corrupt, []);
+    t.equal((await store.verify()).firstBroken?.reason, 'unreadable', 'verify is where a damaged body shows');
+  });
+
+  t.test('records written before the listing table list with their best model once it is filled in', async (t) => {
+    const harness = await makeHarness();
+    t.teardown(() => harness.cleanup());
+    const first = await harness.open();
+    const a = await first.append(comparisonRecord(1, { result: { verdict: { chosen: 'linear' } } }));
+    await first.append(comparisonRecord(2, { result: { verdict: { chosen: 42 } } }));
+    await first.append(comparisonRecord(3, { result: { verdict: { chosen: 'cubic' } } }));
+    await first.close();
+    // As a file of the first schema version would be: no listing table, a damaged result.
+    await harness.exec(`DROP TABLE audit_listing; DELETE FROM schema_migrations WHERE version = 2; UPDATE audit_records SET result = '{' WHERE seq = 3`);
+    const second = await harness.open();
+    t.teardown(() => second.close());
+    const page = await second.list();
+    t.same(page.records.map((r) => [r.seq, r.best]), [[3, null], [2, null], [1, 'linear']], 'filled from the results that read; a damaged one lists without');
+    t.equal(page.records[2].hash, a.hash);
+    t.equal((await second.append(comparisonRecord(4, { result: { verdict: { chosen: 'quartic' } } }))).seq, 4);
+    t.equal((await second.list({ limit: 1 })).records[0].best, 'quartic');
+  });
+
+  t.test('a record appended without a listing row (an older replica) still lists', async (t) => {
+    const { harness, store } = await withStore(t);
+    const r = await store.append(comparisonRecord(1));
+    await harness.exec('DELETE FROM audit_listing');
+    const [listed] = (await store.list()).records;
+    t.same([listed.seq, listed.hash, listed.best], [1, r.hash, null]);
+  });
+
   t.test('verify reports an intact chain and its head', async (t) => {
     const { store } = await withStore(t);
     t.same(await store.verify(), { ok: true, records: 0, head: null, firstBroken: null });
     let last;
     for (let i = 1; i <= 5; i++) last = await store.append(comparisonRecord(i));
     t.same(await store.verify(), { ok: true, records: 5, head: { seq: 5, id: last!.id, hash: last!.hash }, firstBroken: null });
+  });
+
+  t.test('verify pages by size and checks large rows in a worker: records of a megabyte each', async (t) => {
+    const { harness, store } = await withStore(t);
+    // 12 records of ~1 MB of result: more than one page of 8 MiB, each row above the inline threshold.
+    const residuals = Array.from({ length: 50_000 }, (_, i) => Math.round(Math.sin(i) * 1e6) / 1e6);
+    const ids: string[] = [];
+    for (let i = 1; i <= 12; i++) ids.push((await store.append(comparisonRecord(i, { result: { residuals, firing: i } }))).id);
+    t.same(await store.verify(), { ok: true, records: 12, head: { seq: 12, id: ids[11], hash: (await store.get(ids[11]))!.hash }, firstBroken: null });
+    await harness.exec(`UPDATE audit_records SET result = replace(result, '"firing":11', '"firing":111') WHERE seq = 11`);
+    t.same((await store.verify()).firstBroken, { seq: 11, id: ids[10], reason: 'hash_mismatch' }, 'an edit on the second page, found by the worker');
   });
 
   t.test('digest-only requests keep the digest and not the request', async (t) => {

@@ -134,7 +134,14 @@ t.test('a record damaged in the database is a 500 that says what to run, not a c
   t.equal(body.detail, `the stored record ${record.seq} no longer reads back; run GET /v1/audit/verify`);
   t.notMatch(res.body, /at .*\.ts:\d+/, 'no stack trace');
   const list = (await app.inject({ method: 'GET', url: '/v1/comparisons' })).json();
-  t.same(list.unreadable, [{ seq: record.seq, id: record.id }], 'the list names the damaged row instead of hiding the page');
+  t.same(list.records.map((r: { id: string; best: string }) => [r.id, r.best]), [[record.id, 'linear']],
+    'the list shows the envelope and never reads the result, so a damaged result does not hide the record');
+  const again = new Database(file);
+  again.prepare('UPDATE audit_records SET created_at = ? WHERE seq = ?').run('last Tuesday', record.seq);
+  again.close();
+  const damaged = (await app.inject({ method: 'GET', url: '/v1/comparisons' })).json();
+  t.same(damaged.unreadable, [{ seq: record.seq, id: record.id }], 'a damaged envelope is named instead of hiding the page');
+  t.same(damaged.records, []);
 });
 
 t.test('the list: newest first, cursor pages that cover every record once', async (t) => {
@@ -189,6 +196,8 @@ t.test('filters: fingerprint, caller, label and time range; searches are not lis
   t.same(await list('caller=key-west'), [3, 2]);
   t.same(await list('label=spring'), [3, 1]);
   t.same(await list('label=spring&caller=key-east'), [1], 'filters combine');
+  t.same(await list('label=rin'), [3, 1], 'label matches a substring');
+  t.same(await list('label=Spring'), [], 'as written, case included');
   t.same(await list('from=2026-03-01T08:00:01Z&to=2026-03-01T08:00:04Z'), [3, 2], 'from inclusive, to exclusive');
   t.same(await list('from=2026-03-01T09:00:01%2B01:00'), [5, 3, 2], 'an offset is honoured (09:00:01+01:00 is 08:00:01Z)');
   t.same(await list('to=2026-03-01'), [], 'a date is its midnight UTC');
@@ -202,6 +211,11 @@ t.test('every bad query is a 400 naming its field', async (t) => {
     ['limit=101', 'limit'],
     ['limit=abc', 'limit'],
     ['limit=2.5', 'limit'],
+    ['limit=0x10', 'limit'],
+    ['limit=1e1', 'limit'],
+    ['limit=%2B5', 'limit'],
+    ['limit=%205', 'limit'],
+    ['limit=', 'limit'],
     ['cursor=not-a-cursor', 'cursor'],
     ['from=yesterday', 'from'],
     ['to=2026-13-45', 'to'],
@@ -215,6 +229,7 @@ t.test('every bad query is a 400 naming its field', async (t) => {
     const body = res.json();
     t.equal(body.type, 'urn:parsimetry:problem:invalid-request', query);
     t.equal(body.errors[0].path, field, `${query} names ${field || 'the query itself'}`);
+    if (field === 'limit') t.match(body.errors[0].message, /decimal digits/, `${query}: says how to write it`);
   }
   t.equal((await app.inject({ method: 'GET', url: '/v1/comparisons?limit=100' })).statusCode, 200, 'limit 100 is allowed');
 });

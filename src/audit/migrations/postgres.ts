@@ -38,4 +38,31 @@ export const postgresMigrations: Migration[] = [
       CREATE TABLE audit_probe (singleton INTEGER PRIMARY KEY CHECK (singleton = 1), at TEXT NOT NULL);
     `,
   },
+  {
+    version: 2,
+    name: 'listing columns kept apart from the record bodies',
+    // See the SQLite migration of the same version. A result that is not JSON
+    // (a damaged row) lists with no best model rather than stopping the
+    // migration, so the cast is guarded by a temporary function.
+    sql: `
+      CREATE TABLE audit_listing (
+        seq BIGINT PRIMARY KEY,
+        best TEXT,
+        hash TEXT NOT NULL
+      );
+      CREATE FUNCTION pg_temp.parsimetry_best(kind TEXT, result TEXT) RETURNS TEXT LANGUAGE plpgsql AS $fn$
+      DECLARE
+        value JSONB;
+      BEGIN
+        value := CASE kind WHEN 'comparison' THEN result::jsonb -> 'verdict' -> 'chosen'
+                           WHEN 'search' THEN result::jsonb -> 'models' -> 0 -> 'name' END;
+        RETURN CASE WHEN jsonb_typeof(value) = 'string' THEN value #>> '{}' END;
+      EXCEPTION WHEN others THEN
+        RETURN NULL;
+      END
+      $fn$;
+      INSERT INTO audit_listing (seq, best, hash)
+        SELECT seq, pg_temp.parsimetry_best(kind, result), hash FROM audit_records;
+    `,
+  },
 ];

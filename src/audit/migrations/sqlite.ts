@@ -45,4 +45,30 @@ export const sqliteMigrations: Migration[] = [
       CREATE TABLE audit_probe (singleton INTEGER PRIMARY KEY CHECK (singleton = 1), at TEXT NOT NULL);
     `,
   },
+  {
+    version: 2,
+    name: 'listing columns kept apart from the record bodies',
+    // The listing shows the best model (inside result) and the hash, which
+    // sits after request and result in the row: SQLite reaches it only by
+    // walking those columns' overflow pages (~80 ms per 50 MB record), so a
+    // page of large records was slow to list. This narrow table answers both.
+    // Filled here for records written before, and by every append after.
+    sql: `
+      CREATE TABLE audit_listing (
+        seq INTEGER PRIMARY KEY,
+        best TEXT,
+        hash TEXT NOT NULL
+      );
+      INSERT INTO audit_listing (seq, best, hash)
+        SELECT seq,
+          CASE WHEN json_valid(result) THEN
+            CASE
+              WHEN kind = 'comparison' AND json_type(result, '$.verdict.chosen') = 'text' THEN json_extract(result, '$.verdict.chosen')
+              WHEN kind = 'search' AND json_type(result, '$.models[0].name') = 'text' THEN json_extract(result, '$.models[0].name')
+            END
+          END,
+          hash
+        FROM audit_records;
+    `,
+  },
 ];

@@ -1,7 +1,8 @@
 // Prometheus metrics, one registry per app so that tests building several apps
 // in one process never share counters. Names follow Prometheus conventions
 // (base units: seconds; counters end in _total).
-import { Counter, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
+import { Counter, Gauge, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
+import type { HeadFinding } from '../../audit/head-witness.ts';
 
 export interface ServiceMetrics {
   readonly registry: Registry;
@@ -12,6 +13,10 @@ export interface ServiceMetrics {
   readonly searches: Counter;
   readonly auditAppendDuration: Histogram;
   readonly auditAppendFailures: Counter;
+  readonly chainFindings: Counter<'kind'>;
+  readonly chainRecordsMissing: Gauge;
+  /** Counts a finding of the start's chain check (src/audit/chain-at-start.ts). */
+  recordChainFinding(finding: HeadFinding): void;
 }
 
 export function createServiceMetrics(options: { processMetrics?: boolean } = {}): ServiceMetrics {
@@ -39,5 +44,17 @@ export function createServiceMetrics(options: { processMetrics?: boolean } = {})
       registers, buckets: [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5],
     }),
     auditAppendFailures: new Counter({ name: 'parsimetry_audit_append_failures_total', help: 'Records the audit store refused (each turned its reply into a 503)', registers }),
+    chainFindings: new Counter({
+      name: 'parsimetry_audit_chain_head_findings_total', labelNames: ['kind'], registers,
+      help: 'Starts that found the SQLite chain head behind (kind="behind") or different from (kind="rewritten") the head last seen in its side file',
+    }),
+    chainRecordsMissing: new Gauge({
+      name: 'parsimetry_audit_chain_records_missing', registers,
+      help: 'Records the head last seen had that the SQLite chain did not have at start (0: none missing)',
+    }),
+    recordChainFinding(finding) {
+      this.chainFindings.inc({ kind: finding.kind });
+      this.chainRecordsMissing.set(finding.missing);
+    },
   };
 }

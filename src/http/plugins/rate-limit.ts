@@ -2,17 +2,13 @@
 // the service runs open on loopback. Runs after access control (a route-level
 // onRequest hook, after the app-level ones), so the key id is known here and an
 // unknown key never spends anyone's allowance.
-import type { FastifyInstance, FastifyRequest } from 'fastify';
+import type { FastifyInstance } from 'fastify';
 import rateLimit from '@fastify/rate-limit';
-import { ANONYMOUS } from '../security/access.ts';
+import { ANONYMOUS, callerKey } from '../security/access.ts';
 import { accessFor } from '../security/route-roles.ts';
 import { refusal, refusalTypes } from './refusal.ts';
 
 const WINDOW_MS = 60_000;
-
-function callerKey(request: FastifyRequest): string {
-  return request.caller === ANONYMOUS ? `ip:${request.ip}` : `key:${request.caller}`;
-}
 
 export async function registerRateLimit(app: FastifyInstance, perMinute: number): Promise<void> {
   await app.register(rateLimit, {

@@ -8,6 +8,7 @@ export const refusalTypes = {
   unauthorized: 'urn:parsimetry:problem:unauthorized',
   forbidden: 'urn:parsimetry:problem:forbidden',
   rateLimited: 'urn:parsimetry:problem:rate-limited',
+  uploadsInFlight: 'urn:parsimetry:problem:uploads-in-flight',
   overloaded: 'urn:parsimetry:problem:overloaded',
   requestTimeout: 'urn:parsimetry:problem:request-timeout',
   shuttingDown: 'urn:parsimetry:problem:shutting-down',

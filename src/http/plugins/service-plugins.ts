@@ -24,7 +24,7 @@ export async function registerServicePlugins(app: FastifyInstance, { config, key
   refuseWhileClosing(app);
   await registerLoadShedding(app, config.eventLoopMaxDelayMs);
   await registerBrowserPolicy(app, config.corsOrigins);
-  installAccessControl(app, keys);
+  installAccessControl(app, keys, { authFailuresPerMinute: config.authFailuresPerMinute });
   await registerRateLimit(app, config.rateLimitPerMinute);
   installMetrics(app, { processMetrics });
 }

@@ -16,7 +16,7 @@ export const auditRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (
         'When `ok` is false: stop relying on records at or after `firstBroken.seq` and treat the audit store as a possible incident; keep a copy of the database as it is; compare with a backup or with a `head.hash` pinned outside the database earlier; records before `firstBroken.seq` still verify.',
         '`reason`: hash_mismatch (content edited), unreadable (row damaged), sequence_gap (a record missing or reordered), prev_hash_mismatch (a record replaced or reordered), head_mismatch (newest records removed, or rows added behind the store).',
         'Pin `head.hash` somewhere else from time to time: anyone able to rewrite the database could rewrite the whole chain consistently, and only an outside copy of an earlier head detects that.',
-        'The walk reads every record; on a long chain it takes a while and loads the database.',
+        'The walk reads every record; on a long chain it takes a while and loads the database. It reads pages of at most 1000 rows or 8 MiB of bodies and checks rows over 256 KiB in a worker thread, so its memory stays bounded and the service keeps answering other requests meanwhile.',
       ].join('\n\n'),
       response: { 200: VerifyReportSchema, 503: ProblemSchema },
     },

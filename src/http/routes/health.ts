@@ -1,20 +1,53 @@
 // Liveness says the process answers; readiness says it can also keep records,
-// because a result without its audit record is never sent.
+// because a result without its audit record is never sent. Readiness rests on
+// a proven write (src/audit/write-proof.ts), not on a read: a store reopened on
+// a full disk reads fine and refuses every append. A chain found behind the
+// head last seen at start is shown here too (README: Lost records): the
+// service can still keep records, so it stays ready, but an operator must look.
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
+import { describeFinding, type ChainAtStart } from '../../audit/chain-at-start.ts';
 import type { AuditStore } from '../../audit/store.ts';
 
-const Health = z.strictObject({ status: z.enum(['ok', 'unready']), auditStore: z.string().optional() });
+const Head = z.strictObject({ seq: z.number().int(), hash: z.string() });
 
-export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (app, { store }) => {
+const ChainWarning = z.strictObject({
+  kind: z.enum(['behind', 'rewritten']).meta({ description: 'behind: records the head last seen had are missing; rewritten: as many records, a different newest one.' }),
+  missing: z.number().int().meta({ description: 'Records missing at start (0 for rewritten).' }),
+  headAtStart: Head,
+  lastSeen: Head.extend({ seenAt: z.string() }).meta({ description: 'The head kept in the side file beside the SQLite store.' }),
+  detail: z.string(),
+}).meta({ description: 'Present when the start found the SQLite chain behind (or different from) the head last seen. README: Lost records says what to do.' });
+
+const Health = z.strictObject({
+  status: z.enum(['ok', 'unready']),
+  auditStore: z.string().optional(),
+  chainWarning: ChainWarning.optional(),
+});
+
+export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore; chainAtStart?: ChainAtStart }> = async (app, { store, chainAtStart }) => {
+  const finding = chainAtStart?.finding ?? null;
+  const chainWarning = finding === null ? undefined : {
+    kind: finding.kind,
+    missing: finding.missing,
+    headAtStart: { seq: finding.current.seq, hash: finding.current.hash },
+    lastSeen: { seq: finding.lastSeen.seq, hash: finding.lastSeen.hash, seenAt: finding.lastSeen.seenAt },
+    detail: describeFinding(finding, chainAtStart?.witnessFile ?? null),
+  };
+
   app.get('/healthz', {
     schema: { tags: ['operations'], summary: 'Liveness', security: [], response: { 200: Health } },
   }, async () => ({ status: 'ok' as const }));
 
   app.get('/readyz', {
-    schema: { tags: ['operations'], summary: 'Readiness: the audit store takes records', security: [], response: { 200: Health, 503: Health } },
+    schema: {
+      tags: ['operations'],
+      summary: 'Readiness: the audit store takes records (a write is proven, probed when none is recent)',
+      security: [],
+      response: { 200: Health, 503: Health },
+    },
   }, async (_request, reply) => {
     const ready = await store.ready().catch(() => false);
-    return reply.code(ready ? 200 : 503).send({ status: ready ? 'ok' : 'unready', auditStore: store.backend });
+    return reply.code(ready ? 200 : 503).send({ status: ready ? 'ok' : 'unready', auditStore: store.backend, chainWarning });
   });
 };

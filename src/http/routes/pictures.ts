@@ -21,6 +21,7 @@ import {
   criterionNames,
   heightRange,
   parseChartOptions,
+  REPORT_ROW_LIMITS,
   renderChartSvg,
   renderReportHtml,
   reportContentSecurityPolicy,
@@ -146,6 +147,7 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       description: [
         'What was compared and who came first, in one sentence; the data set and conventions; the chart; every ranking with the team policy\'s words for each Δ; the models and their coefficients; nested tests, averaged estimates and diagnostics when the record has them; the cautions; and the record\'s place in the audit chain with how to check it.',
         'No scripts and nothing loaded from anywhere: the style sheet and the chart are inline and the Content-Security-Policy forbids everything else. The query options choose the chart drawn in the page, as for chart.svg.',
+        `Long tables are cut short so the page stays readable and bounded in size: the first ${REPORT_ROW_LIMITS.coefficients} coefficients per model, ${REPORT_ROW_LIMITS.averagedTerms} averaged terms and ${REPORT_ROW_LIMITS.averagedPredictions} averaged predictions, each with a note saying how many were left out; GET /v1/comparisons/{id} holds them all.`,
         'Cacheable for a year, like chart.svg.',
       ].join('\n\n'),
       params: RecordParams,

@@ -70,11 +70,6 @@ function requestSummary(request: Record<string, unknown> | null) {
   };
 }
 
-function chosen(result: Record<string, unknown>): string | null {
-  const verdict = result.verdict as { chosen?: unknown } | undefined;
-  return typeof verdict?.chosen === 'string' ? verdict.chosen : null;
-}
-
 function queryProblem(reply: FastifyReply, path: string, message: string): FastifyReply {
   return reply.code(400).type(PROBLEM_CONTENT_TYPE).send(
     problem(400, problemTypes.invalidRequest, 'The request does not match the schema', `${path}: ${message}`,
@@ -157,7 +152,7 @@ export const recordRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async 
         caller: r.caller,
         label: r.label,
         datasetFingerprint: r.datasetFingerprint,
-        best: chosen(r.result),
+        best: r.best,
         seq: r.seq,
         hash: r.hash,
       })),

@@ -16,6 +16,19 @@ export const FiniteNumber = z.number({
       : 'expected a number',
 });
 
+/**
+ * A whole number in a query string, written in decimal digits only: Number()
+ * and z.coerce would also read "0x10", "1e2", " 16" and "" (as 0).
+ */
+export function decimalQueryInteger(name: string, min: number, max: number) {
+  const message = `${name} must be a whole number from ${min} to ${max}, written in decimal digits`;
+  return z
+    .string()
+    .regex(/^[0-9]{1,15}$/, message)
+    .transform(Number)
+    .pipe(z.number().int().min(min, message).max(max, message));
+}
+
 export const Term = z
   .union([
     ColumnName,

@@ -2,6 +2,7 @@
 // verification report and a replay report. Query and path parameters too.
 import { z } from 'zod';
 import { LIST_LIMIT_DEFAULT, LIST_LIMIT_MAX } from '../../audit/store.ts';
+import { decimalQueryInteger } from './common.ts';
 import { ComparisonResult } from './comparison-response.ts';
 
 const hex64 = z.string().meta({ description: '64 lowercase hex characters (SHA-256).' });
@@ -25,16 +26,12 @@ const Instant = z
 export const ListQuerySchema = z
   .strictObject({
     cursor: z.string().min(1).max(200).optional().meta({ description: 'nextCursor of the previous page; absent for the newest page.' }),
-    limit: z.coerce
-      .number({ error: 'limit must be a whole number from 1 to 100' })
-      .int('limit must be a whole number from 1 to 100')
-      .min(1, 'limit must be a whole number from 1 to 100')
-      .max(LIST_LIMIT_MAX, `limit is at most ${LIST_LIMIT_MAX}`)
-      .default(LIST_LIMIT_DEFAULT)
-      .meta({ description: `Page size, 1..${LIST_LIMIT_MAX} (default ${LIST_LIMIT_DEFAULT}).` }),
+    limit: decimalQueryInteger('limit', 1, LIST_LIMIT_MAX)
+      .optional()
+      .meta({ description: `Page size, 1..${LIST_LIMIT_MAX} in decimal digits (default ${LIST_LIMIT_DEFAULT}).` }),
     fingerprint: z.string().min(1).max(200).optional().meta({ description: 'Only records of this dataset.fingerprint ("sha256:…").' }),
     caller: z.string().min(1).max(200).optional().meta({ description: 'Only records made by this API key id ("anonymous" without keys).' }),
-    label: z.string().max(1000).optional().meta({ description: 'Only records with exactly this label.' }),
+    label: z.string().max(1000).optional().meta({ description: 'Only records whose label contains this text (case-sensitive); empty matches every record.' }),
     from: Instant.optional().meta({ description: 'Only records created at or after this instant (a date means its midnight UTC).' }),
     to: Instant.optional().meta({ description: 'Only records created before this instant.' }),
   })

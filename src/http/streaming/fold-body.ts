@@ -34,7 +34,15 @@ export async function foldRows(body: AsyncIterable<Buffer | string>, options: Fo
   let read: RowReader | null = options.format === 'ndjson' ? ndjsonReader(listed) : null;
   let rowsRead = 0;
   let rowsDropped = 0;
-  const bytes = await forEachLine(body, { maxBodyBytes: options.maxBodyBytes, maxLineBytes: options.maxLineBytes ?? DEFAULT_MAX_LINE_BYTES }, (line, lineNumber) => {
+  // Turn the event loop after every block summarised: other callers and
+  // /healthz wait at most one block's work (summary-folder.ts sizes it).
+  let blocksAtLastTurn = 0;
+  const shouldYield = () => {
+    if (folder.blocksFolded === blocksAtLastTurn) return false;
+    blocksAtLastTurn = folder.blocksFolded;
+    return true;
+  };
+  const bytes = await forEachLine(body, { maxBodyBytes: options.maxBodyBytes, maxLineBytes: options.maxLineBytes ?? DEFAULT_MAX_LINE_BYTES, shouldYield }, (line, lineNumber) => {
     if (read === null) {
       read = csvReader(line, listed);
       return;

@@ -1,14 +1,19 @@
 // Splits a byte stream into lines (LF or CRLF) without holding more than the
 // current chunk and one unfinished line. Lines are handed to a synchronous
 // callback chunk by chunk, so tens of millions of lines cost one await per
-// chunk, not per line. The unfinished line is bounded by maxLineBytes.
+// chunk, not per line, plus a turn of the event loop whenever the caller asks
+// for one (after a block of work). The unfinished line is bounded by maxLineBytes.
 import { StringDecoder } from 'node:string_decoder';
 import { BodyLimitError, RowError } from './row-error.ts';
 
 export interface LineOptions {
   maxLineBytes: number;
   maxBodyBytes: number;
+  /** Asked after each line: true to let the event loop turn before the next (a chunk may hold a whole body). */
+  shouldYield?: () => boolean;
 }
+
+const turnOfTheLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /** Calls onLine(text, lineNumber) for every line (1-based); returns the bytes read. */
 export async function forEachLine(body: AsyncIterable<Buffer | string>, options: LineOptions, onLine: (line: string, lineNumber: number) => void): Promise<number> {
@@ -29,6 +34,7 @@ export async function forEachLine(body: AsyncIterable<Buffer | string>, options:
     for (let nl = text.indexOf('\n'); nl >= 0; nl = text.indexOf('\n', start)) {
       emit(text.slice(start, nl));
       start = nl + 1;
+      if (options.shouldYield?.()) await turnOfTheLoop();
     }
     pending = text.slice(start);
     // Characters, not bytes, bound the pending line here: UTF-8 needs at most 3 bytes per UTF-16 unit.

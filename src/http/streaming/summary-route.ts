@@ -2,22 +2,29 @@
 // (text/csv, header row) rows, folded into a data summary as it arrives, in
 // constant memory (see summary-folder.ts). The answer's `summary` is the
 // fixed data.summary form, to be sent to /v1/comparisons or /v1/searches.
-// Nothing is recorded: a summary is an input, not a result.
+// Nothing is recorded: a summary is an input, not a result. At most
+// SUMMARY_UPLOADS_PER_CALLER uploads run at once per caller (uploads-in-flight.ts).
 import type { Readable } from 'node:stream';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { SummaryUploadQuery, SummaryUploadResult } from '../schemas/summary.ts';
+import { refusal, refusalTypes, sendRefusal } from '../plugins/refusal.ts';
+import { ANONYMOUS, callerKey } from '../security/access.ts';
 import { foldRows, type RowFormat } from './fold-body.ts';
 import { BodyLimitError, RowError } from './row-error.ts';
+import { UploadsInFlight } from './uploads-in-flight.ts';
 
 /** Default limit of a streamed body: 2 GiB, some 30 million rows of five numbers as CSV. */
 export const DEFAULT_SUMMARY_BODY_LIMIT_BYTES = 2 * 1024 ** 3;
+/** A guess, not a promise: an upload that ends frees a place at once. */
+const UPLOAD_RETRY_AFTER_SECONDS = 5;
 
 const FORMATS: Record<string, RowFormat> = { 'application/x-ndjson': 'ndjson', 'text/csv': 'csv' };
 
-export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number }> = async (app, options) => {
+export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number; uploadsPerCaller: number }> = async (app, options) => {
   const limit = options.bodyLimitBytes ?? DEFAULT_SUMMARY_BODY_LIMIT_BYTES;
+  const uploads = new UploadsInFlight(options.uploadsPerCaller);
   // Encapsulated in this plugin: the body reaches the handler as the raw stream, unread.
   app.addContentTypeParser(Object.keys(FORMATS), (_request, payload, done) => done(null, payload));
 
@@ -25,10 +32,16 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number }> =
     schema: {
       tags: ['searches'],
       summary: 'Fold streamed rows (NDJSON or CSV) into a data summary',
-      description: `Send the rows as application/x-ndjson (one JSON object per line) or text/csv (a header row, then one record per line). Rows with a null or empty value in a listed column are left out (common rows); any other value that is not a finite number is a 400 naming the line. Memory is constant in the row count: (p + 1) × 8192 doubles for a block of rows plus O(p²). Body limit ${limit} bytes (SUMMARY_BODY_LIMIT_BYTES).`,
+      description: `Send the rows as application/x-ndjson (one JSON object per line) or text/csv (a header row, then one record per line). Rows with a null or empty value in a listed column are left out (common rows); any other value that is not a finite number is a 400 naming the line. Memory is constant in the row count: (p + 1) × 8192 doubles for a block of rows plus O(p²). Body limit ${limit} bytes (SUMMARY_BODY_LIMIT_BYTES). At most ${options.uploadsPerCaller} uploads in flight at once per API key (per client address when open; SUMMARY_UPLOADS_PER_CALLER): one more is a 429 with Retry-After, before its body is read.`,
       querystring: SummaryUploadQuery,
       consumes: Object.keys(FORMATS),
-      response: { 200: SummaryUploadResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema },
+      response: {
+        200: SummaryUploadResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema,
+        429: {
+          description: 'The caller already has SUMMARY_UPLOADS_PER_CALLER uploads in flight (refused before the body is read; Retry-After), or a rate limit as for every keyed operation.',
+          content: { 'application/json': { schema: ProblemSchema } },
+        },
+      },
     },
   }, async (request, reply) => {
     const type = String(request.headers['content-type'] ?? '').split(';')[0].trim().toLowerCase();
@@ -37,6 +50,13 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number }> =
     if (!format || !body || typeof (body as Readable).pipe !== 'function') {
       return reply.code(415).type(PROBLEM_CONTENT_TYPE).send(problem(415, problemTypes.unsupportedMediaType, 'Unsupported media type',
         `send the rows as application/x-ndjson or text/csv (got ${JSON.stringify(request.headers['content-type'] ?? 'none')})`));
+    }
+    const caller = callerKey(request);
+    if (!uploads.enter(caller)) {
+      return sendRefusal(reply.header('connection', 'close'), refusal(429, refusalTypes.uploadsInFlight, 'Too many uploads in flight',
+        `${request.caller === ANONYMOUS ? 'this client' : `the key "${request.caller}"`} already has ${uploads.perCaller} uploads in flight (SUMMARY_UPLOADS_PER_CALLER=${uploads.perCaller}); send this one when one of them has finished`,
+        { limit: uploads.perCaller, setting: 'SUMMARY_UPLOADS_PER_CALLER', retryAfterSeconds: UPLOAD_RETRY_AFTER_SECONDS },
+        { 'retry-after': String(UPLOAD_RETRY_AFTER_SECONDS) }));
     }
     const { columns, weights } = request.query;
     try {
@@ -62,6 +82,8 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number }> =
           `the streamed body exceeds the limit of ${limit} bytes (SUMMARY_BODY_LIMIT_BYTES); summarise parts and merge them`, { limit }));
       }
       throw error;
+    } finally {
+      uploads.leave(caller);
     }
   });
 };

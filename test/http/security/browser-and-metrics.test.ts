@@ -1,7 +1,7 @@
 // Security headers, the CORS allowlist, /metrics and log redaction.
 import { Writable } from 'node:stream';
 import pino from 'pino';
-import t from 'tap';
+import t, { type Test } from 'tap';
 import { buildTestApp } from '../../helper.ts';
 import { demoComparison } from '../../../scripts/demo-data.ts';
 import { defaultConfig } from '../../../src/config.ts';
@@ -61,17 +61,42 @@ t.test('/metrics: Prometheus text with the service counters; any key when keys e
   t.match(text, /^parsimetry_searches_total 0$/m);
 });
 
-t.test('a key never reaches the logs, even at trace level', async (t) => {
+/** An app logging at trace level with the service's logger options, and everything it logged so far. */
+async function appLoggingAtTrace(t: Test) {
   const lines: string[] = [];
   const sink = new Writable({ write(chunk, _enc, done) { lines.push(String(chunk)); done(); } });
   const config = defaultConfig({ auditDb: ':memory:', logLevel: 'trace' });
   const store = await openAuditStore(':memory:');
   const app = await buildApp({ config, store, logger: pino(loggerOptions(config), sink), keys: ring });
   t.teardown(async () => { await app.close(); await store.close(); });
+  return { app, logged: () => lines.join('') };
+}
+
+t.test('a key never reaches the logs, even at trace level', async (t) => {
+  const { app, logged } = await appLoggingAtTrace(t);
   await app.inject({ method: 'POST', url: '/v1/comparisons', payload: demoComparison(), headers: bearer(secrets.dashboard) });
   await app.inject({ url: '/v1/comparisons', headers: bearer('a-wrong-key-that-must-not-be-logged') });
-  t.ok(lines.length > 0, 'requests were logged');
-  const all = lines.join('');
+  const all = logged();
+  t.ok(all.length > 0, 'requests were logged');
   t.notOk(all.includes(secrets.dashboard), 'the valid key is absent');
   t.notOk(all.includes('a-wrong-key-that-must-not-be-logged'), 'a wrong key is absent');
+});
+
+t.test('a key sent in a query string never reaches the logs; the path does', async (t) => {
+  const { app, logged } = await appLoggingAtTrace(t);
+  const key = secrets.dashboard;
+  const urls = [
+    `/v1/comparisons?api_key=${key}`, // an unknown parameter: 400
+    `/v1/comparisons?${key}`, // a bare key
+    `/v1/comparisons?limit=5&key=${encodeURIComponent(key)}`, // alongside a real parameter
+    `/no/such/route?token=${key}`, // 404
+  ];
+  for (const url of urls) await app.inject({ url, headers: bearer(key) });
+  await app.inject({ url: `/v1/comparisons?token=${key}` }); // no bearer key: 401
+  const all = logged();
+  t.ok(all.includes('/v1/comparisons?[redacted]'), 'the path is logged, its query marked as redacted');
+  t.ok(all.includes('/no/such/route?[redacted]'));
+  t.notOk(all.includes(key), 'the key is absent from every line');
+  t.notOk(all.includes(encodeURIComponent(key)), 'in any encoding');
+  t.notOk(all.includes('api_key='), 'parameter names go too: a bare key would be one');
 });

@@ -26,7 +26,7 @@ function sampleRequest(method: string, url: string): Sample {
 }
 
 async function routesUnderTest(t: Test) {
-  const { app, store } = await buildTestApp(t, { rateLimitPerMinute: 100_000 }, { keys: ring });
+  const { app, store } = await buildTestApp(t, { rateLimitPerMinute: 100_000, authFailuresPerMinute: 100_000 }, { keys: ring });
   const created = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: demoComparison(), headers: bearer(secrets.scorer) });
   t.equal(created.statusCode, 200, 'a record to read, chart and replay');
   const id = created.json().id as string;
