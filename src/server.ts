@@ -1,9 +1,9 @@
-// config -> keys -> logger -> store -> app -> listen. The only place that opens a socket.
+// config -> keys -> logger -> store -> compute pool -> app -> listen. The only place that opens a socket.
 import pino from 'pino';
 import { loadConfig, ConfigError, type Config } from './config.ts';
 import { loggerOptions } from './logger.ts';
 import { openAuditStore } from './audit/open.ts';
-import { buildApp } from './http/app.ts';
+import { buildApp, computePoolFor } from './http/app.ts';
 import { KeyRing } from './http/security/key-ring.ts';
 import { KeysFileError, loadKeysFile } from './http/security/keys-file.ts';
 import { isLoopbackHost } from './http/security/loopback.ts';
@@ -37,11 +37,15 @@ async function main(): Promise<void> {
   const { config, keys } = startupChecks();
   const logger = pino(loggerOptions(config));
   const store = await openAuditStore(config.auditDb);
-  const app = await buildApp({ config, store, logger, keys, processMetrics: true });
-  closeGracefully({ app, store, logger, graceMs: config.shutdownGraceMs });
+  // Started with the service and kept: the first request finds its workers warm.
+  const compute = computePoolFor(config);
+  compute.start();
+  compute.on('start-failed', ({ slot, error }) => logger.error({ slot, err: error }, 'a compute worker failed to start; retrying'));
+  const app = await buildApp({ config, store, logger, keys, processMetrics: true, compute });
+  closeGracefully({ app, store, compute, logger, graceMs: config.shutdownGraceMs });
 
   const address = await app.listen({ port: config.port, host: config.host });
-  logger.info({ auditStore: store.backend, apiKeys: keys.size, address },
+  logger.info({ auditStore: store.backend, apiKeys: keys.size, computeWorkers: compute.size, address },
     `parsimetry listening on ${address} (docs at /docs)${keys.open ? '; open: no API keys configured' : ''}`);
 }
 

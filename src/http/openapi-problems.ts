@@ -16,8 +16,22 @@ const REFUSALS: Record<string, string> = {
   503: 'Shedding load (EVENT_LOOP_MAX_DELAY_MS), shutting down, or the audit store cannot take the record (Retry-After).',
 };
 
+/** What the operations that compute can refuse, beyond their schema (README: limits). */
+const COMPUTE_OPERATIONS: ReadonlyArray<[string, string]> = [['/v1/comparisons', 'post'], ['/v1/searches', 'post'], ['/v1/comparisons/{id}/replay', 'post']];
+const COMPUTE_REFUSALS: Record<string, string> = {
+  413: 'The body exceeds BODY_LIMIT_BYTES.',
+  422: 'Well-formed but cannot be computed (errors[] name each field), or over a limit priced from the request\'s shape before any work: MAX_REQUEST_WORK, MAX_REQUEST_MEMORY_BYTES, MAX_DESIGN_COLUMNS, MAX_RESULT_BYTES (type urn:parsimetry:problem:work-limit, with the estimate, the limit and its setting); or stopped at COMPUTE_DEADLINE_MS (urn:parsimetry:problem:compute-deadline) or out of a compute worker\'s heap (urn:parsimetry:problem:compute-memory). Nothing is recorded.',
+  503: 'Every compute worker is busy and COMPUTE_QUEUE_LENGTH requests already wait (urn:parsimetry:problem:compute-busy), the service is shedding load or shutting down, or the audit store cannot take the record; Retry-After says when to come back.',
+};
+
 /** Problem media types, and the refusals of the access and limit layers on every keyed operation. */
 export function finishDocument<T>(document: T): T {
+  for (const [path, method] of COMPUTE_OPERATIONS) {
+    const responses = (document as Doc).paths?.[path]?.[method]?.responses ?? {};
+    for (const [status, description] of Object.entries(COMPUTE_REFUSALS)) {
+      if (responses[status]) responses[status].description = description;
+    }
+  }
   for (const operations of Object.values((document as Doc).paths ?? {})) {
     for (const operation of Object.values(operations)) {
       if (!operation || (Array.isArray(operation.security) && operation.security.length === 0)) continue;

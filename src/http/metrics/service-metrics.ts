@@ -1,7 +1,8 @@
 // Prometheus metrics, one registry per app so that tests building several apps
 // in one process never share counters. Names follow Prometheus conventions
 // (base units: seconds; counters end in _total).
-import { Counter, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
+import { Counter, Gauge, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
+import type { PoolStats } from '../../compute/index.ts';
 
 export interface ServiceMetrics {
   readonly registry: Registry;
@@ -12,6 +13,11 @@ export interface ServiceMetrics {
   readonly searches: Counter;
   readonly auditAppendDuration: Histogram;
   readonly auditAppendFailures: Counter;
+  /** Requests the compute pool turned away or stopped: busy, compute-deadline, compute-memory, client_gone. */
+  readonly computeRefusals: Counter<'reason'>;
+  readonly computeWorkersReplaced: Counter;
+  /** Reports the pool's state on every scrape. */
+  watchPool(stats: () => PoolStats): void;
 }
 
 export function createServiceMetrics(options: { processMetrics?: boolean } = {}): ServiceMetrics {
@@ -39,5 +45,18 @@ export function createServiceMetrics(options: { processMetrics?: boolean } = {})
       registers, buckets: [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5],
     }),
     auditAppendFailures: new Counter({ name: 'parsimetry_audit_append_failures_total', help: 'Records the audit store refused (each turned its reply into a 503)', registers }),
+    computeRefusals: new Counter({
+      name: 'parsimetry_compute_refusals_total', help: 'Requests the compute pool refused (queue full) or stopped (deadline, worker heap, client gone), by reason',
+      labelNames: ['reason'], registers,
+    }),
+    computeWorkersReplaced: new Counter({ name: 'parsimetry_compute_workers_replaced_total', help: 'Compute workers terminated (deadline, cancellation) or lost and started afresh', registers }),
+    watchPool(stats) {
+      const gauge = (name: string, help: string, read: (s: PoolStats) => number) =>
+        new Gauge({ name, help, registers, collect() { this.set(read(stats())); } });
+      gauge('parsimetry_compute_workers', 'Worker threads of the compute pool (COMPUTE_WORKERS)', (s) => s.workers);
+      gauge('parsimetry_compute_workers_busy', 'Compute workers running a piece of work now', (s) => s.busy);
+      gauge('parsimetry_compute_queue_pieces', 'Pieces of work waiting for a compute worker', (s) => s.waiting);
+      gauge('parsimetry_compute_requests', 'Requests admitted to the compute pool and not finished (at most COMPUTE_WORKERS + COMPUTE_QUEUE_LENGTH)', (s) => s.sessions);
+    },
   };
 }

@@ -1,14 +1,13 @@
 // The search across every core: the pure kernel's work split into tasks
-// (contiguous Gray-code ranges, or subtrees of branch and bound under fixed
-// first decisions), run on worker threads, joined by finishSearch. Ranges
+// (contiguous ranges of subsets, or subtrees of branch and bound under fixed
+// first decisions), run by the caller's runner — the workers of the
+// process-wide compute pool (src/compute) — and joined by finishSearch. Ranges
 // start at multiples of the kernel's refresh interval, so exhaustive results
 // are bit-identical to one thread's apart from the order of the final weight
 // sums (agreement to ~1e-15 relative). Branch and bound prunes within each
 // subtree against that subtree's own top list, so it may evaluate more
 // subsets than one thread would; the top models are the same.
 
-import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
 import {
   branchOrder,
   DEFAULT_SEARCH_BUDGET,
@@ -23,8 +22,7 @@ import {
   type SearchSettings,
   type SubsetProblem,
 } from '../../core/search/index.ts';
-import type { SearchReply, SearchTask } from './messages.ts';
-import { runTask } from './run-task.ts';
+import type { SearchTask } from './messages.ts';
 
 export interface SearchProgress {
   /** Subsets accounted for (scored, passed over or pruned) of `total`. */
@@ -34,37 +32,40 @@ export interface SearchProgress {
   tasks: number;
 }
 
+/** Runs one task where the caller's work runs (a worker of the compute pool), and says which worker took it. */
+export type TaskRunner = (task: SearchTask) => Promise<{ value: SearchPartial; worker: number }>;
+
 export interface RunSearchOptions {
-  /** Worker threads; default os.availableParallelism(). 1 runs on the calling thread. */
-  threads?: number;
+  run: TaskRunner;
+  /** Workers that may run tasks at once: the work is cut into TASKS_PER_THREAD pieces for each. */
+  parallelism: number;
   budget?: SearchBudget;
   /** Refuse rather than fall back to branch and bound when every subset is beyond the budget. */
   exhaustive?: boolean;
   onProgress?: (p: SearchProgress) => void;
-  signal?: AbortSignal;
 }
 
 export type RunSearchResult =
+  /** threads: the distinct workers the tasks ran on. */
   | { ok: true; outcome: SearchOutcome; threads: number; budget: SearchBudget; estimatedFlops: number | null }
   | { ok: false; issue: BudgetIssue; budget: SearchBudget };
 
-/** Below this many subsets the search runs on the calling thread: starting workers would cost more. */
-const IN_THREAD_SUBSETS = 2 ** 14;
+/** Below this many subsets the search is one task: splitting it would cost more than it saves. */
+const ONE_TASK_SUBSETS = 2 ** 14;
 const TASKS_PER_THREAD = 8;
 
-export async function runSearch(problem: SubsetProblem, settings: SearchSettings, options: RunSearchOptions = {}): Promise<RunSearchResult> {
+export async function runSearch(problem: SubsetProblem, settings: SearchSettings, options: RunSearchOptions): Promise<RunSearchResult> {
   const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
   const plan = planSearch(problem, { exhaustive: options.exhaustive }, budget);
   if (!plan.ok) return { ok: false, issue: plan.issue, budget };
   const m = problem.poolBlocks.length;
   const total = 2 ** m;
-  const wanted = Math.max(1, Math.floor(options.threads ?? availableParallelism()));
-  const threads = total <= IN_THREAD_SUBSETS ? 1 : wanted;
+  const threads = total <= ONE_TASK_SUBSETS ? 1 : Math.max(1, Math.floor(options.parallelism));
   const tasks = plan.method === 'exhaustive' ? exhaustiveTasks(problem, settings, threads) : branchTasks(problem, settings, threads, budget);
-  const partials = await runTasks(tasks, threads, total, options);
+  const { partials, workers } = await runTasks(tasks, total, options);
   const outcome = finishSearch(plan.method, settings, m, partials);
   if (outcome.stopped) return { ok: false, issue: nodeBudgetIssue(budget, m), budget };
-  return { ok: true, outcome, threads, budget, estimatedFlops: plan.estimatedFlops };
+  return { ok: true, outcome, threads: workers, budget, estimatedFlops: plan.estimatedFlops };
 }
 
 function exhaustiveTasks(problem: SubsetProblem, settings: SearchSettings, threads: number): SearchTask[] {
@@ -97,59 +98,18 @@ function covers(task: SearchTask): number {
   return 2 ** (task.problem.poolBlocks.length - task.prefix.decided.length);
 }
 
-function startWorker(): Worker {
-  // Run from sources (tsx, tap) the worker module is the .ts beside this one; built, the .js.
-  const ext = import.meta.url.endsWith('.ts') ? '.ts' : '.js';
-  const entry = new URL(`./search-worker${ext}`, import.meta.url).href;
-  return new Worker(new URL('./worker-entry.mjs', import.meta.url), { workerData: { entry } });
-}
-
-async function runTasks(tasks: SearchTask[], threads: number, total: number, options: RunSearchOptions): Promise<SearchPartial[]> {
+async function runTasks(tasks: SearchTask[], total: number, options: RunSearchOptions): Promise<{ partials: SearchPartial[]; workers: number }> {
   const results: SearchPartial[] = new Array(tasks.length);
+  const workers = new Set<number>();
   let covered = 0;
   let done = 0;
-  const report = (task: SearchTask, p: SearchPartial) => {
-    results[task.id] = p;
+  await Promise.all(tasks.map(async (task) => {
+    const { value, worker } = await options.run(task);
+    results[task.id] = value;
+    workers.add(worker);
     covered += covers(task);
     done++;
     options.onProgress?.({ covered, total, tasksDone: done, tasks: tasks.length });
-  };
-  if (threads === 1) {
-    for (const task of tasks) {
-      if (options.signal?.aborted) throw new Error('search aborted');
-      report(task, runTask(task));
-    }
-    return results;
-  }
-  const queue = [...tasks];
-  const workers = Array.from({ length: Math.min(threads, tasks.length) }, startWorker);
-  try {
-    await new Promise<void>((resolve, reject) => {
-      let running = 0;
-      const abort = () => reject(new Error('search aborted'));
-      options.signal?.addEventListener('abort', abort, { once: true });
-      const feed = (w: Worker) => {
-        const task = queue.shift();
-        if (!task) {
-          if (running === 0) resolve();
-          return;
-        }
-        running++;
-        w.postMessage(task);
-      };
-      for (const w of workers) {
-        w.on('message', (reply: SearchReply) => {
-          running--;
-          if (!reply.ok) return reject(new Error(reply.error));
-          report(tasks[reply.id], reply.partial);
-          feed(w);
-        });
-        w.on('error', reject);
-        feed(w);
-      }
-    });
-  } finally {
-    await Promise.all(workers.map((w) => w.terminate()));
-  }
-  return results;
+  }));
+  return { partials: results, workers: workers.size };
 }

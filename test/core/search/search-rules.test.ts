@@ -5,7 +5,9 @@
 import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
 import { hierarchyRules, planSearch, searchSubsets, DEFAULT_SEARCH_BUDGET } from '../../../src/core/search/index.ts';
-import { runSearch } from '../../../src/search/workers/index.ts';
+import { runSearch, type TaskRunner } from '../../../src/search/workers/index.ts';
+import { ComputePool } from '../../../src/compute/index.ts';
+import { JOB_WORKER_MODULE } from '../../../src/http/jobs/index.ts';
 import type { Term } from '../../../src/core/types.ts';
 import { problemFor } from './brute-force.ts';
 
@@ -49,7 +51,12 @@ t.test('a pool beyond the budget is refused with the budget named', (t) => {
   t.end();
 });
 
-t.test('worker threads give the single-thread results', async (t) => {
+t.test('the compute pool\'s workers give the single-thread results', async (t) => {
+  const workers = new ComputePool({ size: 2, queueLength: 0, deadlineMs: 120_000, workerModule: JOB_WORKER_MODULE });
+  t.teardown(() => workers.close());
+  const session = workers.open();
+  t.teardown(() => session.close());
+  const run: TaskRunner = (task) => session.runOn({ kind: 'searchTask', task });
   const demo = demoColumns();
   const pool: Term[] = [
     'peakTemp', 'holdMinutes', 'moisture', { kind: 'factor', of: 'kiln' },
@@ -64,7 +71,7 @@ t.test('worker threads give the single-thread results', async (t) => {
   const settings = { criterion: 'aicc', top: 10, rankDeficient: 'score' } as const;
   const one = searchSubsets(problem, settings, 'exhaustive');
   const progress: number[] = [];
-  const two = await runSearch(problem, settings, { threads: 2, onProgress: (p) => progress.push(p.covered / p.total) });
+  const two = await runSearch(problem, settings, { run, parallelism: 2, onProgress: (p) => progress.push(p.covered / p.total) });
   t.ok(two.ok);
   if (!two.ok) return;
   t.equal(two.threads, 2);
@@ -73,9 +80,9 @@ t.test('worker threads give the single-thread results', async (t) => {
   t.ok(two.outcome.models.every((m, i) => Math.abs(m.weight - one.models[i].weight) < 1e-13), 'weights agree');
   t.ok(two.outcome.importance.every((x, i) => Math.abs(x.weight - one.importance[i].weight) < 1e-13), 'importance agrees');
   t.equal(progress.at(-1), 1, 'progress reaches the whole');
-  const bb = await runSearch(problem, settings, { threads: 2, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000 } });
+  const bb = await runSearch(problem, settings, { run, parallelism: 2, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000 } });
   t.ok(bb.ok && bb.outcome.method === 'branchAndBound' && !bb.outcome.weightsCoverAllSubsets);
   if (bb.ok) t.same(bb.outcome.models.map((m) => m.terms), one.models.map((m) => m.terms), 'branch and bound on workers finds the same top');
-  const starved = await runSearch(problem, settings, { threads: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000, maxNodes: 10 } });
+  const starved = await runSearch(problem, settings, { run, parallelism: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000, maxNodes: 10 } });
   t.equal(starved.ok ? '' : starved.issue.facts.budget, 'maxNodes', 'node budget exhausted is refused, naming it');
 });

@@ -1,0 +1,5 @@
+// A compute worker: runs the jobs of src/http/jobs as the pool sends them.
+import { serveJobs } from '../../compute/worker-loop.ts';
+import { runJob, type Job } from './index.ts';
+
+serveJobs((job) => runJob(job as Job));
