@@ -51,7 +51,9 @@ export const CANDIDATE_PRICES: { [F in CandidateInput['form']]: CandidatePricer<
     const width = designWidth(ctx.shape, c.terms, c.intercept, ctx.maxDesignColumns);
     const p = width.columns;
     const n = ctx.shape.rows;
-    const widestTerm = width.perTerm.length === 0 ? null : width.perTerm.indexOf(Math.max(...width.perTerm));
+    // Worth pointing at only when one term makes several columns (a factor, a product of factors).
+    const widest = Math.max(0, ...width.perTerm);
+    const widestTerm = widest > 1 ? width.perTerm.indexOf(widest) : null;
     const common = { designColumns: p, widestTerm, atLeast: width.atLeast };
     if (ctx.fromSummary) return { fit: leastSquaresFromSummary(p), prediction: NO_COST, ...common };
     return { fit: leastSquaresFit(n, p), prediction: leastSquaresPrediction(n, p, ctx.predictionRows), ...common };
