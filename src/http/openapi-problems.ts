@@ -20,7 +20,7 @@ const REFUSALS: Record<string, string> = {
 const COMPUTE_OPERATIONS: ReadonlyArray<[string, string]> = [['/v1/comparisons', 'post'], ['/v1/searches', 'post'], ['/v1/comparisons/{id}/replay', 'post']];
 const COMPUTE_REFUSALS: Record<string, string> = {
   413: 'The body exceeds BODY_LIMIT_BYTES.',
-  422: 'Well-formed but cannot be computed (errors[] name each field), or over a limit priced from the request\'s shape before any work: MAX_REQUEST_WORK, MAX_REQUEST_MEMORY_BYTES, MAX_DESIGN_COLUMNS, MAX_RESULT_BYTES (type urn:parsimetry:problem:work-limit, with the estimate, the limit and its setting); or stopped at COMPUTE_DEADLINE_MS (urn:parsimetry:problem:compute-deadline) or out of a compute worker\'s heap (urn:parsimetry:problem:compute-memory). Nothing is recorded.',
+  422: 'Over a limit priced from the request\'s shape before any work — MAX_REQUEST_WORK, MAX_REQUEST_MEMORY_BYTES, MAX_DESIGN_COLUMNS, MAX_RESULT_BYTES (type urn:parsimetry:problem:work-limit, with the estimate, the limit and its setting) — or stopped at COMPUTE_DEADLINE_MS (urn:parsimetry:problem:compute-deadline) or out of a compute worker\'s heap (urn:parsimetry:problem:compute-memory); nothing is recorded. A new comparison or search is also refused with 422 when it is well-formed but cannot be computed (errors[] name each field).',
   503: 'Every compute worker is busy and COMPUTE_QUEUE_LENGTH requests already wait (urn:parsimetry:problem:compute-busy), the service is shedding load or shutting down, or the audit store cannot take the record; Retry-After says when to come back.',
 };
 

@@ -7,8 +7,7 @@
 import type { FastifyReply } from 'fastify';
 import { ComputeCancelled, type ComputePool, type ComputeSession } from '../../compute/index.ts';
 import type { PriceCaps } from '../../core/pricing/index.ts';
-import { runJob } from '../jobs/index.ts';
-import type { ComparisonJob, ComparisonJobOutcome } from '../jobs/comparison-job.ts';
+import { comparisonJob, type ComparisonJob, type ComparisonJobOutcome } from '../jobs/comparison-job.ts';
 import type { ClientWatch } from './client-gone.ts';
 import { computeRefusal } from './refusals.ts';
 
@@ -61,7 +60,7 @@ export async function computeComparisonJob(
   work: number,
 ): Promise<ComparisonJobOutcome | typeof CLIENT_GONE> {
   if (work <= service.inlineWork) {
-    const outcome = runJob(job);
+    const outcome = comparisonJob(job);
     return watch.gone ? CLIENT_GONE : outcome;
   }
   const outcome = await inSession(service.pool, reply, watch, (session) => session.run<ComparisonJobOutcome>(job));

@@ -7,6 +7,10 @@
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
+// The schemas first: they register in import order, and that order is the OpenAPI document's.
+import { ProblemSchema } from '../schemas/problem.ts';
+import { SearchRequest } from '../schemas/search-request.ts';
+import { SearchResult } from '../schemas/search-response.ts';
 import { requestDigest } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import type { ComputeSession } from '../../compute/index.ts';
@@ -23,9 +27,6 @@ import type { JobResults } from '../jobs/index.ts';
 import { budgetIssue, type SearchAnswer } from '../jobs/search-jobs.ts';
 import { Refusal } from '../plugins/refusal.ts';
 import { issuesProblem, problem, problemTypes, PROBLEM_CONTENT_TYPE, type Problem } from '../problems.ts';
-import { ProblemSchema } from '../schemas/problem.ts';
-import { SearchRequest } from '../schemas/search-request.ts';
-import { SearchResult } from '../schemas/search-response.ts';
 import { EventStream, wantsEventStream } from '../sse.ts';
 
 export interface SearchRouteOptions {
