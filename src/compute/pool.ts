@@ -166,6 +166,9 @@ export class ComputePool extends EventEmitter implements PieceRunner {
     const heap = this.options.heapLimitMb;
     const worker = new Worker(ENTRY, {
       workerData: { module: this.options.workerModule.href },
+      // The entry installs what the worker needs itself. Inherited preloads (node --import …) would run
+      // in the worker before any loader, and a TypeScript one fails there.
+      execArgv: [],
       resourceLimits: heap ? { maxOldGenerationSizeMb: heap } : undefined,
     });
     // An idle worker must not keep the process alive; one running a piece does.

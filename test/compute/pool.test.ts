@@ -131,3 +131,12 @@ t.test('a search fans its tasks out over every worker of one pool', async (t) =>
   t.equal(s.workersUsed, 2, 'both workers took pieces of one request');
   s.close();
 });
+
+t.test('workers that cannot start fail the waiting work rather than leave it waiting', async (t) => {
+  const p = pool(t, { workerModule: new URL('./no-such-worker.ts', import.meta.url) });
+  const s = p.open();
+  const failure = await s.run({ kind: 'echo', value: 1 }).catch((e: Error) => e);
+  t.ok(failure instanceof ComputeFailed);
+  t.match((failure as Error).message, /compute workers cannot start/);
+  s.close();
+});

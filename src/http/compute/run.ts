@@ -8,6 +8,7 @@ import type { FastifyReply } from 'fastify';
 import { ComputeCancelled, type ComputePool, type ComputeSession } from '../../compute/index.ts';
 import type { PriceCaps } from '../../core/pricing/index.ts';
 import { comparisonJob, type ComparisonJob, type ComparisonJobOutcome } from '../jobs/comparison-job.ts';
+import { forWorker } from '../jobs/transport.ts';
 import type { ClientWatch } from './client-gone.ts';
 import { computeRefusal } from './refusals.ts';
 
@@ -63,6 +64,6 @@ export async function computeComparisonJob(
     const outcome = comparisonJob(job);
     return watch.gone ? CLIENT_GONE : outcome;
   }
-  const outcome = await inSession(service.pool, reply, watch, (session) => session.run<ComparisonJobOutcome>(job));
+  const outcome = await inSession(service.pool, reply, watch, (session) => session.run<ComparisonJobOutcome>(forWorker(job)));
   return watch.gone ? CLIENT_GONE : outcome;
 }

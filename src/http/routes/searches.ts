@@ -25,6 +25,7 @@ import { priceSearchRequest } from '../compute/price-request.ts';
 import { CLIENT_GONE, inSession, type ComputeService } from '../compute/run.ts';
 import type { JobResults } from '../jobs/index.ts';
 import { budgetIssue, type SearchAnswer } from '../jobs/search-jobs.ts';
+import { forWorker } from '../jobs/transport.ts';
 import { Refusal } from '../plugins/refusal.ts';
 import { issuesProblem, problem, problemTypes, PROBLEM_CONTENT_TYPE, type Problem } from '../problems.ts';
 import { EventStream, wantsEventStream } from '../sse.ts';
@@ -46,7 +47,7 @@ type Computed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Prob
 
 /** Prepare, score and report, every piece on the pool's workers. */
 async function computeSearch(session: ComputeSession, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<Computed> {
-  const prepared = await session.run<JobResults['searchPrepare']>({ kind: 'searchPrepare', body, policy, budget });
+  const prepared = await session.run<JobResults['searchPrepare']>(forWorker({ kind: 'searchPrepare', body, policy, budget }));
   if ('issues' in prepared) return prepared;
   const { problem: subsets, choice } = prepared.prepared;
   const started = performance.now();
@@ -64,11 +65,11 @@ async function computeSearch(session: ComputeSession, body: SearchRequest, polic
     return { issues: [narrowed ? { ...budgetIssue(run.issue), setting: 'MAX_REQUEST_WORK' } as Issue : budgetIssue(run.issue)] };
   }
   const elapsedMs = performance.now() - started;
-  const report = await session.run<JobResults['searchReport']>({
+  const report = await session.run<JobResults['searchReport']>(forWorker({
     kind: 'searchReport', body, policy, prepared: prepared.prepared, outcome: run.outcome,
     run: { threads: run.threads, elapsedMs, budget: run.budget, estimatedFlops: run.estimatedFlops },
     resultCap: compute.caps.resultBytes,
-  });
+  }));
   return 'result' in report ? { answer: report.result } : report;
 }
 
