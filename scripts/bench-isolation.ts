@@ -35,6 +35,11 @@ const service = await startService({ AUDIT_DB: join(dir, 'audit.sqlite'), COMPUT
 const pid = service.child.pid!;
 const kib = (field: 'VmRSS' | 'VmHWM') => Number(new RegExp(`${field}:\\s+(\\d+) kB`).exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? 0);
 const mib = (k: number) => (k / 1024).toFixed(0);
+/** CPU seconds of the service's main thread (its task id is the process id), from its scheduler statistics. */
+const mainThreadCpuSeconds = () => {
+  const fields = readFileSync(`/proc/${pid}/task/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+  return (Number(fields[11]) + Number(fields[12])) / 100; // utime + stime, in USER_HZ ticks
+};
 
 async function loopDelayP99Ms(): Promise<number> {
   // prom-client's monitor resets at every scrape, so each scrape covers the time since the last.
@@ -74,6 +79,7 @@ async function hostileClient(first: number, until: number): Promise<void> {
 
 async function phase(seconds: number, hostile: boolean) {
   await loopDelayP99Ms();
+  const cpu0 = mainThreadCpuSeconds();
   const until = Date.now() + seconds * 1000;
   const load = hostile ? Array.from({ length: clients }, (_, c) => hostileClient(c, until)) : [];
   const health: number[] = [];
@@ -89,8 +95,9 @@ async function phase(seconds: number, hostile: boolean) {
     await new Promise((resolve) => setTimeout(resolve, 20));
   }
   const loopP99 = await loopDelayP99Ms();
+  const mainBusy = (mainThreadCpuSeconds() - cpu0) / seconds;
   await Promise.all(load);
-  return { loopP99, healthP99: percentile(health, 0.99), probes: health.length, failures, rssPeak };
+  return { loopP99, healthP99: percentile(health, 0.99), probes: health.length, failures, rssPeak, mainBusy };
 }
 
 const idle = await phase(idleSeconds, false);
@@ -102,9 +109,9 @@ await service.exited;
 rmSync(dir, { recursive: true, force: true });
 
 console.log(`isolation: ${clients} hostile clients for ${hostileSeconds} s against ${idleSeconds} s idle, /healthz every 20 ms (figures from a busy shared machine)`);
-console.log(`${'phase'.padEnd(8)} ${'loop delay p99'.padStart(15)} ${'/healthz p99'.padStart(13)} ${'probes'.padStart(7)} ${'failed'.padStart(7)} ${'peak RSS'.padStart(9)}`);
+console.log(`${'phase'.padEnd(8)} ${'loop delay p99'.padStart(15)} ${'/healthz p99'.padStart(13)} ${'probes'.padStart(7)} ${'failed'.padStart(7)} ${'peak RSS'.padStart(9)} ${'main thread busy'.padStart(17)}`);
 for (const [name, p] of [['idle', idle], ['hostile', hostile]] as const) {
-  console.log(`${name.padEnd(8)} ${p.loopP99.toFixed(1).padStart(12)} ms ${p.healthP99.toFixed(1).padStart(10)} ms ${String(p.probes).padStart(7)} ${String(p.failures).padStart(7)} ${mib(p.rssPeak).padStart(5)} MiB`);
+  console.log(`${name.padEnd(8)} ${p.loopP99.toFixed(1).padStart(12)} ms ${p.healthP99.toFixed(1).padStart(10)} ms ${String(p.probes).padStart(7)} ${String(p.failures).padStart(7)} ${mib(p.rssPeak).padStart(5)} MiB ${(100 * p.mainBusy).toFixed(0).padStart(15)} %`);
 }
 console.log(`hostile / idle: loop delay p99 ${(hostile.loopP99 / idle.loopP99).toFixed(2)}x, /healthz p99 ${(hostile.healthP99 / idle.healthP99).toFixed(2)}x`);
 console.log(`process peak resident memory (VmHWM): ${mib(hwm)} MiB; alive after the mix: ${alive ? 'yes' : 'NO'}`);
