@@ -45,11 +45,11 @@ const storeProblem = (): Problem =>
 
 type Computed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Problem };
 
-/** Prepare, score and report, every piece on the pool's workers. */
-async function computeSearch(session: ComputeSession, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<Computed> {
-  const prepared = await session.run<JobResults['searchPrepare']>(forWorker({ kind: 'searchPrepare', body, policy, budget }));
-  if ('issues' in prepared) return prepared;
-  const { problem: subsets, choice } = prepared.prepared;
+type Prepared = Extract<JobResults['searchPrepare'], { prepared: unknown }>['prepared'];
+
+/** Score and report a prepared search, every piece on the pool's workers. */
+async function scoreAndReport(session: ComputeSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<Computed> {
+  const { problem: subsets, choice } = prepared;
   const started = performance.now();
   // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
   const run = await runSearch(subsets, { criterion: choice.rankBy, top: body.top, rankDeficient: 'skip' }, {
@@ -66,7 +66,7 @@ async function computeSearch(session: ComputeSession, body: SearchRequest, polic
   }
   const elapsedMs = performance.now() - started;
   const report = await session.run<JobResults['searchReport']>(forWorker({
-    kind: 'searchReport', body, policy, prepared: prepared.prepared, outcome: run.outcome,
+    kind: 'searchReport', body, policy, prepared, outcome: run.outcome,
     run: { threads: run.threads, elapsedMs, budget: run.budget, estimatedFlops: run.estimatedFlops },
     resultCap: compute.caps.resultBytes,
   }));
@@ -96,13 +96,16 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
       return reply;
     };
     try {
-      const computed = await inSession(compute.pool, reply, watch, async (session) => {
-        // Admitted: only now does the answer become a stream, so a full queue is still a plain 503.
+      const computed = await inSession(compute.pool, reply, watch, async (session): Promise<Computed> => {
+        const prepared = await session.run<JobResults['searchPrepare']>(forWorker({ kind: 'searchPrepare', body, policy, budget: priced.budget }));
+        if ('issues' in prepared) return prepared;
+        // Admitted and prepared: only now does the answer become a stream, so a full queue is still a plain 503
+        // and a request that cannot start a plain 422.
         const stream = wantsEventStream(request.headers.accept) ? new EventStream(reply, () => session.cancel()) : null;
         answering.stream = stream;
         let lastProgress = 0;
         stream?.send('progress', { covered: 0, total: 2 ** body.pool.length });
-        return computeSearch(session, body, policy, priced.budget, compute, (p) => {
+        return scoreAndReport(session, prepared.prepared, body, policy, priced.budget, compute, (p) => {
           const now = performance.now();
           if (stream && now - lastProgress >= PROGRESS_INTERVAL_MS) {
             lastProgress = now;
