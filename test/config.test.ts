@@ -18,7 +18,7 @@ t.test('defaults are those of the README configuration table', async (t) => {
   t.match(c, { port: 8080, host: '127.0.0.1', auditDb: './data/audit.sqlite', auditRequests: 'full', logLevel: 'info', bodyLimitBytes: 33554432, rateLimitPerMinute: 600, requestTimeoutMs: 60000, eventLoopMaxDelayMs: 1000, shutdownGraceMs: 20000 });
   t.match(c, {
     maxRequestWork: 10_000_000_000, maxRequestMemoryBytes: 536870912, maxDesignColumns: 2000, maxResultBytes: 16777216,
-    computeWorkers: availableParallelism(), computeQueueLength: 8, computeDeadlineMs: 60000, computeInlineWork: 2_000_000,
+    computeWorkers: availableParallelism(), computeQueueLength: 8, computeDeadlineMs: 60000, computeInlineWork: 5_000_000,
   });
 });
 
