@@ -57,26 +57,25 @@ async function searchCase(label: string, request: unknown) {
   return { label, work: priced.price.work, seconds: (performance.now() - t0) / 1000 };
 }
 
-const big = 100_000;
-const xs = Array.from({ length: 30 }, () => numeric(big));
-const bigColumns: Record<string, unknown[]> = Object.fromEntries(xs.map((x, j) => [`x${j}`, x]));
-bigColumns.y = response(big, ...xs);
+/** `count` numeric columns x0, x1, … of `rows` rows and a response y built from them. */
+function table(rows: number, count: number) {
+  const xs = Array.from({ length: count }, () => numeric(rows));
+  const columns: Record<string, unknown[]> = Object.fromEntries(xs.map((x, j) => [`x${j}`, x]));
+  columns.y = response(rows, ...xs);
+  return { xs, columns };
+}
+
+const { xs, columns: bigColumns } = table(100_000, 30);
 
 const levels = 300;
 const rowsF = 3000;
 const factor = Array.from({ length: rowsF }, (_, i) => `batch-${(i * 7919) % levels}`);
 const xF = numeric(rowsF);
 
-const small = 120;
-const sx = Array.from({ length: 10 }, () => numeric(small));
-const smallColumns: Record<string, unknown[]> = Object.fromEntries(sx.map((x, j) => [`x${j}`, x]));
-smallColumns.y = response(small, ...sx);
+const { columns: smallColumns } = table(120, 10);
 const smallTerms = (k: number): Term[] => Array.from({ length: k }, (_, j) => `x${j % 10}`).filter((v, i, a) => a.indexOf(v) === i);
 
-const mid = 2000;
-const mx = Array.from({ length: 16 }, () => numeric(mid));
-const midColumns: Record<string, unknown[]> = Object.fromEntries(mx.map((x, j) => [`x${j}`, x]));
-midColumns.y = response(mid, ...mx);
+const { xs: mx, columns: midColumns } = table(2000, 16);
 
 // A summary of 160 columns (response last) from generated rows: C = Σ (x - x̄)(z - z̄).
 const summaryColumns = 160;
