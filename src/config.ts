@@ -1,6 +1,7 @@
 // The only reader of process.env. Every setting is validated once at start so a
 // typo in a deployment fails loudly instead of running with a silent default.
 import { isIP } from 'node:net';
+import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
 // Decimal digits only: z.coerce.number() would read "" as 0 and "0x1F90" as
@@ -28,9 +29,29 @@ const ConfigSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // 32 MiB holds about two million numbers as JSON: real data sets, not toy ones.
   BODY_LIMIT_BYTES: positiveInt(32 * 1024 * 1024),
-  // rows × design columns × candidates: a bound on the least-squares work one
-  // request may ask for (about 2 s of CPU at this size on one core).
-  MAX_WORK_CELLS: positiveInt(60_000_000),
+  // Every request is priced from its shape before anything is allocated
+  // (src/core/pricing). Work in estimated multiply-adds: 1e10 is some 25 s of
+  // one core at the ~2.5 ns each the quiet build machine's fit figures imply
+  // (scripts/bench-pricing.ts prints the rate; ~25 ns under heavy shared load).
+  MAX_REQUEST_WORK: positiveInt(10_000_000_000),
+  // Estimated peak working memory of one request (designs, factorisations,
+  // the search's swept matrices); every worker may hold this much at once.
+  MAX_REQUEST_MEMORY_BYTES: positiveInt(512 * 1024 * 1024),
+  // A hard cap on one model's design columns, whatever the rows: a product of
+  // text factors multiplies their level counts.
+  MAX_DESIGN_COLUMNS: positiveInt(2000),
+  // The answer's JSON, which the audit record keeps beside the request (itself
+  // bounded by BODY_LIMIT_BYTES): 16 MiB is some 100,000 predictions.
+  MAX_RESULT_BYTES: positiveInt(16 * 1024 * 1024),
+  // The compute pool: worker threads (default one per core), requests that may
+  // wait for one (beyond those running), and the compute time one request may use.
+  COMPUTE_WORKERS: wholeNumber(1, 256).default(availableParallelism()),
+  COMPUTE_QUEUE_LENGTH: wholeNumber(0).default(8),
+  COMPUTE_DEADLINE_MS: positiveInt(60_000),
+  // Comparisons priced at or below this much work are computed on the main
+  // thread, where a worker round trip would cost more than the work (about
+  // 12 ms of one core: the demo's five models are half of it). 0: everything in the pool.
+  COMPUTE_INLINE_WORK: wholeNumber(0).default(5_000_000),
   // POST /v1/summaries streams rows and keeps only their summary, so its body
   // may be far larger than any JSON request: 2 GiB holds ~10^7 rows of NDJSON.
   SUMMARY_BODY_LIMIT_BYTES: positiveInt(2 * 1024 * 1024 * 1024),
@@ -94,7 +115,14 @@ export type Config = Readonly<{
   auditRequests: 'full' | 'digest';
   logLevel: z.infer<typeof ConfigSchema>['LOG_LEVEL'];
   bodyLimitBytes: number;
-  maxWorkCells: number;
+  maxRequestWork: number;
+  maxRequestMemoryBytes: number;
+  maxDesignColumns: number;
+  maxResultBytes: number;
+  computeWorkers: number;
+  computeQueueLength: number;
+  computeDeadlineMs: number;
+  computeInlineWork: number;
   summaryBodyLimitBytes: number;
   corsOrigins: ReadonlyArray<string>;
   trustProxy: ReadonlyArray<string>;
@@ -109,7 +137,14 @@ export type Config = Readonly<{
 
 export class ConfigError extends Error {}
 
+/** Settings that no longer exist: set, they would be ignored, so the service refuses to start and says what replaced them. */
+const RETIRED: Record<string, string> = {
+  MAX_WORK_CELLS: 'MAX_WORK_CELLS (rows × design columns) was replaced by MAX_REQUEST_WORK (estimated multiply-adds, which grow with the square of the design columns) and MAX_REQUEST_MEMORY_BYTES; remove it and set those instead',
+};
+
 export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const retired = Object.keys(RETIRED).filter((name) => env[name] !== undefined);
+  if (retired.length > 0) throw new ConfigError(`invalid configuration: ${retired.map((name) => RETIRED[name]).join('; ')}`);
   const parsed = ConfigSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
@@ -125,7 +160,14 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     auditRequests: c.AUDIT_REQUESTS,
     logLevel: c.LOG_LEVEL,
     bodyLimitBytes: c.BODY_LIMIT_BYTES,
-    maxWorkCells: c.MAX_WORK_CELLS,
+    maxRequestWork: c.MAX_REQUEST_WORK,
+    maxRequestMemoryBytes: c.MAX_REQUEST_MEMORY_BYTES,
+    maxDesignColumns: c.MAX_DESIGN_COLUMNS,
+    maxResultBytes: c.MAX_RESULT_BYTES,
+    computeWorkers: c.COMPUTE_WORKERS,
+    computeQueueLength: c.COMPUTE_QUEUE_LENGTH,
+    computeDeadlineMs: c.COMPUTE_DEADLINE_MS,
+    computeInlineWork: c.COMPUTE_INLINE_WORK,
     summaryBodyLimitBytes: c.SUMMARY_BODY_LIMIT_BYTES,
     corsOrigins: Object.freeze(c.CORS_ORIGINS),
     trustProxy: Object.freeze(c.TRUST_PROXY),

@@ -1,10 +1,10 @@
-// config -> keys -> logger -> store (and its chain head) -> app -> listen. The only place that opens a socket.
+// config -> keys -> logger -> store (and its chain head) -> compute pool -> app -> listen. The only place that opens a socket.
 import pino from 'pino';
 import { loadConfig, ConfigError, type Config } from './config.ts';
 import { loggerOptions } from './logger.ts';
 import { openAuditStore } from './audit/open.ts';
 import { checkChainAtStart, describeFinding } from './audit/chain-at-start.ts';
-import { buildApp } from './http/app.ts';
+import { buildApp, computePoolFor } from './http/app.ts';
 import { KeyRing } from './http/security/key-ring.ts';
 import { KeysFileError, loadKeysFile } from './http/security/keys-file.ts';
 import { isLoopbackHost } from './http/security/loopback.ts';
@@ -42,11 +42,15 @@ async function main(): Promise<void> {
     (err) => logger.warn({ err }, 'the audit chain head could not be written to its side file'));
   logger.info({ chainHead: chain.head, auditStore: store.backend }, `audit chain head at start: seq ${chain.head.seq}, hash ${chain.head.hash}`);
   if (chain.finding) logger.error({ chainFinding: chain.finding }, describeFinding(chain.finding, chain.witnessFile));
-  const app = await buildApp({ config, store, logger, keys, processMetrics: true, chainAtStart: chain });
-  closeGracefully({ app, store, logger, graceMs: config.shutdownGraceMs });
+  // Started with the service and kept: the first request finds its workers warm.
+  const compute = computePoolFor(config);
+  compute.start();
+  compute.on('start-failed', ({ slot, error }) => logger.error({ slot, err: error }, 'a compute worker failed to start; retrying'));
+  const app = await buildApp({ config, store, logger, keys, processMetrics: true, compute, chainAtStart: chain });
+  closeGracefully({ app, store, compute, logger, graceMs: config.shutdownGraceMs });
 
   const address = await app.listen({ port: config.port, host: config.host });
-  logger.info({ auditStore: store.backend, apiKeys: keys.size, address },
+  logger.info({ auditStore: store.backend, apiKeys: keys.size, computeWorkers: compute.size, address },
     `parsimetry listening on ${address} (docs at /docs)${keys.open ? '; open: no API keys configured' : ''}`);
 }
 

@@ -1,5 +1,6 @@
 // Configuration is read once and strictly: an empty or mistyped setting fails
 // at start with the variable named, instead of running with a silent value.
+import { availableParallelism } from 'node:os';
 import t from 'tap';
 import { loadConfig, ConfigError } from '../src/config.ts';
 
@@ -14,7 +15,29 @@ const refused = (env: Record<string, string>) => {
 
 t.test('defaults are those of the README configuration table', async (t) => {
   const c = loadConfig({});
-  t.match(c, { port: 8080, host: '127.0.0.1', auditDb: './data/audit.sqlite', auditRequests: 'full', logLevel: 'info', bodyLimitBytes: 33554432, maxWorkCells: 60000000, rateLimitPerMinute: 600, requestTimeoutMs: 60000, eventLoopMaxDelayMs: 1000, shutdownGraceMs: 20000, jsonMaxDepth: 64, authFailuresPerMinute: 30, summaryUploadsPerCaller: 2 });
+  t.match(c, { port: 8080, host: '127.0.0.1', auditDb: './data/audit.sqlite', auditRequests: 'full', logLevel: 'info', bodyLimitBytes: 33554432, rateLimitPerMinute: 600, requestTimeoutMs: 60000, eventLoopMaxDelayMs: 1000, shutdownGraceMs: 20000, jsonMaxDepth: 64, authFailuresPerMinute: 30, summaryUploadsPerCaller: 2 });
+  t.match(c, {
+    maxRequestWork: 10_000_000_000, maxRequestMemoryBytes: 536870912, maxDesignColumns: 2000, maxResultBytes: 16777216,
+    computeWorkers: availableParallelism(), computeQueueLength: 8, computeDeadlineMs: 60000, computeInlineWork: 5_000_000,
+  });
+});
+
+t.test('the compute and pricing settings are decimal whole numbers, named when wrong', async (t) => {
+  t.match(refused({ MAX_REQUEST_WORK: '1e10' }), /MAX_REQUEST_WORK/);
+  t.match(refused({ MAX_REQUEST_MEMORY_BYTES: '0x20000000' }), /MAX_REQUEST_MEMORY_BYTES/);
+  t.match(refused({ MAX_DESIGN_COLUMNS: '0' }), /MAX_DESIGN_COLUMNS/);
+  t.match(refused({ MAX_RESULT_BYTES: '' }), /MAX_RESULT_BYTES/);
+  t.match(refused({ COMPUTE_WORKERS: '0' }), /COMPUTE_WORKERS/);
+  t.match(refused({ COMPUTE_DEADLINE_MS: '-5' }), /COMPUTE_DEADLINE_MS/);
+  t.match(refused({ COMPUTE_QUEUE_LENGTH: '2.5' }), /COMPUTE_QUEUE_LENGTH/);
+  t.equal(refused({ COMPUTE_QUEUE_LENGTH: '0', COMPUTE_INLINE_WORK: '0', COMPUTE_WORKERS: '3' }), null, '0 queue and 0 inline work are meaningful');
+});
+
+t.test('MAX_WORK_CELLS, replaced by the cost model, is refused with what replaced it rather than ignored', async (t) => {
+  const message = refused({ MAX_WORK_CELLS: '60000000' });
+  t.match(message, /MAX_WORK_CELLS/);
+  t.match(message, /MAX_REQUEST_WORK/);
+  t.match(message, /MAX_REQUEST_MEMORY_BYTES/);
 });
 
 t.test('numbers are decimal digits: empty, hexadecimal and exponent forms are refused by name', async (t) => {

@@ -44,7 +44,14 @@ export interface IssueFacts {
   response_transform_domain: { fn: 'log' | 'sqrt' | 'boxcox'; row: number; value: number };
   data_required: { form: string };
   fingerprint_mismatch: { expected: string; actual: string | null };
-  work_limit: { cells: number; limit: number; setting: string };
+  /** The request's estimated work (multiply-adds) is over its cap; `largest` names the biggest part, `remedy` what to change. */
+  work_limit: { estimate: number; limit: number; setting: string; unit: string; largest: string; remedy: string };
+  /** The request's estimated working memory (bytes) is over its cap. */
+  memory_limit: { estimate: number; limit: number; setting: string; unit: string; largest: string; remedy: string };
+  /** The answer (and so the audit record) would be, or is, larger than its cap; measured: the size of the computed answer, not an estimate. */
+  result_size_limit: { estimate: number; limit: number; setting: string; unit: string; measured: boolean; largest: string; remedy: string };
+  /** One model's design would have more columns than the hard cap (counted from the terms, before any is built; `columns` is a lower bound when a level count stopped past the cap). */
+  design_columns_limit: { columns: number; limit: number; setting: string; what: string };
   summary_rows_invalid: { rows: number | null };
   summary_columns_invalid: { column: string };
   summary_size_mismatch: { length: number; expected: number };
@@ -111,6 +118,15 @@ export function issuePointer(path: IssuePath): string {
 }
 
 const DOMAIN_RULE = { log: 'greater than 0', sqrt: '0 or more', reciprocal: 'not 0' } as const;
+
+/** A large count as people read it: 31000000000 -> "3.1e10". */
+function roughly(value: number): string {
+  return value < 1e5 ? String(Math.round(value)) : value.toExponential(1).replace('e+', 'e');
+}
+
+function mebibytes(bytes: number): string {
+  return `${(bytes / 2 ** 20).toFixed(bytes < 2 ** 20 ? 3 : 1)} MiB`;
+}
 
 function quoteList(values: string[]): string {
   return values.map((v) => JSON.stringify(v)).join(', ');
@@ -184,7 +200,15 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
       : `${at} expects dataset ${f.expected}, but the rows this comparison uses fingerprint as ${f.actual}; the data differ from what the caller expected.`,
   nested_test_invalid: (f, at) => `${at} names a pair that cannot be tested: ${f.reason}`,
   work_limit: (f, at) =>
-    `${at} asks for ${f.cells} design cells (rows × design columns, summed over candidates), above the limit of ${f.limit} (${f.setting}); send fewer candidates or rows, or a data summary.`,
+    `The request would take about ${roughly(f.estimate)} ${f.unit} of computing (estimated from its shape before any of it runs), above the limit of ${roughly(f.limit)} (${f.setting}); the largest part is ${f.largest}, at ${at}. ${f.remedy}.`,
+  memory_limit: (f, at) =>
+    `The request would need about ${mebibytes(f.estimate)} of working memory (estimated before any is allocated), above the limit of ${mebibytes(f.limit)} (${f.setting}); the largest part is ${f.largest}, at ${at}. ${f.remedy}.`,
+  result_size_limit: (f, at) =>
+    f.measured
+      ? `The answer came to ${mebibytes(f.estimate)} of JSON, and its audit record would hold as much, above the limit of ${mebibytes(f.limit)} (${f.setting}); nothing was recorded. ${f.remedy}.`
+      : `The answer would be about ${mebibytes(f.estimate)} of JSON (estimated before computing), and its audit record would hold as much, above the limit of ${mebibytes(f.limit)} (${f.setting}); the largest part is ${f.largest}, at ${at}. ${f.remedy}.`,
+  design_columns_limit: (f, at) =>
+    `${f.what} is over the limit of ${f.limit} design columns per model (${f.setting}); its widest term is at ${at}. A factor takes one column per level but one, and a product of factors one per combination of their levels: merge rare levels, drop products of factors, or send a data summary of numeric columns (data.summary).`,
   summary_rows_invalid: (f, at) => `${at} is ${f.rows === null ? 'not a number' : f.rows}; a summary's rows must be a whole number of at least 1.`,
   summary_columns_invalid: (f, at) => `${at} lists ${JSON.stringify(f.column)} more than once or empty; a summary's columns must be distinct, non-empty names.`,
   summary_size_mismatch: (f, at) => `${at} has ${f.length} entries for ${f.expected} columns; means has one entry per column and centredCrossProducts one row and column per column.`,

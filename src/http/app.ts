@@ -28,6 +28,10 @@ import { auditRoutes } from './routes/audit.ts';
 import { replayRoutes } from './routes/replay.ts';
 import { searchRoutes } from './routes/searches.ts';
 import { summaryRoutes } from './streaming/summary-route.ts';
+import { ComputePool } from '../compute/index.ts';
+import { priceCaps } from './compute/caps.ts';
+import type { ComputeService } from './compute/run.ts';
+import { JOB_WORKER_MODULE } from './jobs/index.ts';
 
 export interface AppDependencies {
   config: Config;
@@ -39,13 +43,34 @@ export interface AppDependencies {
   processMetrics?: boolean;
   /** The team policy; when absent, read from config.policyFile (none: the built-in default). */
   policy?: ActivePolicy;
+  /**
+   * The process-wide compute pool (server.ts starts it with the service). When
+   * absent the app makes its own from config, starts its workers on first use
+   * and stops them when it closes.
+   */
+  compute?: ComputePool;
   /** The chain head at start and what it was compared with (server.ts); shown on /readyz and /metrics. */
   chainAtStart?: ChainAtStart;
 }
 
+/** A pool sized and bounded by the configuration, running the jobs of http/jobs. */
+export function computePoolFor(config: Config): ComputePool {
+  return new ComputePool({
+    size: config.computeWorkers,
+    queueLength: config.computeQueueLength,
+    deadlineMs: config.computeDeadlineMs,
+    workerModule: JOB_WORKER_MODULE,
+    // A backstop, not the bound: designs live in typed arrays outside this heap and are priced against
+    // MAX_REQUEST_MEMORY_BYTES; the heap holds the request's copy and the answer being built.
+    heapLimitMb: Math.max(256, Math.ceil(config.maxRequestMemoryBytes / 2 ** 20)),
+  });
+}
 
-export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy, chainAtStart }: AppDependencies): Promise<FastifyInstance> {
+
+export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy, compute: givenPool, chainAtStart }: AppDependencies): Promise<FastifyInstance> {
   const policy = givenPolicy ?? loadPolicyFile(config.policyFile);
+  const pool = givenPool ?? computePoolFor(config);
+  const compute: ComputeService = { pool, inlineWork: config.computeInlineWork, caps: priceCaps(config) };
   const app = Fastify({
     loggerInstance: (logger || undefined) as FastifyBaseLogger | undefined,
     bodyLimit: config.bodyLimitBytes,
@@ -87,15 +112,22 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   });
 
   await app.register(swaggerUi, { routePrefix: '/docs' });
+  app.metrics.watchPool(() => pool.stats());
+  const countReplaced = () => app.metrics.computeWorkersReplaced.inc();
+  pool.on('replaced', countReplaced);
+  app.addHook('onClose', async () => {
+    pool.off('replaced', countReplaced);
+    if (!givenPool) await pool.close();
+  });
 
   if (chainAtStart?.finding) app.metrics.recordChainFinding(chainAtStart.finding);
   await app.register(healthRoutes, { store, chainAtStart });
-  await app.register(comparisonRoutes, { store, config, policy });
+  await app.register(comparisonRoutes, { store, config, policy, compute });
   await app.register(recordRoutes, { store });
   await app.register(pictureRoutes, { store });
   await app.register(auditRoutes, { store });
-  await app.register(replayRoutes, { store, config, policy });
-  await app.register(searchRoutes, { store, config, policy });
+  await app.register(replayRoutes, { store, policy, compute });
+  await app.register(searchRoutes, { store, config, policy, compute });
   await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes, uploadsPerCaller: config.summaryUploadsPerCaller });
 
   app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());

@@ -3,7 +3,6 @@
 // inherited property where the caller has no column.
 import { compareModels, type ComparisonInput, type CandidateInput } from '../core/compare.ts';
 import { compareFromSummary } from '../core/comparison/from-summary.ts';
-import type { Config } from '../config.ts';
 import type { Columns } from '../core/types.ts';
 import type { ActivePolicy } from '../policy-file.ts';
 import type { ComparisonRequest } from './schemas/comparison-request.ts';
@@ -45,10 +44,10 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
   };
 }
 
-/** One comparison, from rows or from a summary: what POST and replay both run. */
-export function computeComparison(body: ComparisonRequest, policy: ActivePolicy, config: Pick<Config, 'maxWorkCells'>) {
+/** One comparison, from rows or from a summary: what POST and replay both run (priced beforehand, see http/pricing.ts). */
+export function computeComparison(body: ComparisonRequest, policy: ActivePolicy) {
   const input = toComparisonInput(body, policy);
   return body.data && 'summary' in body.data
     ? compareFromSummary({ ...input, summary: body.data.summary, response: body.response! })
-    : compareModels(input, { maxWorkCells: config.maxWorkCells });
+    : compareModels(input);
 }

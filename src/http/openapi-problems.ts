@@ -19,9 +19,22 @@ const REFUSALS: Record<string, string> = {
 /** What a 400 means for an operation that takes a JSON body (src/http/json-body.ts, validation.ts). */
 const JSON_BODY_400 =
   'The body is not JSON, nests arrays and objects deeper than JSON_MAX_DEPTH (the problem names the depth, the limit and the path), writes a key twice in one object (I-JSON, RFC 7493), holds a refused key or text (__proto__, a lone UTF-16 surrogate, NUL), or does not match the schema. errors[].path names the place.';
+/** What the operations that compute can refuse, beyond their schema (README: limits). */
+const COMPUTE_OPERATIONS: ReadonlyArray<[string, string]> = [['/v1/comparisons', 'post'], ['/v1/searches', 'post'], ['/v1/comparisons/{id}/replay', 'post']];
+const COMPUTE_REFUSALS: Record<string, string> = {
+  413: 'The body exceeds BODY_LIMIT_BYTES.',
+  422: 'Over a limit priced from the request\'s shape before any work — MAX_REQUEST_WORK, MAX_REQUEST_MEMORY_BYTES, MAX_DESIGN_COLUMNS, MAX_RESULT_BYTES (type urn:parsimetry:problem:work-limit, with the estimate, the limit and its setting) — or stopped at COMPUTE_DEADLINE_MS (urn:parsimetry:problem:compute-deadline) or out of a compute worker\'s heap (urn:parsimetry:problem:compute-memory); nothing is recorded. A new comparison or search is also refused with 422 when it is well-formed but cannot be computed (errors[] name each field).',
+  503: 'Every compute worker is busy and COMPUTE_QUEUE_LENGTH requests already wait (urn:parsimetry:problem:compute-busy), the service is shedding load or shutting down, or the audit store cannot take the record; Retry-After says when to come back.',
+};
 
 /** Problem media types, and the refusals of the access and limit layers on every keyed operation. */
 export function finishDocument<T>(document: T): T {
+  for (const [path, method] of COMPUTE_OPERATIONS) {
+    const responses = (document as Doc).paths?.[path]?.[method]?.responses ?? {};
+    for (const [status, description] of Object.entries(COMPUTE_REFUSALS)) {
+      if (responses[status]) responses[status].description = description;
+    }
+  }
   for (const operations of Object.values((document as Doc).paths ?? {})) {
     for (const operation of Object.values(operations)) {
       const bad = operation?.responses?.['400'];

@@ -61,5 +61,14 @@ export function issuesProblem(issues: ReadonlyArray<Issue>): Problem {
     errors.length === 1
       ? first.message
       : `${errors.length} problems prevent this comparison; the first: ${first.message}`;
+  // A request over one of the service's caps is not wrong, only too large: its own type, and the first cap named at the top.
+  if (issues.every((i) => LIMIT_CODES.has(i.code))) {
+    const { limit, setting, estimate } = issues[0] as Issue & { limit: number; setting: string; estimate?: number; columns?: number };
+    const estimated = estimate ?? (issues[0] as { columns?: number }).columns;
+    return problem(422, problemTypes.workLimit, 'The request is over a limit of this service', detail, { limit, setting, estimate: estimated, errors });
+  }
   return problem(422, problemTypes.cannotCompute, 'The request is well-formed but cannot be computed', detail, { errors });
 }
+
+/** Issues that say a request is over a cap (src/core/pricing), not that it is wrong. */
+const LIMIT_CODES: ReadonlySet<string> = new Set(['work_limit', 'memory_limit', 'result_size_limit', 'design_columns_limit']);

@@ -109,13 +109,15 @@ t.test('well-formed requests that cannot be computed are 422s with facts', async
   }
 });
 
-t.test('the work cap refuses a request with a 422 naming MAX_WORK_CELLS', async (t) => {
-  const { app } = await buildTestApp(t, { maxWorkCells: 10 });
+t.test('the work cap refuses a request with a 422 naming MAX_REQUEST_WORK', async (t) => {
+  const { app } = await buildTestApp(t, { maxRequestWork: 10 });
   const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: valid });
   const body = assertProblem(t, res, 422);
+  t.equal(body.type, 'urn:parsimetry:problem:work-limit');
   t.equal(body.errors[0].code, 'work_limit');
-  t.match(body.errors[0].message, /MAX_WORK_CELLS/);
+  t.match(body.errors[0].message, /MAX_REQUEST_WORK/);
   t.equal(body.errors[0].limit, 10);
+  t.equal(body.setting, 'MAX_REQUEST_WORK');
 });
 
 t.test('an unknown route is a 404 problem', async (t) => {

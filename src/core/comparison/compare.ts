@@ -35,11 +35,6 @@ export interface ComparisonInput {
   policyHash: string;
 }
 
-export interface ComparisonLimits {
-  /** Most rows × design columns, summed over candidates, one request may ask for. */
-  maxWorkCells: number;
-}
-
 export interface ComparisonOutcome {
   conventions: Conventions;
   policy: { name: string; hash: string };
@@ -91,7 +86,6 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
 
 export function compareModels(
   input: ComparisonInput,
-  limits: ComparisonLimits,
 ): { result: ComparisonOutcome; fitted: FittedModel[] } | { issues: Issue[] } {
   const issues: Issue[] = [];
   const scoring = scoringRows(input, issues);
@@ -102,7 +96,7 @@ export function compareModels(
     name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
   }))));
 
-  const fitted = input.columns ? fitAll(input, input.columns, ctx, limits, issues) : new Map<number, FittedModel>();
+  const fitted = input.columns ? fitAll(input, input.columns, ctx, issues) : new Map<number, FittedModel>();
   const models: ModelResult[] = [];
   input.candidates.forEach((c, i) => {
     if (c.form === 'fit') {

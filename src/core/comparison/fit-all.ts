@@ -1,23 +1,22 @@
-// The candidates fitted here: each design on the common rows, the work cap,
-// and each fit on the response's scale the candidate asks for.
+// The candidates fitted here: each design on the common rows, and each fit on
+// the response's scale the candidate asks for. What this may cost was settled
+// before any of it was built (src/core/pricing), so nothing here counts work.
 import { buildDesign } from '../design/index.ts';
 import { issue, type Issue } from '../issues.ts';
 import type { Columns, DesignMatrix } from '../types.ts';
 import { fitCandidate, type FittedModel } from './fitted-model.ts';
 import type { ScoringContext } from './external-model.ts';
 import { transformResponse, type TransformedResponse } from './response-transform.ts';
-import type { ComparisonInput, ComparisonLimits } from './compare.ts';
+import type { ComparisonInput } from './compare.ts';
 
 export function fitAll(
   input: ComparisonInput,
   columns: Columns,
   ctx: ScoringContext,
-  limits: ComparisonLimits,
   issues: Issue[],
 ): Map<number, FittedModel> {
   const rows = ctx.rows!;
   const designs = new Map<number, DesignMatrix>();
-  let work = 0;
   input.candidates.forEach((c, i) => {
     if (c.form !== 'fit') return;
     const built = buildDesign(columns, c.terms, c.intercept, rows, ['candidates', i]);
@@ -26,14 +25,10 @@ export function fitAll(
       return;
     }
     const p = built.design.labels.length;
-    work += rows.length * p;
     // More coefficients than rows: nothing can be estimated, let alone scored.
     if (p > rows.length) issues.push(issue('too_few_rows', ['candidates', i], { rows: rows.length, parameters: p }));
     designs.set(i, built.design);
   });
-  if (work > limits.maxWorkCells) {
-    issues.push(issue('work_limit', ['candidates'], { cells: work, limit: limits.maxWorkCells, setting: 'MAX_WORK_CELLS' }));
-  }
   const fitted = new Map<number, FittedModel>();
   if (issues.length > 0) return fitted;
 

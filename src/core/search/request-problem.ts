@@ -47,7 +47,7 @@ function intoRequest(found: Issue, poolSize: number): Issue {
   return issue(code, at, facts as unknown as IssueFacts[typeof code]);
 }
 
-function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyRules, maxWorkCells: number): PreparedSearch | { issues: Issue[] } {
+function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
   const terms = [...input.pool, ...input.always];
   const used = columnsUsedBy(terms);
   const { rows, dropped } = commonRows(columns, [input.response, ...(input.weights ? [input.weights] : []), ...used]);
@@ -62,9 +62,6 @@ function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyR
   if ('issues' in built) return { issues: built.issues.map((i) => intoRequest(i, input.pool.length)) };
   const varying = codingIssues(input, columns, rows, built.design);
   if (varying.length > 0) return { issues: varying };
-  // The design is summarised once and the best `top` subsets are refitted on the rows.
-  const cells = rows.length * built.design.labels.length * (input.top + 1);
-  if (cells > maxWorkCells) return { issues: [issue('work_limit', ['pool'], { cells, limit: maxWorkCells, setting: 'MAX_WORK_CELLS' })] };
   const weights = w && 'values' in w ? w : null;
   const values = (y as { values: Float64Array }).values;
   return {
@@ -157,7 +154,8 @@ function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: Hie
   };
 }
 
-export function prepareSearch(input: SearchRequestInput, limits: { maxWorkCells: number }): PreparedSearch | { issues: Issue[] } {
+/** What the search may cost was settled from the request's shape before this runs (src/core/pricing). */
+export function prepareSearch(input: SearchRequestInput): PreparedSearch | { issues: Issue[] } {
   const rules = input.hierarchy ? hierarchyRules(input.pool, input.always) : noHierarchy(input.pool.length);
   if (rules.alwaysUnmet.length > 0) {
     // Every subset holds the always terms, so a need of theirs outside always breaks the rule in some or every subset.
@@ -172,7 +170,7 @@ export function prepareSearch(input: SearchRequestInput, limits: { maxWorkCells:
     };
   }
   if (input.summary) return fromSummary(input, input.summary, rules);
-  if (input.columns) return fromRows(input, input.columns, rules, limits.maxWorkCells);
+  if (input.columns) return fromRows(input, input.columns, rules);
   return { issues: [issue('data_required', ['data'], { form: 'a search' })] };
 }
 

@@ -3,6 +3,7 @@
 // (base units: seconds; counters end in _total).
 import { Counter, Gauge, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
 import type { HeadFinding } from '../../audit/head-witness.ts';
+import type { PoolStats } from '../../compute/index.ts';
 
 export interface ServiceMetrics {
   readonly registry: Registry;
@@ -17,6 +18,11 @@ export interface ServiceMetrics {
   readonly chainRecordsMissing: Gauge;
   /** Counts a finding of the start's chain check (src/audit/chain-at-start.ts). */
   recordChainFinding(finding: HeadFinding): void;
+  /** Requests the compute pool turned away or stopped: busy, compute-deadline, compute-memory, client_gone. */
+  readonly computeRefusals: Counter<'reason'>;
+  readonly computeWorkersReplaced: Counter;
+  /** Reports the pool's state on every scrape. */
+  watchPool(stats: () => PoolStats): void;
 }
 
 export function createServiceMetrics(options: { processMetrics?: boolean } = {}): ServiceMetrics {
@@ -55,6 +61,19 @@ export function createServiceMetrics(options: { processMetrics?: boolean } = {})
     recordChainFinding(finding) {
       this.chainFindings.inc({ kind: finding.kind });
       this.chainRecordsMissing.set(finding.missing);
+    },
+    computeRefusals: new Counter({
+      name: 'parsimetry_compute_refusals_total', help: 'Requests the compute pool refused (queue full) or stopped (deadline, worker heap, client gone), by reason',
+      labelNames: ['reason'], registers,
+    }),
+    computeWorkersReplaced: new Counter({ name: 'parsimetry_compute_workers_replaced_total', help: 'Compute workers terminated (deadline, cancellation) or lost and started afresh', registers }),
+    watchPool(stats) {
+      const gauge = (name: string, help: string, read: (s: PoolStats) => number) =>
+        new Gauge({ name, help, registers, collect() { this.set(read(stats())); } });
+      gauge('parsimetry_compute_workers', 'Worker threads of the compute pool (COMPUTE_WORKERS)', (s) => s.workers);
+      gauge('parsimetry_compute_workers_busy', 'Compute workers running a piece of work now', (s) => s.busy);
+      gauge('parsimetry_compute_queue_pieces', 'Pieces of work waiting for a compute worker', (s) => s.waiting);
+      gauge('parsimetry_compute_requests', 'Requests admitted to the compute pool and not finished (at most COMPUTE_WORKERS + COMPUTE_QUEUE_LENGTH)', (s) => s.sessions);
     },
   };
 }

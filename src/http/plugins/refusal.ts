@@ -12,6 +12,9 @@ export const refusalTypes = {
   overloaded: 'urn:parsimetry:problem:overloaded',
   requestTimeout: 'urn:parsimetry:problem:request-timeout',
   shuttingDown: 'urn:parsimetry:problem:shutting-down',
+  computeBusy: 'urn:parsimetry:problem:compute-busy',
+  computeDeadline: 'urn:parsimetry:problem:compute-deadline',
+  computeMemory: 'urn:parsimetry:problem:compute-memory',
 } as const;
 
 export class Refusal extends Error {

@@ -2,7 +2,8 @@
 // (headers and body), so slow senders cannot hold sockets. Node's HTTP server
 // enforces it and reports through 'clientError'; the answer here is a problem
 // document naming the setting. The work a request asks for is bounded apart, by
-// MAX_WORK_CELLS, before any of it starts.
+// price (MAX_REQUEST_WORK and the other caps, src/core/pricing) before any of it
+// starts, and by COMPUTE_DEADLINE_MS while it runs.
 import type { Socket } from 'node:net';
 import { STATUS_CODES } from 'node:http';
 import type { FastifyServerOptions } from 'fastify';

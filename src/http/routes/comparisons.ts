@@ -1,5 +1,7 @@
-// POST /v1/comparisons: validated body -> core -> audit record -> reply.
-// The reply is sent only after the record is committed: no result without a record.
+// POST /v1/comparisons: validated body -> price -> core (inline or in the
+// compute pool) -> audit record -> reply. The reply is sent only after the
+// record is committed: no result without a record, and no record for a client
+// that went away before its answer.
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { requestDigest } from '../../audit/chain.ts';
@@ -9,12 +11,20 @@ import { ComparisonRequest } from '../schemas/comparison-request.ts';
 import { ComparisonResult } from '../schemas/comparison-response.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
-import { computeComparison } from '../comparison-input.ts';
 import { appendOr503, keptRequest } from '../audit-append.ts';
-import { representableResult } from '../representable.ts';
+import { watchClient } from '../compute/client-gone.ts';
+import { priceComparisonRequest } from '../compute/price-request.ts';
+import { CLIENT_GONE, computeComparisonJob, type ComputeService } from '../compute/run.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
-export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config; policy: ActivePolicy }> = async (app, { store, config, policy }) => {
+export interface ComparisonRouteOptions {
+  store: AuditStore;
+  config: Config;
+  policy: ActivePolicy;
+  compute: ComputeService;
+}
+
+export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = async (app, { store, config, policy, compute }) => {
   app.post('/v1/comparisons', {
     schema: {
       tags: ['comparisons'],
@@ -24,29 +34,37 @@ export const comparisonRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config
     },
   }, async (request, reply) => {
     const body = request.body;
-    const outcome = computeComparison(body, policy, config);
-    if ('issues' in outcome) {
-      return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
+    const priced = priceComparisonRequest(body, policy, compute.caps);
+    if ('issues' in priced) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(priced.issues));
+    const watch = watchClient(reply);
+    try {
+      const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes } as const;
+      const outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
+      if (outcome === CLIENT_GONE) {
+        request.log.info('comparison abandoned: the client went away before its answer; nothing recorded');
+        return reply;
+      }
+      if ('issues' in outcome) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
+      if ('problem' in outcome) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(outcome.problem);
+      const result = outcome.result;
+      const record = await appendOr503(store, reply, {
+        kind: 'comparison',
+        caller: request.caller,
+        label: body.label ?? null,
+        serviceVersion,
+        conventionsVersion: result.conventions.version,
+        policy: result.policy,
+        datasetFingerprint: result.dataset.fingerprint,
+        requestDigest: requestDigest(request.sentBody),
+        request: keptRequest(config, request.sentBody),
+        result: result as unknown as Record<string, unknown>,
+      });
+      if (!record) return reply;
+      app.metrics.comparisons.inc();
+      app.metrics.modelsFitted.inc(result.models.filter((m: { source?: string }) => m.source === 'fit').length);
+      return reply.code(200).send({ id: record.id, createdAt: record.createdAt, serviceVersion, ...result });
+    } finally {
+      watch.stop();
     }
-    const envelope = { id: '', createdAt: '', serviceVersion };
-    const checked = representableResult(ComparisonResult, outcome.result, envelope);
-    if ('problem' in checked) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(checked.problem);
-    const result = checked.result;
-    const record = await appendOr503(store, reply, {
-      kind: 'comparison',
-      caller: request.caller,
-      label: body.label ?? null,
-      serviceVersion,
-      conventionsVersion: result.conventions.version,
-      policy: result.policy,
-      datasetFingerprint: result.dataset.fingerprint,
-      requestDigest: requestDigest(request.sentBody),
-      request: keptRequest(config, request.sentBody),
-      result: result as unknown as Record<string, unknown>,
-    });
-    if (!record) return reply;
-    app.metrics.comparisons.inc();
-    app.metrics.modelsFitted.inc(result.models.filter((m: { source?: string }) => m.source === 'fit').length);
-    return reply.code(200).send({ id: record.id, createdAt: record.createdAt, serviceVersion, ...result });
   });
 };

@@ -9,11 +9,12 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { toJsonValue } from '../../audit/chain.ts';
-import type { Config } from '../../config.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 import { diffResults, type JsonValue, type ValueChange } from '../../core/result-diff.ts';
 import { serviceVersion } from '../../version.ts';
-import { computeComparison } from '../comparison-input.ts';
+import { watchClient } from '../compute/client-gone.ts';
+import { priceComparisonRequest } from '../compute/price-request.ts';
+import { CLIENT_GONE, computeComparisonJob, type ComputeService } from '../compute/run.ts';
 import { issuesProblem, problem, problemTypes, toPointer, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
@@ -51,7 +52,7 @@ function summarise(changes: ValueChange[], compared: number, stored: JsonValue, 
   return `${parts.join('; ')}.`;
 }
 
-export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Config; policy: ActivePolicy }> = async (app, { store, config, policy }) => {
+export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; policy: ActivePolicy; compute: ComputeService }> = async (app, { store, policy, compute }) => {
   app.post('/v1/comparisons/:id/replay', {
     schema: {
       tags: ['audit'],
@@ -60,10 +61,10 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Co
         'Send no body. The stored request is validated again under today\'s schema and computed again under the team policy in force today; every number, string, boolean and null of the result is compared with the stored one. `policy` says whether that policy is the one recorded (same hash).',
         'Models, ranking entries, coefficients and cautions are matched by name, term or code, so a model that moved in a ranking shows as a change of its rank, not of every entry.',
         'A replay appends no audit record and returns no new result id: it checks a record against today\'s code. To put today\'s answer on the record, POST the stored request to /v1/comparisons.',
-        '409 when the record kept only the request digest, or the stored request is no longer valid or computable today (the problem lists why).',
+        '409 when the record kept only the request digest, or the stored request is no longer valid or computable today (the problem lists why); 422 when it is over today\'s limits (priced like a new comparison) or runs past COMPUTE_DEADLINE_MS.',
       ].join('\n\n'),
       params: RecordParams,
-      response: { 200: ReplayReport, 400: ProblemSchema, 404: ProblemSchema, 409: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
+      response: { 200: ReplayReport, 400: ProblemSchema, 404: ProblemSchema, 409: ProblemSchema, 422: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
     },
   }, async (request, reply) => {
     const record = await getComparison(store, request.params.id, reply);
@@ -79,7 +80,21 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; config: Co
         `the stored request of ${record.id} does not pass today's request schema (${errors.length} problem${errors.length === 1 ? '' : 's'}; the first at ${errors[0].path || '(root)'}: ${errors[0].message})`,
         { errors }));
     }
-    const outcome = computeComparison(parsed.data, policy, config);
+    const priced = priceComparisonRequest(parsed.data, policy, compute.caps);
+    if ('issues' in priced) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(priced.issues));
+    const watch = watchClient(reply);
+    let outcome;
+    try {
+      const job = { kind: 'comparison', body: parsed.data, policy, resultCap: compute.caps.resultBytes } as const;
+      outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
+    } finally {
+      watch.stop();
+    }
+    if (outcome === CLIENT_GONE) return reply;
+    if ('problem' in outcome) {
+      return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Stored request no longer computes',
+        `today's code cannot represent the result of the stored request of ${record.id}: ${outcome.problem.detail}`, { errors: outcome.problem.errors }));
+    }
     if ('issues' in outcome) {
       const why = issuesProblem(outcome.issues);
       return reply.code(409).type(PROBLEM_CONTENT_TYPE).send(problem(409, conflict, 'Stored request no longer computes',

@@ -1,174 +1,171 @@
-// POST /v1/searches: every subset of a pool of terms scored on every core,
-// the best refitted exactly, recorded in the audit store (kind 'search'),
-// answered as JSON or, with Accept: text/event-stream, as progress events
-// ending with the result. No result leaves without its record.
-import { availableParallelism } from 'node:os';
+// POST /v1/searches: priced from its shape, then run entirely in the compute
+// pool — prepared, scored on every free worker, the best refitted exactly —
+// recorded in the audit store (kind 'search'), answered as JSON or, with
+// Accept: text/event-stream, as progress events ending with the result. No
+// result leaves without its record; a client that goes away stops the work
+// and leaves no record.
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
-import { requestDigest } from '../../audit/chain.ts';
-import type { Config } from '../../config.ts';
-import { keptRequest } from '../audit-append.ts';
-import { representableResult } from '../representable.ts';
-import type { Issue } from '../../core/issues.ts';
-import { DEFAULT_SEARCH_BUDGET, planSearch, type BudgetIssue, type SearchBudget } from '../../core/search/index.ts';
-import { prepareSearch, type SearchRequestInput } from '../../core/search/request-problem.ts';
-import { searchRankBy, searchReport } from '../../core/search/report.ts';
-import { runSearch } from '../../search/workers/index.ts';
-import type { ActivePolicy } from '../../policy-file.ts';
-import { serviceVersion } from '../../version.ts';
-import { ownColumns } from '../comparison-input.ts';
-import { issuesProblem, problem, problemTypes, PROBLEM_CONTENT_TYPE, type Problem } from '../problems.ts';
+// The schemas first: they register in import order, and that order is the OpenAPI document's.
 import { ProblemSchema } from '../schemas/problem.ts';
 import { SearchRequest } from '../schemas/search-request.ts';
 import { SearchResult } from '../schemas/search-response.ts';
+import { requestDigest } from '../../audit/chain.ts';
+import type { Config } from '../../config.ts';
+import type { ComputeSession } from '../../compute/index.ts';
+import type { Issue } from '../../core/issues.ts';
+import { DEFAULT_SEARCH_BUDGET, type SearchBudget } from '../../core/search/index.ts';
+import { runSearch, type SearchProgress } from '../../search/workers/index.ts';
+import type { ActivePolicy } from '../../policy-file.ts';
+import { serviceVersion } from '../../version.ts';
+import { keptRequest } from '../audit-append.ts';
+import { watchClient } from '../compute/client-gone.ts';
+import { priceSearchRequest } from '../compute/price-request.ts';
+import { CLIENT_GONE, inSession, type ComputeService } from '../compute/run.ts';
+import type { JobResults } from '../jobs/index.ts';
+import { budgetIssue, type SearchAnswer } from '../jobs/search-jobs.ts';
+import { forWorker } from '../jobs/transport.ts';
+import { Refusal } from '../plugins/refusal.ts';
+import { issuesProblem, problem, problemTypes, PROBLEM_CONTENT_TYPE, type Problem } from '../problems.ts';
 import { EventStream, wantsEventStream } from '../sse.ts';
 
 export interface SearchRouteOptions {
   store: AuditStore;
   config: Config;
   policy: ActivePolicy;
-  /** Worker threads per search; default every core (os.availableParallelism()). */
-  threads?: number;
-  budget?: SearchBudget;
+  compute: ComputeService;
 }
 
 /** Progress events at most this often. */
 const PROGRESS_INTERVAL_MS = 250;
 
-function toSearchInput(body: SearchRequest): SearchRequestInput {
-  return {
-    columns: 'columns' in body.data ? ownColumns(body.data.columns) : null,
-    summary: 'summary' in body.data ? body.data.summary : null,
-    response: body.response,
-    weights: body.weights ?? null,
-    pool: body.pool,
-    always: body.always,
-    hierarchy: body.hierarchy,
-    intercept: body.intercept,
-    top: body.top,
-  };
-}
-
-/** The budget's own sentence (it names the budget and the figures), with its facts flattened as every issue's are. */
-const budgetIssue = (b: BudgetIssue): Issue => ({ code: b.code, path: b.path, message: b.message, ...b.facts });
-
 const storeProblem = (): Problem =>
   problem(503, problemTypes.storeUnavailable, 'Audit store unavailable', 'the search was computed but could not be recorded, so no result is returned; retry later');
 
-export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (app, options) => {
-  const { store, config, policy } = options;
-  const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
-  const threads = options.threads ?? availableParallelism();
+type Computed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Problem };
 
+type Prepared = Extract<JobResults['searchPrepare'], { prepared: unknown }>['prepared'];
+
+/** Score and report a prepared search, every piece on the pool's workers. */
+async function scoreAndReport(session: ComputeSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<Computed> {
+  const { problem: subsets, choice } = prepared;
+  const started = performance.now();
+  // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
+  const run = await runSearch(subsets, { criterion: choice.rankBy, top: body.top, rankDeficient: 'skip' }, {
+    run: (task) => session.runOn({ kind: 'searchTask', task }),
+    parallelism: compute.pool.size,
+    budget,
+    exhaustive: body.exhaustive,
+    onProgress,
+  });
+  if (!run.ok) {
+    // A node budget narrowed by the price comes from the work cap: name its setting too.
+    const narrowed = run.issue.facts.budget === 'maxNodes' && budget.maxNodes < DEFAULT_SEARCH_BUDGET.maxNodes;
+    return { issues: [narrowed ? { ...budgetIssue(run.issue), setting: 'MAX_REQUEST_WORK' } as Issue : budgetIssue(run.issue)] };
+  }
+  const elapsedMs = performance.now() - started;
+  const report = await session.run<JobResults['searchReport']>(forWorker({
+    kind: 'searchReport', body, policy, prepared, outcome: run.outcome,
+    run: { threads: run.threads, elapsedMs, budget: run.budget, estimatedFlops: run.estimatedFlops },
+    resultCap: compute.caps.resultBytes,
+  }));
+  return 'result' in report ? { answer: report.result } : report;
+}
+
+export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (app, { store, config, policy, compute }) => {
   app.post('/v1/searches', {
     schema: {
       tags: ['searches'],
       summary: 'Score every subset of a pool of terms, refit the best and record the search',
       description:
-        'With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start are answered with their status as usual.',
+        'With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start (priced over a limit, the compute queue full) are answered with their status as usual.',
       body: SearchRequest,
       response: { 200: SearchResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
     },
   }, async (request, reply) => {
     const body = request.body;
-    const refuse = (issues: Issue[]) => reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(issues));
-    const prepared = prepareSearch(toSearchInput(body), { maxWorkCells: config.maxWorkCells });
-    if ('issues' in prepared) return refuse(prepared.issues);
-    const { problem: subsets } = prepared;
-    const plan = planSearch(subsets, { exhaustive: body.exhaustive }, budget);
-    if (!plan.ok) return refuse([budgetIssue(plan.issue)]);
-    const largestK = subsets.dimension - 1 + (subsets.intercept ? 1 : 0) + 1;
-    const choice = searchRankBy(body.rankBy, policy.policy, subsets.observations / largestK);
-
-    const abort = new AbortController();
-    const stream = wantsEventStream(request.headers.accept) ? new EventStream(reply, () => abort.abort()) : null;
-    let lastProgress = 0;
-    stream?.send('progress', { covered: 0, total: plan.subsets, nodes: 0, bound: null });
-    const started = performance.now();
-    let run;
+    const priced = priceSearchRequest(body, compute.caps, compute.pool.size);
+    if ('issues' in priced) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(priced.issues));
+    const watch = watchClient(reply);
+    // Set once the search is admitted (inside the session), so held in an object the closures share.
+    const answering: { stream: EventStream | null } = { stream: null };
+    const fail = (status: 422 | 503, failure: Problem, headers: Record<string, string> = {}): FastifyReply => {
+      if (answering.stream) answering.stream.end('problem', failure);
+      else reply.code(status).headers(headers).type(PROBLEM_CONTENT_TYPE).send(failure);
+      return reply;
+    };
     try {
-      // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
-      run = await runSearch(subsets, { criterion: choice.rankBy, top: body.top, rankDeficient: 'skip' }, {
-        threads, budget, exhaustive: body.exhaustive, signal: abort.signal,
-        onProgress: (p) => {
+      const computed = await inSession(compute.pool, reply, watch, async (session): Promise<Computed> => {
+        const prepared = await session.run<JobResults['searchPrepare']>(forWorker({ kind: 'searchPrepare', body, policy, budget: priced.budget }));
+        if ('issues' in prepared) return prepared;
+        // Admitted and prepared: only now does the answer become a stream, so a full queue is still a plain 503
+        // and a request that cannot start a plain 422.
+        const stream = wantsEventStream(request.headers.accept) ? new EventStream(reply, () => session.cancel()) : null;
+        answering.stream = stream;
+        let lastProgress = 0;
+        stream?.send('progress', { covered: 0, total: 2 ** body.pool.length, nodes: 0, bound: null });
+        return scoreAndReport(session, prepared.prepared, body, policy, priced.budget, compute, (p) => {
           const now = performance.now();
           if (stream && now - lastProgress >= PROGRESS_INTERVAL_MS) {
             lastProgress = now;
             stream.send('progress', { covered: p.covered, total: p.total, nodes: p.nodes, bound: p.bound });
           }
-        },
+        });
       });
-    } catch (error) {
-      if (abort.signal.aborted) {
-        request.log.info('search abandoned: the client went away');
+      if (computed === CLIENT_GONE || watch.gone) {
+        request.log.info('search abandoned: the client went away before its answer; nothing recorded');
         return reply;
       }
+      if ('issues' in computed) return fail(422, issuesProblem(computed.issues));
+      if ('problem' in computed) return fail(422, computed.problem);
+      return await recordAndAnswer(computed.answer, { store, config, body, reply, stream: answering.stream, fail });
+    } catch (error) {
+      const stream = answering.stream;
       if (!stream) throw error;
       // The reply is already a stream: end it with a problem event rather than leave it open.
-      request.log.error({ err: error }, 'search failed');
-      stream.end('problem', problem(500, problemTypes.internal, 'Internal error', `the search failed on the service's own account; quote request id ${request.id} when reporting it`));
+      if (!(error instanceof Refusal)) request.log.error({ err: error }, 'search failed');
+      stream.end('problem', error instanceof Refusal
+        ? error.body
+        : problem(500, problemTypes.internal, 'Internal error', `the search failed on the service's own account; quote request id ${request.id} when reporting it`));
       return reply;
+    } finally {
+      watch.stop();
     }
-    const elapsedMs = performance.now() - started;
-    const fail = (status: 422 | 503, body: Problem): FastifyReply => {
-      if (stream) {
-        stream.end('problem', body);
-        return reply;
-      }
-      return reply.code(status).type(PROBLEM_CONTENT_TYPE).send(body);
-    };
-    if (!run.ok) return fail(422, issuesProblem([budgetIssue(run.issue)]));
-    const { outcome } = run;
-    const { exactFits, ...report } = searchReport(prepared, outcome, choice, policy);
-    const answer = {
-      ...report,
-      method: outcome.method,
-      evaluated: outcome.evaluated,
-      subsets: outcome.subsets,
-      weightsCoverAllSubsets: outcome.weightsCoverAllSubsets,
-      proven: outcome.proven,
-      passedOver: {
-        notHierarchical: outcome.notHierarchical,
-        unscorable: outcome.unscorable,
-        pruned: outcome.pruned,
-        rankDeficient: outcome.rankDeficient,
-        sameColumnSpace: outcome.sameColumnSpace,
-        exactFit: exactFits,
-      },
-      rankDeficient: outcome.rankDeficient,
-      budget: { ...run.budget, estimatedFlops: run.estimatedFlops, nodes: outcome.nodes, elapsedMs },
-      threads: run.threads,
-    };
-    const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion });
-    if ('problem' in checked) return fail(422, checked.problem);
+  });
+
+  async function recordAndAnswer(answer: SearchAnswer, ctx: {
+    store: AuditStore; config: Config; body: SearchRequest; reply: FastifyReply; stream: EventStream | null;
+    fail: (status: 422 | 503, failure: Problem, headers?: Record<string, string>) => FastifyReply;
+  }): Promise<FastifyReply> {
+    const { reply, stream } = ctx;
+    const request = reply.request;
     let record;
     try {
-      record = await store.append({
+      record = await ctx.store.append({
         kind: 'search',
         caller: request.caller,
-        label: body.label ?? null,
+        label: ctx.body.label ?? null,
         serviceVersion,
-        conventionsVersion: report.conventions.version,
-        policy: report.policy,
-        datasetFingerprint: report.dataset.fingerprint,
+        conventionsVersion: answer.conventions.version,
+        policy: answer.policy,
+        datasetFingerprint: answer.dataset.fingerprint,
         requestDigest: requestDigest(request.sentBody),
-        request: keptRequest(config, request.sentBody),
-        result: checked.result as unknown as Record<string, unknown>,
+        request: keptRequest(ctx.config, request.sentBody),
+        result: answer as unknown as Record<string, unknown>,
       });
     } catch (error) {
       app.metrics?.auditAppendFailures.inc();
       request.log.error({ err: error }, 'audit store refused a search record');
-      if (!stream) reply.header('retry-after', '5');
-      return fail(503, storeProblem());
+      return ctx.fail(503, storeProblem(), { 'retry-after': '5' });
     }
     app.metrics?.searches.inc();
-    app.metrics?.modelsFitted.inc(report.models.length);
-    const result = { id: record.id, createdAt: record.createdAt, serviceVersion, ...checked.result };
+    app.metrics?.modelsFitted.inc(answer.models.length);
+    const result = { id: record.id, createdAt: record.createdAt, serviceVersion, ...answer };
     if (stream) {
       stream.end('result', result);
       return reply;
     }
     return reply.code(200).send(result);
-  });
+  }
 };

@@ -1,1 +1,2 @@
-export { runSearch, type RunSearchOptions, type RunSearchResult, type SearchProgress } from './search-pool.ts';
+export { runInThread } from './run-task.ts';
+export { runSearch, type RunSearchOptions, type RunSearchResult, type SearchProgress, type TaskRunner } from './search-pool.ts';

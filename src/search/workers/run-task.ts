@@ -4,6 +4,7 @@
 
 import { branchAndBound, scoreSubsetRange, type SearchPartial } from '../../core/search/index.ts';
 import type { SearchTask } from './messages.ts';
+import type { TaskRunner } from './search-pool.ts';
 
 export function runTask(task: SearchTask): SearchPartial {
   if (task.kind === 'exhaustive') return scoreSubsetRange(task.problem, task.settings, task.from, task.to);
@@ -18,3 +19,6 @@ export function runTask(task: SearchTask): SearchPartial {
   Atomics.add(counter, 0, partial.nodes - reported);
   return partial;
 }
+
+/** Runs every task on the calling thread, one after another: tests, benchmarks and tools without a pool. */
+export const runInThread: TaskRunner = async (task) => ({ value: runTask(task), worker: 0 });

@@ -1,15 +1,15 @@
 // The search across every core: the pure kernel's work split into tasks
 // (contiguous counting-order ranges, or subtrees of branch and bound under
-// fixed first decisions from planBranchAndBound), run on worker threads,
-// joined by finishSearch in task order. Exhaustive results are bit-identical
-// to one thread's apart from the order of the final weight sums (agreement to
-// ~1e-15 relative). Branch-and-bound tasks are pure functions of the plan, so
-// their results are the same on any number of threads; only when the shared
-// node budget runs out does which work was done depend on timing (the result
-// then says it is not proven).
+// fixed first decisions from planBranchAndBound), run by the caller's runner —
+// the workers of the process-wide compute pool (src/compute) — and joined by
+// finishSearch in task order. Ranges start at multiples of the kernel's refresh
+// interval, so exhaustive results are bit-identical to one thread's apart from
+// the order of the final weight sums (agreement to ~1e-15 relative).
+// Branch-and-bound tasks are pure functions of the plan, so their results are
+// the same on any number of workers; only when the shared node budget runs out
+// does which work was done depend on timing (the result then says it is not
+// proven).
 
-import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
 import {
   DEFAULT_SEARCH_BUDGET,
   finishSearch,
@@ -24,8 +24,7 @@ import {
   type SearchSettings,
   type SubsetProblem,
 } from '../../core/search/index.ts';
-import type { SearchReply, SearchTask } from './messages.ts';
-import { runTask } from './run-task.ts';
+import type { SearchTask } from './messages.ts';
 
 export interface SearchProgress {
   /** Subsets accounted for (scored, passed over or pruned) of `total`. */
@@ -43,38 +42,41 @@ export interface SearchProgress {
   bound: number | null;
 }
 
+/** Runs one task where the caller's work runs (a worker of the compute pool), and says which worker took it. */
+export type TaskRunner = (task: SearchTask) => Promise<{ value: SearchPartial; worker: number }>;
+
 export interface RunSearchOptions {
-  /** Worker threads; default os.availableParallelism(). 1 runs on the calling thread. */
-  threads?: number;
+  run: TaskRunner;
+  /** Workers that may run tasks at once: the work is cut into TASKS_PER_THREAD pieces for each. */
+  parallelism: number;
   budget?: SearchBudget;
   /** Refuse rather than fall back to branch and bound when every subset is beyond the budget. */
   exhaustive?: boolean;
   onProgress?: (p: SearchProgress) => void;
-  signal?: AbortSignal;
 }
 
 export type RunSearchResult =
+  /** threads: the distinct workers the tasks ran on. */
   | { ok: true; outcome: SearchOutcome; threads: number; budget: SearchBudget; estimatedFlops: number | null }
   | { ok: false; issue: BudgetIssue; budget: SearchBudget };
 
-/** Below this many subsets the search runs on the calling thread: starting workers would cost more. */
-const IN_THREAD_SUBSETS = 2 ** 14;
-/** Exhaustive ranges per thread, so threads finishing early take more. */
+/** Below this many subsets the search is one task: splitting it would cost more than it saves. */
+const ONE_TASK_SUBSETS = 2 ** 14;
+/** Exhaustive ranges per worker, so workers finishing early take more. */
 const TASKS_PER_THREAD = 8;
 
-export async function runSearch(problem: SubsetProblem, settings: SearchSettings, options: RunSearchOptions = {}): Promise<RunSearchResult> {
+export async function runSearch(problem: SubsetProblem, settings: SearchSettings, options: RunSearchOptions): Promise<RunSearchResult> {
   const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
   const plan = planSearch(problem, { exhaustive: options.exhaustive }, budget);
   if (!plan.ok) return { ok: false, issue: plan.issue, budget };
   const m = problem.poolBlocks.length;
   const total = 2 ** m;
-  const wanted = Math.max(1, Math.floor(options.threads ?? availableParallelism()));
-  const threads = total <= IN_THREAD_SUBSETS ? 1 : wanted;
+  const threads = total <= ONE_TASK_SUBSETS ? 1 : Math.max(1, Math.floor(options.parallelism));
   const branch = plan.method === 'branchAndBound' ? branchTasks(problem, settings, budget) : null;
   const tasks = branch ? branch.tasks : exhaustiveTasks(problem, settings, threads);
-  const partials = await runTasks(tasks, threads, total, options, branch ? [branch.start] : [], branch?.nodeCounter);
+  const { partials, workers } = await runTasks(tasks, total, options, branch ? [branch.start] : [], branch?.nodeCounter);
   const outcome = finishSearch(plan.method, settings, m, branch ? [branch.start, ...partials] : partials);
-  return { ok: true, outcome, threads, budget, estimatedFlops: plan.estimatedFlops };
+  return { ok: true, outcome, threads: workers, budget, estimatedFlops: plan.estimatedFlops };
 }
 
 function exhaustiveTasks(problem: SubsetProblem, settings: SearchSettings, threads: number): SearchTask[] {
@@ -88,7 +90,7 @@ function exhaustiveTasks(problem: SubsetProblem, settings: SearchSettings, threa
   return tasks;
 }
 
-/** The plan's subtrees as tasks (the same on any number of threads), and the start's partial, counted once. */
+/** The plan's subtrees as tasks (the same on any number of workers), and the start's partial, counted once. */
 function branchTasks(problem: SubsetProblem, settings: SearchSettings, budget: SearchBudget) {
   const plan = planBranchAndBound(problem, settings);
   const nodeCounter = new SharedArrayBuffer(4);
@@ -102,32 +104,27 @@ function covers(task: SearchTask): number {
   return 2 ** (task.problem.poolBlocks.length - task.prefix.decided.length);
 }
 
-function startWorker(): Worker {
-  // Run from sources (tsx, tap) the worker module is the .ts beside this one; built, the .js.
-  const ext = import.meta.url.endsWith('.ts') ? '.ts' : '.js';
-  const entry = new URL(`./search-worker${ext}`, import.meta.url).href;
-  return new Worker(new URL('./worker-entry.mjs', import.meta.url), { workerData: { entry } });
-}
-
 async function runTasks(
   tasks: SearchTask[],
-  threads: number,
   total: number,
   options: RunSearchOptions,
   known: SearchPartial[],
   nodeCounter?: SharedArrayBuffer,
-): Promise<SearchPartial[]> {
+): Promise<{ partials: SearchPartial[]; workers: number }> {
   const results: SearchPartial[] = new Array(tasks.length);
+  const workers = new Set<number>();
   const tops = known.map((p) => p.top);
   const nodes = nodeCounter ? new Int32Array(nodeCounter) : null;
   let covered = 0;
   let done = 0;
-  const report = (task: SearchTask, p: SearchPartial) => {
-    results[task.id] = p;
+  await Promise.all(tasks.map(async (task) => {
+    const { value, worker } = await options.run(task);
+    results[task.id] = value;
+    workers.add(worker);
     covered += covers(task);
     done++;
     if (!options.onProgress) return;
-    tops.push(p.top);
+    tops.push(value.top);
     options.onProgress({
       covered,
       total,
@@ -136,43 +133,6 @@ async function runTasks(
       nodes: nodes ? Atomics.load(nodes, 0) : 0,
       bound: task.kind === 'branchAndBound' ? keptThreshold(tops, task.settings.top) : null,
     });
-  };
-  if (threads === 1) {
-    for (const task of tasks) {
-      if (options.signal?.aborted) throw new Error('search aborted');
-      report(task, runTask(task));
-    }
-    return results;
-  }
-  const queue = [...tasks];
-  const workers = Array.from({ length: Math.min(threads, tasks.length) }, startWorker);
-  try {
-    await new Promise<void>((resolve, reject) => {
-      let running = 0;
-      const abort = () => reject(new Error('search aborted'));
-      options.signal?.addEventListener('abort', abort, { once: true });
-      const feed = (w: Worker) => {
-        const task = queue.shift();
-        if (!task) {
-          if (running === 0) resolve();
-          return;
-        }
-        running++;
-        w.postMessage(task);
-      };
-      for (const w of workers) {
-        w.on('message', (reply: SearchReply) => {
-          running--;
-          if (!reply.ok) return reject(new Error(reply.error));
-          report(tasks[reply.id], reply.partial);
-          feed(w);
-        });
-        w.on('error', reject);
-        feed(w);
-      }
-    });
-  } finally {
-    await Promise.all(workers.map((w) => w.terminate()));
-  }
-  return results;
+  }));
+  return { partials: results, workers: workers.size };
 }

@@ -9,7 +9,6 @@ import lognormalLogpdf from '@stdlib/stats-base-dists-lognormal-logpdf';
 import { compareModels, type CandidateInput, type ComparisonInput } from '../../../src/core/compare.ts';
 import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
 
-const LIMITS = { maxWorkCells: 1e9 };
 
 // A small data set for identities (not a reference number): a straight line
 // with fixed, hand-written departures.
@@ -25,7 +24,7 @@ function input(candidates: CandidateInput[], extra: Partial<ComparisonInput> = {
 }
 
 function run(i: ComparisonInput) {
-  const r = compareModels(i, LIMITS);
+  const r = compareModels(i);
   if ('issues' in r) throw new Error(JSON.stringify(r.issues));
   return r.result;
 }
@@ -83,7 +82,7 @@ t.test('residuals line up with rows: one per used row, or one per data row with 
   t.ok(rel(a.models[1].logLikelihood!, a.models[0].logLikelihood!) < 1e-12, 'and that of the same model fitted here');
 
   const refuse = (residuals: (number | null)[]) => {
-    const out = compareModels(input([{ form: 'fit', name: 'here', terms: ['x'], intercept: true }, { form: 'residuals', name: 'r', residuals, parameters: 3 }], base), LIMITS);
+    const out = compareModels(input([{ form: 'fit', name: 'here', terms: ['x'], intercept: true }, { form: 'residuals', name: 'r', residuals, parameters: 3 }], base));
     return 'issues' in out ? out.issues[0] : null;
   };
   const wrongCount = refuse(e.slice(1));
@@ -100,7 +99,7 @@ t.test('an observation count that differs from the rows used is refused, naming 
   const out = compareModels(input([
     { form: 'fit', name: 'here', terms: ['x'], intercept: true },
     { form: 'rss', name: 'elsewhere', rss: 1.2, parameters: 3, observations: 13 },
-  ]), LIMITS);
+  ]));
   t.ok('issues' in out);
   if ('issues' in out) {
     t.equal(out.issues[0].code, 'observations_mismatch');
@@ -128,7 +127,7 @@ t.test('likelihood candidates alone need no data; their counts must agree', asyn
       { form: 'logLikelihood', name: 'a', logLikelihood: -120.5, parameters: 4, observations: 80, estimation: 'ml' },
       { form: 'logLikelihood', name: 'b', logLikelihood: -118.2, parameters: 6, observations: 79, estimation: 'ml' },
     ],
-  }, LIMITS);
+  });
   t.ok('issues' in bad && bad.issues[0].code === 'observations_mismatch' && /79 observations.*"a" states 80/.test(bad.issues[0].message));
 });
 
@@ -136,7 +135,7 @@ t.test('REML likelihoods: never mixed with ML, and only with the same fixed effe
   const reml = (name: string, fixedEffects?: string[]): CandidateInput => ({ form: 'logLikelihood', name, logLikelihood: -50, parameters: 5, observations: 40, estimation: 'reml', fixedEffects });
   const ml: CandidateInput = { form: 'logLikelihood', name: 'ml', logLikelihood: -49, parameters: 5, observations: 40, estimation: 'ml' };
   const noData = { columns: null, response: null, weights: null, policy: DEFAULT_POLICY, policyHash: 'x' };
-  const code = (candidates: CandidateInput[]) => { const r = compareModels({ ...noData, candidates }, LIMITS); return 'issues' in r ? r.issues.map((i) => i.code) : []; };
+  const code = (candidates: CandidateInput[]) => { const r = compareModels({ ...noData, candidates }); return 'issues' in r ? r.issues.map((i) => i.code) : []; };
   t.same(code([reml('r1', ['temp']), ml]), ['estimation_mixed']);
   t.same(code([reml('r1', ['temp', 'kiln']), reml('r2', ['kiln'])]), ['reml_fixed_effects_differ']);
   t.same(code([reml('r1'), reml('r2', ['kiln'])]), ['reml_fixed_effects_missing']);
@@ -187,7 +186,7 @@ t.test('sqrt and Box–Cox Jacobians: sqrt −Σ ln(2√y), Box–Cox (λ−1) �
 });
 
 t.test('a transform outside its domain names the first offending row', async (t) => {
-  const out = compareModels({ ...input([{ form: 'fit', name: 'log', terms: ['x'], intercept: true, response: { fn: 'log' } }]), columns: { y: y.map((v, i) => (i === 3 ? -1 : v)), x } }, LIMITS);
+  const out = compareModels({ ...input([{ form: 'fit', name: 'log', terms: ['x'], intercept: true, response: { fn: 'log' } }]), columns: { y: y.map((v, i) => (i === 3 ? -1 : v)), x } });
   t.ok('issues' in out && out.issues[0].code === 'response_transform_domain');
   if ('issues' in out) t.same(out.issues[0].path, ['candidates', 0, 'response']);
 });

@@ -7,7 +7,6 @@ import { compareModels, type ComparisonInput } from '../../../src/core/compare.t
 import type { ComparisonOutcome } from '../../../src/core/compare.ts';
 import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
 
-const LIMITS = { maxWorkCells: 1e9 };
 
 /**
  * A small random data set with a numeric response, two numeric columns and a
@@ -47,7 +46,7 @@ function inputOf(d: { x1: number[]; x2: number[]; g: string[]; noise: number[] }
 }
 
 function outcome(input: ComparisonInput): ComparisonOutcome {
-  const r = compareModels(input, LIMITS);
+  const r = compareModels(input);
   if ('issues' in r) throw new Error(JSON.stringify(r.issues));
   return r.result;
 }

@@ -34,7 +34,7 @@ type Searched = { issues: Issue[] } | { outcome: SearchOutcome; report: SearchRe
 
 function search(columns: Columns, pool: Term[], extra: Partial<SearchRequestInput> = {}): Searched {
   const input: SearchRequestInput = { columns, summary: null, response: 'y', weights: null, pool, always: [], hierarchy: false, intercept: true, top: 64, ...extra };
-  const prepared = prepareSearch(input, { maxWorkCells: 1e9 });
+  const prepared = prepareSearch(input);
   if ('issues' in prepared) return { issues: prepared.issues };
   const outcome = searchSubsets(prepared.problem, { criterion: 'aicc', top: input.top, rankDeficient: 'skip' }, 'exhaustive');
   const report = searchReport(prepared, outcome, searchRankBy('aicc', DEFAULT_POLICY, null), { policy: DEFAULT_POLICY, hash: 'h' });
@@ -44,7 +44,7 @@ function search(columns: Columns, pool: Term[], extra: Partial<SearchRequestInpu
 /** A comparison of the given subsets (lists of terms): AICc, k and Akaike weights over exactly these. */
 function comparison(columns: Columns, subsets: Term[][]) {
   const candidates = subsets.map((terms, i) => ({ form: 'fit' as const, name: `s${i}`, terms, intercept: true }));
-  const out = compareModels({ columns, response: 'y', weights: null, candidates, policy: DEFAULT_POLICY, policyHash: 'h' }, { maxWorkCells: 1e9 });
+  const out = compareModels({ columns, response: 'y', weights: null, candidates, policy: DEFAULT_POLICY, policyHash: 'h' });
   if ('issues' in out) throw new Error(JSON.stringify(out.issues));
   const models = out.result.models;
   const weights = akaikeWeights(models.map((m) => m.aicc as number));
@@ -106,7 +106,7 @@ t.test('subsets spanning the same column space count once', (t) => {
   const refImp = ['peakTemp', 'moisture', 'total'].map((term) => reference.filter((m) => m.terms.includes(term)).reduce((s, m) => s + m.weight, 0));
   t.ok(imp.every((w, j) => close(w, refImp[j])), `importance ${imp} vs ${refImp}`);
   // The same through the Gray-code walk and branch and bound, whose swept states differ.
-  const prepared = prepareSearch({ columns, summary: null, response: 'y', weights: null, pool: ['peakTemp', 'moisture', 'total'], always: [], hierarchy: false, intercept: true, top: 3 }, { maxWorkCells: 1e9 });
+  const prepared = prepareSearch({ columns, summary: null, response: 'y', weights: null, pool: ['peakTemp', 'moisture', 'total'], always: [], hierarchy: false, intercept: true, top: 3 });
   if ('issues' in prepared) return t.end();
   const bb = searchSubsets(prepared.problem, { criterion: 'aicc', top: 3, rankDeficient: 'skip' }, 'branchAndBound');
   t.same(bb.models.map((m) => m.terms), outcome.models.slice(0, 3).map((m) => m.terms), 'branch and bound keeps the same best three');

@@ -8,7 +8,9 @@ import { demoColumns } from '../../../scripts/demo-data.ts';
 import { widePool } from '../../../scripts/wide-pool-data.ts';
 import { MAX_KEYED_TERMS } from '../../../src/core/search/subset-keys.ts';
 import { hierarchyRules, planSearch, searchSubsets, DEFAULT_SEARCH_BUDGET } from '../../../src/core/search/index.ts';
-import { runSearch } from '../../../src/search/workers/index.ts';
+import { runSearch, type TaskRunner } from '../../../src/search/workers/index.ts';
+import { ComputePool } from '../../../src/compute/index.ts';
+import { JOB_WORKER_MODULE } from '../../../src/http/jobs/index.ts';
 import type { Term } from '../../../src/core/types.ts';
 import { demoPool, problemFor } from './brute-force.ts';
 
@@ -61,14 +63,19 @@ t.test('branch and bound stops where a subset key stops being exact, whatever bu
   t.end();
 });
 
-t.test('worker threads give the single-thread results', async (t) => {
+t.test('the compute pool\'s workers give the single-thread results', async (t) => {
+  const workers = new ComputePool({ size: 2, queueLength: 0, deadlineMs: 120_000, workerModule: JOB_WORKER_MODULE });
+  t.teardown(() => workers.close());
+  const session = workers.open();
+  t.teardown(() => session.close());
+  const run: TaskRunner = (task) => session.runOn({ kind: 'searchTask', task });
   const demo = demoColumns();
   const pool = demoPool.slice(0, 15);
   const { problem } = problemFor({ columns: demo, response: 'shrinkage', pool, always: [], intercept: true, hierarchy: false });
   const settings = { criterion: 'aicc', top: 10, rankDeficient: 'score' } as const;
   const one = searchSubsets(problem, settings, 'exhaustive');
   const progress: number[] = [];
-  const two = await runSearch(problem, settings, { threads: 2, onProgress: (p) => progress.push(p.covered / p.total) });
+  const two = await runSearch(problem, settings, { run, parallelism: 2, onProgress: (p) => progress.push(p.covered / p.total) });
   t.ok(two.ok);
   if (!two.ok) return;
   t.equal(two.threads, 2);
@@ -77,9 +84,9 @@ t.test('worker threads give the single-thread results', async (t) => {
   t.ok(two.outcome.models.every((m, i) => Math.abs(m.weight - one.models[i].weight) < 1e-13), 'weights agree');
   t.ok(two.outcome.importance.every((x, i) => Math.abs(x.weight - one.importance[i].weight) < 1e-13), 'importance agrees');
   t.equal(progress.at(-1), 1, 'progress reaches the whole');
-  const bb = await runSearch(problem, settings, { threads: 2, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000 } });
+  const bb = await runSearch(problem, settings, { run, parallelism: 2, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000 } });
   t.ok(bb.ok && bb.outcome.method === 'branchAndBound' && !bb.outcome.weightsCoverAllSubsets);
   if (bb.ok) t.same(bb.outcome.models.map((m) => m.terms), one.models.map((m) => m.terms), 'branch and bound on workers finds the same top');
-  const starved = await runSearch(problem, settings, { threads: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000, maxNodes: 10 } });
+  const starved = await runSearch(problem, settings, { run, parallelism: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxSubsets: 1000, maxNodes: 10 } });
   t.ok(starved.ok && !starved.outcome.proven && starved.outcome.models.length === 10, 'node budget exhausted: the best found so far, not proven');
 });

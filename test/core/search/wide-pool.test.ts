@@ -11,7 +11,9 @@
 import t from 'tap';
 import { widePool } from '../../../scripts/wide-pool-data.ts';
 import { DEFAULT_SEARCH_BUDGET, searchSubsets, type SearchCriterion } from '../../../src/core/search/index.ts';
-import { runSearch, type SearchProgress } from '../../../src/search/workers/index.ts';
+import { runInThread, runSearch, type SearchProgress } from '../../../src/search/workers/index.ts';
+import { ComputePool } from '../../../src/compute/index.ts';
+import { JOB_WORKER_MODULE } from '../../../src/http/jobs/index.ts';
 import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
 import { prepareSearch } from '../../../src/core/search/request-problem.ts';
 import { searchRankBy, searchReport } from '../../../src/core/search/report.ts';
@@ -60,8 +62,12 @@ for (const criterion of ['aicc', 'aic', 'bic', 'hqc'] as SearchCriterion[]) {
 t.test('one thread or two: the same answer; progress reports nodes and the bound', async (t) => {
   const settings = { criterion: 'aicc', top: TOP, rankDeficient: 'skip' } as const;
   const progress: SearchProgress[] = [];
-  const one = await runSearch(problem, settings, { threads: 1, onProgress: (p) => progress.push(p) });
-  const two = await runSearch(problem, settings, { threads: 2 });
+  const workers = new ComputePool({ size: 2, queueLength: 0, deadlineMs: 300_000, workerModule: JOB_WORKER_MODULE });
+  t.teardown(() => workers.close());
+  const session = workers.open();
+  t.teardown(() => session.close());
+  const one = await runSearch(problem, settings, { run: runInThread, parallelism: 1, onProgress: (p) => progress.push(p) });
+  const two = await runSearch(problem, settings, { run: (task) => session.runOn({ kind: 'searchTask', task }), parallelism: 2 });
   t.ok(one.ok && two.ok);
   if (!one.ok || !two.ok) return;
   t.equal(one.outcome.method, 'branchAndBound');
@@ -78,7 +84,7 @@ t.test('one thread or two: the same answer; progress reports nodes and the bound
 
 t.test('a node budget that runs out: the best found so far, marked unproven', async (t) => {
   const settings = { criterion: 'aicc', top: TOP, rankDeficient: 'skip' } as const;
-  const starved = await runSearch(problem, settings, { threads: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxNodes: 20 } });
+  const starved = await runSearch(problem, settings, { run: runInThread, parallelism: 1, budget: { ...DEFAULT_SEARCH_BUDGET, maxNodes: 20 } });
   t.ok(starved.ok, 'answered, not refused');
   if (!starved.ok) return;
   const out = starved.outcome;
@@ -89,7 +95,7 @@ t.test('a node budget that runs out: the best found so far, marked unproven', as
   t.ok(out.models[0].value <= stepwise.value + 1e-9 * Math.abs(stepwise.value), 'at least as good as stepwise with swaps');
   t.ok(out.evaluated + out.pruned < 2 ** m, 'some subsets neither scored nor ruled out');
   // The report a caller reads: the models refitted, and a caution that they are not proven.
-  const prepared = prepareSearch({ columns: wide.columns, summary: null, response: wide.response, weights: null, pool: wide.pool, always: [], hierarchy: false, intercept: true, top: TOP }, { maxWorkCells: 1e9 });
+  const prepared = prepareSearch({ columns: wide.columns, summary: null, response: wide.response, weights: null, pool: wide.pool, always: [], hierarchy: false, intercept: true, top: TOP });
   if ('issues' in prepared) return t.fail('prepared');
   const report = searchReport(prepared, out, searchRankBy('aicc', DEFAULT_POLICY, null), { policy: DEFAULT_POLICY, hash: 'h' });
   const caution = report.cautions.find((c) => c.code === 'search_not_proven');

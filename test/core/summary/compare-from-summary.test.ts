@@ -26,7 +26,7 @@ const policy = { policy: DEFAULT_ACTIVE_POLICY.policy, policyHash: DEFAULT_ACTIV
 
 for (const weighted of [false, true]) {
   t.test(`summary comparison equals the rows' comparison${weighted ? ', weighted' : ''}`, (t) => {
-    const rows = compareModels({ columns, response: 'shrinkage', weights: weighted ? 'w' : null, candidates, ...policy }, { maxWorkCells: 1e8 });
+    const rows = compareModels({ columns, response: 'shrinkage', weights: weighted ? 'w' : null, candidates, ...policy });
     const summary = summariseRows(names.map((c) => Float64Array.from(columns[c as keyof typeof columns])), weighted ? Float64Array.from(columns.w) : null, names);
     const fromSummary = compareFromSummary({ summary, response: 'shrinkage', candidates, ...policy });
     if (!('result' in rows) || !('result' in fromSummary)) return t.fail(JSON.stringify([rows, fromSummary]).slice(0, 500));
@@ -76,7 +76,7 @@ t.test('an exact fit from a summary is detected as on the rows', (t) => {
     { form: 'fit', name: 'exact, no intercept', terms: ['peakTemp', 'holdMinutes', 'moisture'], intercept: false },
     { form: 'fit', name: 'temp only', terms: ['peakTemp'], intercept: true },
   ];
-  const rows = compareModels({ columns: cols, response: 'shrinkage', weights: null, candidates: exact, ...policy }, { maxWorkCells: 1e8 });
+  const rows = compareModels({ columns: cols, response: 'shrinkage', weights: null, candidates: exact, ...policy });
   const summary = summariseRows(names.map((c) => Float64Array.from(cols[c as keyof typeof cols])), null, names);
   const fromSummary = compareFromSummary({ summary, response: 'shrinkage', candidates: exact, ...policy });
   if (!('result' in rows) || !('result' in fromSummary)) return t.fail('both compute');
@@ -103,7 +103,7 @@ t.test('a summary comparison states the rank rule it applied', (t) => {
   t.same(out.result.models[0].aliased, ['z'], 'so the summary fit aliases z');
   t.match(out.result.conventions.rank, String(PIVOT_TOLERANCE), 'and the conventions quote the sweep tolerance');
   t.match(out.result.conventions.rank, /sum of squares/, 'on sums of squares, not norms');
-  const rows = compareModels({ columns: cols, response: 'y', weights: null, candidates: cands, ...policy }, { maxWorkCells: 1e8 });
+  const rows = compareModels({ columns: cols, response: 'y', weights: null, candidates: cands, ...policy });
   if ('result' in rows) {
     t.same(rows.result.models[0].aliased, [], 'the rows resolve z');
     t.notSame(rows.result.conventions.rank, out.result.conventions.rank, 'the rows state their own rule');
@@ -115,7 +115,7 @@ t.test('a term repeated with a summary is a duplicate, as on the rows', (t) => {
   const summary = summariseRows(names.map((c) => Float64Array.from(columns[c as keyof typeof columns])), null, names);
   const cands: CandidateInput[] = [{ form: 'fit', name: 'twice', terms: ['peakTemp', 'moisture', 'peakTemp'], intercept: true }];
   const out = compareFromSummary({ summary, response: 'shrinkage', candidates: cands, ...policy });
-  const rows = compareModels({ columns, response: 'shrinkage', weights: null, candidates: cands, ...policy }, { maxWorkCells: 1e8 });
+  const rows = compareModels({ columns, response: 'shrinkage', weights: null, candidates: cands, ...policy });
   t.ok('issues' in out && 'issues' in rows);
   if ('issues' in out && 'issues' in rows) {
     t.same(out.issues.map((i) => [i.code, i.path.join('/')]), rows.issues.map((i) => [i.code, i.path.join('/')]), 'the same issue at the same path');

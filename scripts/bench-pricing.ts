@@ -1,0 +1,109 @@
+// How well the cost model (src/core/pricing) tracks time: requests of very
+// different shapes are priced, then computed on this thread by the same job
+// functions the compute pool runs, and each prints its estimate, its time and
+// the nanoseconds per estimated multiply-add. The last column is each kind's
+// rate against the median of this run: near 1 everywhere means one cap in
+// multiply-adds means the same time whatever the shape. The data are
+// generated (a benchmark needs only shapes).
+//   npx tsx scripts/bench-pricing.ts
+import { availableParallelism } from 'node:os';
+import { defaultConfig } from '../src/config.ts';
+import { DEFAULT_ACTIVE_POLICY } from '../src/policy-file.ts';
+import type { Term } from '../src/core/types.ts';
+import { runSearch } from '../src/search/workers/index.ts';
+import { runTask } from '../src/search/workers/run-task.ts';
+import { priceCaps } from '../src/http/compute/caps.ts';
+import { priceComparisonRequest, priceSearchRequest } from '../src/http/compute/price-request.ts';
+import { comparisonJob } from '../src/http/jobs/comparison-job.ts';
+import { searchPrepareJob, searchReportJob } from '../src/http/jobs/search-jobs.ts';
+import { ComparisonRequest } from '../src/http/schemas/comparison-request.ts';
+import { SearchRequest } from '../src/http/schemas/search-request.ts';
+
+const policy = DEFAULT_ACTIVE_POLICY;
+// Caps high enough that nothing here is refused: this measures, it does not guard.
+const caps = priceCaps(defaultConfig({ maxRequestWork: 1e15, maxRequestMemoryBytes: 1e15, maxResultBytes: 1e15, maxDesignColumns: 10_000 }));
+
+let seed = 20260611;
+const uniform = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 4294967296);
+const numeric = (n: number) => Array.from({ length: n }, () => Math.round((uniform() * 100 - 50) * 1e6) / 1e6);
+const response = (n: number, ...xs: number[][]) => Array.from({ length: n }, (_, i) => xs.reduce((s, x, j) => s + x[i] * (j % 3 === 0 ? 0.3 : -0.1), 0) + uniform());
+
+function comparisonCase(label: string, request: unknown) {
+  const body = ComparisonRequest.parse(request);
+  const priced = priceComparisonRequest(body, policy, caps);
+  if ('issues' in priced) throw new Error(`${label}: ${priced.issues[0].message}`);
+  const t0 = performance.now();
+  const out = comparisonJob({ kind: 'comparison', body, policy, resultCap: caps.resultBytes });
+  const seconds = (performance.now() - t0) / 1000;
+  if (!('result' in out)) throw new Error(`${label}: ${JSON.stringify(out).slice(0, 300)}`);
+  return { label, work: priced.price.work, seconds };
+}
+
+async function searchCase(label: string, request: unknown) {
+  const body = SearchRequest.parse(request);
+  const priced = priceSearchRequest(body, caps, 1);
+  if ('issues' in priced) throw new Error(`${label}: ${priced.issues[0].message}`);
+  const t0 = performance.now();
+  const prepared = searchPrepareJob({ kind: 'searchPrepare', body, policy, budget: priced.budget });
+  if ('issues' in prepared) throw new Error(`${label}: ${prepared.issues[0].message}`);
+  const settings = { criterion: prepared.prepared.choice.rankBy, top: body.top, rankDeficient: 'skip' } as const;
+  const run = await runSearch(prepared.prepared.problem, settings, { run: async (task) => ({ value: runTask(task), worker: 0 }), parallelism: 1, budget: priced.budget });
+  if (!run.ok) throw new Error(`${label}: ${run.issue.message}`);
+  const report = searchReportJob({
+    kind: 'searchReport', body, policy, prepared: prepared.prepared, outcome: run.outcome,
+    run: { threads: 1, elapsedMs: 0, budget: run.budget, estimatedFlops: run.estimatedFlops }, resultCap: caps.resultBytes,
+  });
+  if (!('result' in report)) throw new Error(`${label}: ${JSON.stringify(report).slice(0, 300)}`);
+  return { label, work: priced.price.work, seconds: (performance.now() - t0) / 1000 };
+}
+
+/** `count` numeric columns x0, x1, … of `rows` rows and a response y built from them. */
+function table(rows: number, count: number) {
+  const xs = Array.from({ length: count }, () => numeric(rows));
+  const columns: Record<string, unknown[]> = Object.fromEntries(xs.map((x, j) => [`x${j}`, x]));
+  columns.y = response(rows, ...xs);
+  return { xs, columns };
+}
+
+const { xs, columns: bigColumns } = table(100_000, 30);
+
+const levels = 300;
+const rowsF = 3000;
+const factor = Array.from({ length: rowsF }, (_, i) => `batch-${(i * 7919) % levels}`);
+const xF = numeric(rowsF);
+
+const { columns: smallColumns } = table(120, 10);
+const smallTerms = (k: number): Term[] => Array.from({ length: k }, (_, j) => `x${j % 10}`).filter((v, i, a) => a.indexOf(v) === i);
+
+const { xs: mx, columns: midColumns } = table(2000, 16);
+
+// A summary of 160 columns (response last) from generated rows: C = Σ (x - x̄)(z - z̄).
+const summaryColumns = 160;
+const sRows = 400;
+const srows = Array.from({ length: summaryColumns }, () => numeric(sRows));
+const means = srows.map((c) => c.reduce((a, b) => a + b, 0) / sRows);
+const cross = srows.map((a, i) => srows.map((b, j) => a.reduce((s, v, r) => s + (v - means[i]) * (b[r] - means[j]), 0)));
+const summary = { rows: sRows, columns: srows.map((_, j) => (j === summaryColumns - 1 ? 'y' : `s${j}`)), means, centredCrossProducts: cross };
+
+const cases = [
+  comparisonCase('comparison: 100,000 rows × 31 columns, 1 model', { data: { columns: bigColumns }, response: 'y', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`) }] }),
+  comparisonCase('comparison: one factor of 300 levels, 3000 rows', { data: { columns: { y: response(rowsF, xF), x: xF, batch: factor } }, response: 'y', candidates: [{ name: 'batch', terms: ['x', 'batch'] }, { name: 'x', terms: ['x'] }] }),
+  comparisonCase('comparison: 60 small models, 120 rows', { data: { columns: smallColumns }, response: 'y', candidates: Array.from({ length: 60 }, (_, i) => ({ name: `m${i}`, terms: smallTerms(1 + (i % 10)) })) }),
+  comparisonCase('comparison: 5 models, 20,000 prediction rows', {
+    data: { columns: midColumns }, response: 'y',
+    candidates: Array.from({ length: 5 }, (_, i) => ({ name: `m${i}`, terms: Array.from({ length: 3 + 3 * i }, (_, j) => `x${j}`) })),
+    options: { predict: { columns: Object.fromEntries(mx.map((_, j) => [`x${j}`, numeric(20_000)])) } },
+  }),
+  comparisonCase('comparison: from a 160-column summary, 10 models', { data: { summary }, response: 'y', candidates: Array.from({ length: 10 }, (_, i) => ({ name: `m${i}`, terms: Array.from({ length: 15 * (i + 1) }, (_, j) => `s${j}`) })) }),
+  await searchCase('search: 16-term pool, 2000 rows, every subset', { data: { columns: midColumns }, response: 'y', pool: mx.map((_, j) => `x${j}`), top: 20 }),
+  await searchCase('search: summary, 12-term pool + 140 always', { data: { summary }, response: 'y', pool: Array.from({ length: 12 }, (_, j) => `s${j}`), always: Array.from({ length: 140 }, (_, j) => `s${12 + j}`), top: 10, exhaustive: true }),
+];
+
+const rates = cases.map((c) => (c.seconds * 1e9) / c.work);
+const median = [...rates].sort((a, b) => a - b)[Math.floor(rates.length / 2)];
+console.log(`cost model against time, one thread (${availableParallelism()} cores; figures from a busy shared machine)`);
+console.log(`${'request'.padEnd(52)} ${'estimate'.padStart(10)} ${'seconds'.padStart(8)} ${'ns/unit'.padStart(8)} ${'vs median'.padStart(9)}`);
+cases.forEach((c, i) => {
+  console.log(`${c.label.padEnd(52)} ${c.work.toExponential(2).padStart(10)} ${c.seconds.toFixed(3).padStart(8)} ${rates[i].toFixed(2).padStart(8)} ${(rates[i] / median).toFixed(2).padStart(8)}x`);
+});
+console.log(`median ${median.toFixed(2)} ns per estimated multiply-add: MAX_REQUEST_WORK=${defaultConfig().maxRequestWork.toExponential(1)} is about ${((defaultConfig().maxRequestWork * median) / 1e9).toFixed(1)} s of one core here`);

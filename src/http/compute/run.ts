@@ -1,0 +1,69 @@
+// Where a request's work runs. A comparison priced within COMPUTE_INLINE_WORK
+// runs on the main thread (a worker round trip would cost more than the
+// work); everything else — larger comparisons, replays, every search — runs in
+// a session of the process-wide pool: admitted or refused at once (503),
+// stopped at its deadline (422) or when its client goes away. Refusals are
+// thrown as Refusal, so the error handler answers them like any other.
+import type { FastifyReply } from 'fastify';
+import { ComputeCancelled, type ComputePool, type ComputeSession } from '../../compute/index.ts';
+import type { PriceCaps } from '../../core/pricing/index.ts';
+import { comparisonJob, type ComparisonJob, type ComparisonJobOutcome } from '../jobs/comparison-job.ts';
+import { forWorker } from '../jobs/transport.ts';
+import type { ClientWatch } from './client-gone.ts';
+import { computeRefusal } from './refusals.ts';
+
+/** The client went away before its answer: nothing is recorded and nothing is sent. */
+export const CLIENT_GONE = Symbol('client gone');
+
+export interface ComputeService {
+  pool: ComputePool;
+  /** Work (estimated multiply-adds) at or below which a comparison runs on the main thread. */
+  inlineWork: number;
+  caps: PriceCaps;
+}
+
+export async function inSession<T>(
+  pool: ComputePool,
+  reply: FastifyReply,
+  watch: ClientWatch,
+  work: (session: ComputeSession) => Promise<T>,
+): Promise<T | typeof CLIENT_GONE> {
+  const metrics = reply.server.metrics;
+  let session: ComputeSession;
+  try {
+    session = pool.open();
+  } catch (error) {
+    metrics?.computeRefusals.inc({ reason: 'busy' });
+    throw computeRefusal(error) ?? error;
+  }
+  watch.onGone(() => session.cancel());
+  try {
+    return await work(session);
+  } catch (error) {
+    if (error instanceof ComputeCancelled) {
+      metrics?.computeRefusals.inc({ reason: 'client_gone' });
+      return CLIENT_GONE;
+    }
+    const refused = computeRefusal(error);
+    if (refused) metrics?.computeRefusals.inc({ reason: refused.body.status === 503 ? 'busy' : refused.body.type.split(':').at(-1)! });
+    throw refused ?? error;
+  } finally {
+    session.close();
+  }
+}
+
+/** One comparison (a POST or a replay), priced at `work`. */
+export async function computeComparisonJob(
+  service: ComputeService,
+  reply: FastifyReply,
+  watch: ClientWatch,
+  job: ComparisonJob,
+  work: number,
+): Promise<ComparisonJobOutcome | typeof CLIENT_GONE> {
+  if (work <= service.inlineWork) {
+    const outcome = comparisonJob(job);
+    return watch.gone ? CLIENT_GONE : outcome;
+  }
+  const outcome = await inSession(service.pool, reply, watch, (session) => session.run<ComparisonJobOutcome>(forWorker(job)));
+  return watch.gone ? CLIENT_GONE : outcome;
+}
