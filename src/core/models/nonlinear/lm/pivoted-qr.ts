@@ -1,0 +1,86 @@
+// Householder QR with column pivoting by largest remaining norm (Businger &
+// Golub 1965), J P = Q R, for the Levenberg–Marquardt subproblem. Unlike the
+// linear engine's QR (src/core/fit), which keeps the caller's column order and
+// sets dependent columns aside, Moré's method needs R complete for every
+// column, with any rank deficiency pushed to the trailing diagonal, so that
+// the damped system (R; sqrt(λ) D P) stays solvable. Remaining norms are
+// recomputed at each step rather than downdated, which costs one more pass
+// per column and never loses them to cancellation.
+
+export interface PivotedQR {
+  /** Columns factorised. */
+  cols: number;
+  /** Row-major cols x cols: R on and above the diagonal; below it is workspace for lmParameter. */
+  r: Float64Array;
+  /** Column k of R belongs to column pivot[k] of the input. */
+  pivot: Int32Array;
+  /** The first `cols` entries of Q^T f. */
+  qtf: Float64Array;
+}
+
+/**
+ * Factorises the n x q column-major matrix `a` (overwritten) and applies
+ * Q^T to f (not modified).
+ */
+export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array): PivotedQR {
+  const pivot = new Int32Array(q);
+  for (let j = 0; j < q; j++) pivot[j] = j;
+  const qf = Float64Array.from(f);
+  const r = new Float64Array(q * q);
+  const steps = Math.min(n, q);
+  for (let k = 0; k < steps; k++) {
+    let best = k;
+    let bestNorm = -1;
+    for (let j = k; j < q; j++) {
+      const off = j * n;
+      let s = 0;
+      for (let i = k; i < n; i++) s += a[off + i] * a[off + i];
+      if (s > bestNorm) {
+        bestNorm = s;
+        best = j;
+      }
+    }
+    if (best !== k) {
+      swapColumns(a, n, k, best);
+      const t = pivot[k];
+      pivot[k] = pivot[best];
+      pivot[best] = t;
+    }
+    const off = k * n;
+    const norm = Math.sqrt(bestNorm);
+    if (norm === 0) continue; // the rest is zero: R's trailing block stays zero
+    const x0 = a[off + k];
+    const alpha = x0 >= 0 ? -norm : norm;
+    const v0 = x0 - alpha;
+    a[off + k] = v0;
+    const beta = -alpha * v0; // v'v / 2
+    for (let j = k + 1; j < q; j++) {
+      const offj = j * n;
+      let s = 0;
+      for (let i = k; i < n; i++) s += a[off + i] * a[offj + i];
+      const c = s / beta;
+      for (let i = k; i < n; i++) a[offj + i] -= c * a[off + i];
+    }
+    let s = 0;
+    for (let i = k; i < n; i++) s += a[off + i] * qf[i];
+    const c = s / beta;
+    for (let i = k; i < n; i++) qf[i] -= c * a[off + i];
+    r[k * q + k] = alpha;
+  }
+  for (let k = 0; k < steps; k++) {
+    for (let j = k + 1; j < q; j++) r[k * q + j] = a[j * n + k];
+  }
+  const qtf = new Float64Array(q);
+  qtf.set(qf.subarray(0, steps));
+  return { cols: q, r, pivot, qtf };
+}
+
+function swapColumns(a: Float64Array, n: number, j: number, k: number): void {
+  const oj = j * n;
+  const ok = k * n;
+  for (let i = 0; i < n; i++) {
+    const t = a[oj + i];
+    a[oj + i] = a[ok + i];
+    a[ok + i] = t;
+  }
+}

@@ -1,0 +1,138 @@
+// Elementary functions of a double-double argument (about 32 digits), for
+// evaluating a model expression in extended precision: the logarithm, powers,
+// sine, cosine, tangent and arctangent. exp and sqrt are in double-double.ts.
+//
+// Methods (Hida, Li & Bailey 2001, the "QD" library, for the shapes):
+// - log: one Newton step on exp(y) = a from the double logarithm, which
+//   squares its relative error (1e-16 -> 1e-32).
+// - sin, cos: reduction by the nearest multiple of pi/2 held as three doubles
+//   (so the reduced argument keeps ~32 digits for |a| up to ~1e15), then
+//   Taylor series on |r| <= pi/4 to 1e-33.
+// - atan: one Newton step on sin(y) - a cos(y) = 0 from the double atan.
+// Constants were split from 300-bit values computed with mpmath 1.2.1.
+import { ddAdd, ddDiv, ddExp, ddMul, ddMulDouble, ddSub, quickTwoSum, twoProduct, type DD } from './double-double.ts';
+
+export const DD_PI: DD = [3.141592653589793, 1.2246467991473532e-16];
+const PI_OVER_2: DD = [1.5707963267948966, 6.123233995736766e-17];
+const PI_OVER_2_PARTS = [1.5707963267948966, 6.123233995736766e-17, -1.4973849048591698e-33] as const;
+const INV_LN10: DD = [0.4342944819032518, 1.098319650216765e-17];
+
+/** 1/k! for k = 0..30 in double-double. */
+const INV_FACTORIAL: DD[] = (() => {
+  const out: DD[] = [[1, 0]];
+  let f: DD = [1, 0];
+  for (let k = 1; k <= 30; k++) {
+    f = ddMulDouble(f[0], f[1], k);
+    out.push(ddDiv(1, 0, f[0], f[1]));
+  }
+  return out;
+})();
+
+/** ln(ah + al) for ah + al > 0. */
+export function ddLogDD(ah: number, al: number): DD {
+  if (Number.isNaN(ah) || ah < 0) return [NaN, 0];
+  if (ah === 0) return [-Infinity, 0];
+  if (ah === Infinity) return [Infinity, 0];
+  const y0 = Math.log(ah);
+  const [eh, el] = ddExp(-y0, 0);
+  const [th, tl] = ddMul(eh, el, ah, al);
+  const [dh, dl] = ddAdd(th, tl, -1, 0);
+  return ddAdd(y0, 0, dh, dl);
+}
+
+export function ddLog10DD(ah: number, al: number): DD {
+  const [lh, ll] = ddLogDD(ah, al);
+  return ddMul(lh, ll, INV_LN10[0], INV_LN10[1]);
+}
+
+/** (ah + al)^n for an integer n, by binary powering (n < 0 through the reciprocal). */
+export function ddPowIntDD(ah: number, al: number, n: number): DD {
+  let k = Math.abs(n);
+  let rh = 1;
+  let rl = 0;
+  let bh = ah;
+  let bl = al;
+  while (k > 0) {
+    if (k % 2 === 1) [rh, rl] = ddMul(rh, rl, bh, bl);
+    k = Math.floor(k / 2);
+    if (k > 0) [bh, bl] = ddMul(bh, bl, bh, bl);
+  }
+  return n < 0 ? ddDiv(1, 0, rh, rl) : [rh, rl];
+}
+
+/**
+ * (ah + al)^(bh + bl) with the cases of Math.pow: an integer-valued exponent
+ * by binary powering (any sign of base), otherwise exp(b ln a) for a > 0,
+ * 0 or infinity at a = 0, and NaN for a negative base.
+ */
+export function ddPowDD(ah: number, al: number, bh: number, bl: number): DD {
+  if (bl === 0 && Number.isInteger(bh) && Math.abs(bh) <= 2 ** 31) return ddPowIntDD(ah, al, bh);
+  if (Number.isNaN(ah) || Number.isNaN(bh)) return [NaN, 0];
+  if (ah === 0) return bh > 0 ? [0, 0] : [Infinity, 0];
+  if (ah < 0) return [NaN, 0];
+  const [lh, ll] = ddLogDD(ah, al);
+  const [xh, xl] = ddMul(bh, bl, lh, ll);
+  return ddExp(xh, xl);
+}
+
+/** sin and cos of |r| <= pi/4 by their Taylor series. */
+function sinCosReduced(rh: number, rl: number): { sin: DD; cos: DD } {
+  const [r2h, r2l] = ddMul(rh, rl, rh, rl);
+  let sin: DD = [rh, rl];
+  let cos: DD = [1, 0];
+  let term: DD = [rh, rl]; // r^(2m+1) and r^(2m) alternate below
+  let even: DD = [1, 0];
+  for (let m = 1; m <= 14; m++) {
+    even = ddMul(even[0], even[1], r2h, r2l);
+    term = ddMul(term[0], term[1], r2h, r2l);
+    const sign = m % 2 === 1 ? -1 : 1;
+    const [ch, cl] = ddMul(even[0], even[1], INV_FACTORIAL[2 * m][0], INV_FACTORIAL[2 * m][1]);
+    const [sh, sl] = ddMul(term[0], term[1], INV_FACTORIAL[2 * m + 1][0], INV_FACTORIAL[2 * m + 1][1]);
+    cos = ddAdd(cos[0], cos[1], sign * ch, sign * cl);
+    sin = ddAdd(sin[0], sin[1], sign * sh, sign * sl);
+    if (Math.abs(ch) < 1e-34) break;
+  }
+  return { sin, cos };
+}
+
+/** sin and cos of ah + al together (they share the reduction). */
+export function ddSinCos(ah: number, al: number): { sin: DD; cos: DD } {
+  if (!Number.isFinite(ah)) return { sin: [NaN, 0], cos: [NaN, 0] };
+  const k = Math.round(ah / PI_OVER_2[0]);
+  let r: DD = [ah, al];
+  for (const part of PI_OVER_2_PARTS) {
+    const [ph, pl] = twoProduct(k, part);
+    r = ddSub(r[0], r[1], ph, pl);
+  }
+  const { sin, cos } = sinCosReduced(r[0], r[1]);
+  const quadrant = ((k % 4) + 4) % 4;
+  const neg = (x: DD): DD => [-x[0], -x[1]];
+  switch (quadrant) {
+    case 0: return { sin, cos };
+    case 1: return { sin: cos, cos: neg(sin) };
+    case 2: return { sin: neg(sin), cos: neg(cos) };
+    default: return { sin: neg(cos), cos: sin };
+  }
+}
+
+export function ddTanDD(ah: number, al: number): DD {
+  const { sin, cos } = ddSinCos(ah, al);
+  return ddDiv(sin[0], sin[1], cos[0], cos[1]);
+}
+
+/** atan(ah + al) in (-pi/2, pi/2). */
+export function ddAtanDD(ah: number, al: number): DD {
+  if (Number.isNaN(ah)) return [NaN, 0];
+  if (ah === Infinity) return PI_OVER_2;
+  if (ah === -Infinity) return [-PI_OVER_2[0], -PI_OVER_2[1]];
+  const y0 = Math.atan(ah + al);
+  const { sin: s, cos: c } = ddSinCos(y0, 0);
+  // y1 = y0 - (s - a c) / (c + a s)
+  const [ach, acl] = ddMul(ah, al, c[0], c[1]);
+  const [ash, asl] = ddMul(ah, al, s[0], s[1]);
+  const [nh, nl] = ddSub(s[0], s[1], ach, acl);
+  const [dh, dl] = ddAdd(c[0], c[1], ash, asl);
+  const [qh, ql] = ddDiv(nh, nl, dh, dl);
+  const [yh, yl] = ddSub(y0, 0, qh, ql);
+  return quickTwoSum(yh, yl);
+}
