@@ -7,7 +7,9 @@ Each problem draws its true parameters and noise from a seeded generator
 (numpy.random.default_rng), so the file is reproducible. scipy solves it with
 an analytic Jacobian and tolerances at rounding level (ftol = xtol = gtol =
 1e-15; 'lm' = MINPACK without bounds, 'trf' with bounds); standard errors
-are s * sqrt(diag((J'WJ)^-1)) from numpy at scipy's solution.
+are s * sqrt(diag((J'WJ)^-1)) from numpy at scipy's solution, and mean-response
+predictions at three new points carry delta-method standard errors
+sqrt(g' C g) with the model's analytic gradient g.
 
 Run with Debian's Python (it has numpy and scipy):
     /usr/bin/python3 scripts/nonlinear-scipy-fixtures.py
@@ -149,6 +151,15 @@ def problem(family, seed, n, weighted=False, bound=None, starts=1):
     J = jac(res.x)
     dof = n - truth.size
     cov = np.linalg.inv(J.T @ J) * rss / dof
+    # Mean-response predictions at three new points inside the data's range,
+    # with delta-method standard errors sqrt(g' C g), g the model's gradient.
+    new_x = np.quantile(x, [0.1, 0.5, 0.9]) + 0.01
+    g = spec["jac"](res.x, new_x)
+    predictions = {
+        "at": new_x.tolist(),
+        "estimate": spec["f"](res.x, new_x).tolist(),
+        "standardError": np.sqrt(np.einsum("ij,jk,ik->i", g, cov, g)).tolist(),
+    }
     # The expression's data column: the one name not a parameter or function.
     data_name = [w for w in ["t", "s", "x", "temp"] if w in tokens(spec["expression"])][0]
     columns = {data_name: x.tolist()}
@@ -171,6 +182,7 @@ def problem(family, seed, n, weighted=False, bound=None, starts=1):
             "status": int(res.status),
             "nfev": int(res.nfev),
             "activeMask": res.active_mask.tolist(),
+            "predictions": predictions,
         },
     }
     if bound is not None:

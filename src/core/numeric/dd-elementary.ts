@@ -4,9 +4,10 @@
 //
 // Methods (Hida, Li & Bailey 2001, the "QD" library, for the shapes):
 // - log: one Newton step on exp(y) = a from the double logarithm, which
-//   squares its relative error (1e-16 -> 1e-32).
+//   squares its relative error (1e-16 -> 1e-32); near 1 the atanh series,
+//   which keeps the relative accuracy of a small logarithm.
 // - sin, cos: reduction by the nearest multiple of pi/2 held as three doubles
-//   (so the reduced argument keeps ~32 digits for |a| up to ~1e15), then
+//   (so the reduced argument keeps ~32 digits for |a| up to 2^50), then
 //   Taylor series on |r| <= pi/4 to 1e-33.
 // - atan: one Newton step on sin(y) - a cos(y) = 0 from the double atan.
 // Constants were split from 300-bit values computed with mpmath 1.2.1.
@@ -28,16 +29,52 @@ const INV_FACTORIAL: DD[] = (() => {
   return out;
 })();
 
+const LN2: DD = [0.6931471805599453, 2.3190468138462996e-17];
+
 /** ln(ah + al) for ah + al > 0. */
 export function ddLogDD(ah: number, al: number): DD {
   if (Number.isNaN(ah) || ah < 0) return [NaN, 0];
   if (ah === 0) return [-Infinity, 0];
   if (ah === Infinity) return [Infinity, 0];
+  if (ah < 1e-290 || ah > 1e290) {
+    // exp(-ln a) would overflow or underflow: scale by 2^-e exactly (in two
+    // steps, so 2^-e itself stays finite) and add e ln 2.
+    const e = Math.floor(Math.log2(ah));
+    const half = Math.trunc(e / 2);
+    const s1 = 2 ** -half;
+    const s2 = 2 ** -(e - half);
+    const [lh, ll] = ddLogDD(ah * s1 * s2, al * s1 * s2);
+    const [kh, kl] = ddMulDouble(LN2[0], LN2[1], e);
+    return ddAdd(lh, ll, kh, kl);
+  }
+  if (Math.abs(ah - 1) < 1 / 64) return logNearOne(ah, al);
   const y0 = Math.log(ah);
   const [eh, el] = ddExp(-y0, 0);
   const [th, tl] = ddMul(eh, el, ah, al);
   const [dh, dl] = ddAdd(th, tl, -1, 0);
   return ddAdd(y0, 0, dh, dl);
+}
+
+/**
+ * ln a for a near 1 as 2 atanh(u) = 2 (u + u³/3 + u⁵/5 + ...), u = (a - 1)/(a + 1),
+ * with a - 1 exact: the Newton step's a exp(-y) - 1 would lose the leading
+ * digits of a small logarithm to cancellation. |u| < 1/127, so 12 terms
+ * reach 1e-50.
+ */
+function logNearOne(ah: number, al: number): DD {
+  const [nh, nl] = ddAdd(ah, al, -1, 0);
+  const [dh, dl] = ddAdd(ah, al, 1, 0);
+  const u = ddDiv(nh, nl, dh, dl);
+  const u2 = ddMul(u[0], u[1], u[0], u[1]);
+  let power: DD = u;
+  let sum: DD = u;
+  for (let k = 3; k <= 25; k += 2) {
+    power = ddMul(power[0], power[1], u2[0], u2[1]);
+    const term = ddDiv(power[0], power[1], k, 0);
+    sum = ddAdd(sum[0], sum[1], term[0], term[1]);
+    if (Math.abs(term[0]) < 1e-34 * Math.abs(sum[0])) break;
+  }
+  return [2 * sum[0], 2 * sum[1]];
 }
 
 export function ddLog10DD(ah: number, al: number): DD {
@@ -57,7 +94,8 @@ export function ddPowIntDD(ah: number, al: number, n: number): DD {
     k = Math.floor(k / 2);
     if (k > 0) [bh, bl] = ddMul(bh, bl, bh, bl);
   }
-  return n < 0 ? ddDiv(1, 0, rh, rl) : [rh, rl];
+  if (n >= 0) return [rh, rl];
+  return rh === 0 || !Number.isFinite(rh) ? [1 / rh, 0] : ddDiv(1, 0, rh, rl);
 }
 
 /**
@@ -95,9 +133,17 @@ function sinCosReduced(rh: number, rl: number): { sin: DD; cos: DD } {
   return { sin, cos };
 }
 
+/**
+ * Beyond this many radians the three-part pi/2 no longer reduces to ~32
+ * digits, and the double functions (exactly reduced) are used instead: an
+ * angle that large has no meaningful low part anyway.
+ */
+const MAX_REDUCED_ARGUMENT = 2 ** 50;
+
 /** sin and cos of ah + al together (they share the reduction). */
 export function ddSinCos(ah: number, al: number): { sin: DD; cos: DD } {
   if (!Number.isFinite(ah)) return { sin: [NaN, 0], cos: [NaN, 0] };
+  if (Math.abs(ah) > MAX_REDUCED_ARGUMENT) return { sin: [Math.sin(ah), 0], cos: [Math.cos(ah), 0] };
   const k = Math.round(ah / PI_OVER_2[0]);
   let r: DD = [ah, al];
   for (const part of PI_OVER_2_PARTS) {

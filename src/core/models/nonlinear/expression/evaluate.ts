@@ -120,6 +120,7 @@ export class TapeEvaluator {
       const m = Math.min(BLOCK_ROWS, n - start);
       this.forwardBlock(start, m);
       this.copyOutput(f, start, m);
+      if (!params[output]) continue; // no parameter reaches the output: the Jacobian is zero
       for (let k = 0; k <= output; k++) if (params[k]) this.adjoint[k]!.fill(0, 0, m);
       this.adjoint[output]!.fill(1, 0, m);
       for (let k = output; k >= 0; k--) {

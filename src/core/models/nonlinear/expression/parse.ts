@@ -24,7 +24,9 @@ type Token =
   | { kind: 'number'; value: number; text: string; at: number }
   | { kind: 'name'; name: string; at: number }
   | { kind: 'symbol'; symbol: '+' | '-' | '*' | '/' | '^' | '(' | ')'; at: number }
-  | { kind: 'end'; at: number };
+  | { kind: 'end'; at: number }
+  /** What the lexer could not read; the parser reports it only on reaching it, so errors come in reading order. */
+  | { kind: 'invalid'; at: number; failure: ParseFailure };
 
 const NUMBER = /(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?/y;
 const NAME = /[A-Za-z_][A-Za-z0-9_]*/y;
@@ -40,6 +42,7 @@ function describe(token: Token): string {
     case 'name': return `the name ${JSON.stringify(token.name)}`;
     case 'symbol': return `'${token.symbol}'`;
     case 'end': return 'the end of the expression';
+    case 'invalid': return 'an unreadable token';
   }
 }
 
@@ -57,7 +60,8 @@ function tokenize(text: string): Token[] {
     if (number) {
       const value = Number(number[0]);
       if (!Number.isFinite(value)) {
-        throw new Failure({ reason: 'syntax', at: i, expected: 'a number within the range of a double (below 1.8e308)', found: number[0] });
+        tokens.push({ kind: 'invalid', at: i, failure: { reason: 'syntax', at: i, expected: 'a number within the range of a double (below 1.8e308)', found: number[0] } });
+        return tokens;
       }
       tokens.push({ kind: 'number', value, text: number[0], at: i });
       i += number[0].length;
@@ -76,10 +80,11 @@ function tokenize(text: string): Token[] {
       continue;
     }
     const char = String.fromCodePoint(text.codePointAt(i)!);
-    throw new Failure({
-      reason: 'syntax', at: i, found: `the character ${JSON.stringify(char)}`,
-      expected: 'a number, a name, one of + - * / ^ ( ) or a space',
+    tokens.push({
+      kind: 'invalid', at: i,
+      failure: { reason: 'syntax', at: i, found: `the character ${JSON.stringify(char)}`, expected: 'a number, a name, one of + - * / ^ ( ) or a space' },
     });
+    return tokens;
   }
   tokens.push({ kind: 'end', at: text.length });
   return tokens;
@@ -105,11 +110,15 @@ class Parser {
   }
 
   private peek(): Token {
-    return this.tokens[this.index];
+    const token = this.tokens[this.index];
+    if (token.kind === 'invalid') throw new Failure(token.failure);
+    return token;
   }
 
   private next(): Token {
-    return this.tokens[this.index++];
+    const token = this.peek();
+    this.index++;
+    return token;
   }
 
   private isSymbol(token: Token, ...symbols: string[]): token is Extract<Token, { kind: 'symbol' }> {
@@ -212,7 +221,7 @@ export function parseExpression(text: string): { tree: ExpressionNode } | { fail
   }
   try {
     const tokens = tokenize(text);
-    if (tokens.length === 1) {
+    if (tokens[0].kind === 'end') {
       return { failure: { reason: 'syntax', at: 0, expected: 'an expression', found: 'an empty expression' } };
     }
     return { tree: new Parser(tokens).parse() };
