@@ -83,7 +83,7 @@ export interface IssueFacts {
   bound_invalid: { parameter: string; lower: number | null; upper: number | null };
   start_outside_bounds: { parameter: string; value: number; lower: number | null; upper: number | null };
   nonlinear_start_not_finite: { candidate: string; start: number; row: number };
-  nonlinear_not_converged: { candidate: string; iterations: number; limit: number; starts: number };
+  nonlinear_not_converged: { candidate: string; reason: 'iteration cap' | 'no minimum'; iterations: number; limit: number; starts: number };
   nonlinear_non_finite: { candidate: string; row: number; starts: number };
   nonlinear_rank_deficient: { candidate: string; parameters: string[] };
 }
@@ -224,7 +224,9 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   nonlinear_start_not_finite: (f, at) =>
     `${at} (${JSON.stringify(f.candidate)}) has no finite value at data row ${f.row} with start vector ${f.start}; choose start values where the expression is defined on every row.`,
   nonlinear_not_converged: (f, at) =>
-    `${at} (${JSON.stringify(f.candidate)}) did not converge within ${f.limit} iterations from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Try start values closer to the solution, bounds, or a simpler expression.`,
+    f.reason === 'iteration cap'
+      ? `${at} (${JSON.stringify(f.candidate)}) did not converge within ${f.limit} iterations from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Try start values closer to the solution, bounds, or a simpler expression.`
+      : `${at} (${JSON.stringify(f.candidate)}) stopped, from ${f.starts === 1 ? 'its start vector' : `each of its ${f.starts} start vectors`}, at parameter values that are not a least-squares minimum (a Gauss–Newton step from there still moves them); it is not ranked. The expression may not be smooth there, or a parameter may be heading for infinity or the edge of the expression's domain: try bounds or other start values.`,
   nonlinear_non_finite: (f, at) =>
     `${at} (${JSON.stringify(f.candidate)}) ran into parameter values where the expression or its derivatives have no finite value (first at data row ${f.row}) and could not step around them from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Bounds on the parameters can keep the fit inside the expression's domain.`,
   nonlinear_rank_deficient: (f, at) =>

@@ -36,27 +36,30 @@ export interface NonlinearFitOptions {
 }
 
 function summary(o: StartOutcome): StartSummary {
-  switch (o.status) {
-    case 'converged': return { start: o.start, status: o.status, rss: o.rss, iterations: o.iterations };
-    case 'start-not-finite': return { start: o.start, status: o.status, rss: null, iterations: 0 };
-    default: return { start: o.start, status: o.status, rss: null, iterations: o.iterations };
-  }
+  return {
+    start: o.start, status: o.status,
+    rss: o.status === 'converged' ? o.rss : null,
+    iterations: o.status === 'start-not-finite' ? 0 : o.iterations,
+  };
 }
 
-/** The issue for a candidate none of whose starts converged. */
+/** The issue for a candidate none of whose starts converged: the most telling failure among them. */
 function failureIssue(candidate: NonlinearCandidate, outcomes: StartOutcome[], at: IssuePath, limit: number): Issue {
   const starts = outcomes.length;
-  const notConverged = outcomes.find((o) => o.status === 'not-converged');
-  if (notConverged) {
-    return issue('nonlinear_not_converged', at, { candidate: candidate.name, iterations: notConverged.iterations, limit, starts });
-  }
-  const nonFinite = outcomes.find((o) => o.status === 'non-finite');
-  if (nonFinite && nonFinite.status === 'non-finite') {
-    return issue('nonlinear_non_finite', at, { candidate: candidate.name, row: nonFinite.row, starts });
-  }
-  const first = outcomes[0] as Extract<StartOutcome, { status: 'start-not-finite' }>;
+  const name = candidate.name;
+  const find = <S extends StartOutcome['status']>(status: S) =>
+    outcomes.find((o): o is Extract<StartOutcome, { status: S }> => o.status === status);
+  const deficient = find('rank-deficient');
+  if (deficient) return issue('nonlinear_rank_deficient', at, { candidate: name, parameters: deficient.dependent.map((j) => candidate.parameters[j]) });
+  const capped = find('iteration-cap');
+  if (capped) return issue('nonlinear_not_converged', at, { candidate: name, reason: 'iteration cap', iterations: capped.iterations, limit, starts });
+  const stuck = find('no-minimum');
+  if (stuck) return issue('nonlinear_not_converged', at, { candidate: name, reason: 'no minimum', iterations: stuck.iterations, limit, starts });
+  const nonFinite = find('non-finite');
+  if (nonFinite) return issue('nonlinear_non_finite', at, { candidate: name, row: nonFinite.row, starts });
+  const first = find('start-not-finite')!;
   const startPath = candidate.starts.length === 1 ? [...at, 'start'] : [...at, 'starts', first.start];
-  return issue('nonlinear_start_not_finite', startPath, { candidate: candidate.name, start: first.start, row: first.row });
+  return issue('nonlinear_start_not_finite', startPath, { candidate: name, start: first.start, row: first.row });
 }
 
 export function fitNonlinear(

@@ -11,7 +11,7 @@ import type { JacobianFactor } from './covariance.ts';
 export interface StartSummary {
   /** Index of the start vector (0 for `start`). */
   start: number;
-  status: 'converged' | 'not-converged' | 'non-finite' | 'start-not-finite';
+  status: 'converged' | 'iteration-cap' | 'no-minimum' | 'rank-deficient' | 'non-finite' | 'start-not-finite';
   /** Σ w e² at its solution; null unless converged. */
   rss: number | null;
   iterations: number;

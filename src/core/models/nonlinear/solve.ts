@@ -5,6 +5,7 @@
 import { levenbergMarquardt, type LmSettings, type LmStop } from './lm/levenberg-marquardt.ts';
 import { refineFit, type RefinedFit } from './refine.ts';
 import type { ResidualProblem } from './residual-problem.ts';
+import { jacobianGeometry } from './covariance.ts';
 
 /** Tolerances of Moré's tests (MINPACK's ftol, xtol, gtol): at rounding level, so the fit runs to the end of double precision. */
 export const LM_TOLERANCES = { ftol: 1e-15, xtol: 1e-15, gtol: 1e-15 } as const;
@@ -24,7 +25,12 @@ export const CERTIFICATE_STEP = 1e-6;
 
 export type StartOutcome =
   | { start: number; status: 'converged'; rss: number; iterations: number; evaluations: number; stop: LmStop; refined: RefinedFit }
-  | { start: number; status: 'not-converged'; iterations: number; evaluations: number; stop: LmStop }
+  /** The iteration or evaluation cap came first. */
+  | { start: number; status: 'iteration-cap'; iterations: number; evaluations: number }
+  /** Levenberg–Marquardt stopped, but the certificate says the point is no minimum. */
+  | { start: number; status: 'no-minimum'; iterations: number; evaluations: number; relativeStep: number }
+  /** Where it stopped, some parameters are not identified (their Jacobian columns depend on the others). */
+  | { start: number; status: 'rank-deficient'; iterations: number; evaluations: number; dependent: number[] }
   | { start: number; status: 'non-finite'; iterations: number; evaluations: number; row: number }
   | { start: number; status: 'start-not-finite'; row: number };
 
@@ -44,13 +50,15 @@ export function solveFromStart(
   const lm = levenbergMarquardt(problem, start, settings);
   const { iterations, evaluations } = lm;
   if (lm.stop === 'non-finite') return { start: index, status: 'non-finite', iterations, evaluations, row: lm.nonFiniteRow };
-  if (lm.stop === 'iterations' || lm.stop === 'evaluations') {
-    return { start: index, status: 'not-converged', iterations, evaluations, stop: lm.stop };
-  }
+  if (lm.stop === 'iterations' || lm.stop === 'evaluations') return { start: index, status: 'iteration-cap', iterations, evaluations };
+  const jacobian = new Float64Array(problem.rows * problem.parameters);
+  if (problem.jacobian(lm.x, probe, jacobian) >= 0) return { start: index, status: 'non-finite', iterations, evaluations, row: -1 };
+  const { dependent } = jacobianGeometry(jacobian, problem.rows, problem.parameters);
+  if (dependent.length > 0) return { start: index, status: 'rank-deficient', iterations, evaluations, dependent };
   const refined = refineFit(problem, lm.x, bounds.lower, bounds.upper);
   if (!refined) return { start: index, status: 'non-finite', iterations, evaluations, row: -1 };
   if (!(refined.lastRelativeStep <= CERTIFICATE_STEP)) {
-    return { start: index, status: 'not-converged', iterations, evaluations, stop: lm.stop };
+    return { start: index, status: 'no-minimum', iterations, evaluations, relativeStep: refined.lastRelativeStep };
   }
   return { start: index, status: 'converged', rss: refined.rss, iterations, evaluations, stop: lm.stop, refined };
 }

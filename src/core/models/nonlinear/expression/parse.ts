@@ -186,8 +186,7 @@ class Parser {
       }
       if (isFunctionName(token.name)) {
         if (!opens) this.fail(this.peek(), `'(' after ${token.name} (a function, as in ${token.name}(x))`);
-        this.next();
-        const arg = this.group(token.at);
+        const arg = this.group(this.next().at);
         return { kind: 'call', fn: token.name, arg, at: token.at };
       }
       if (opens) throw new Failure({ reason: 'unknown_function', at: token.at, name: token.name });
