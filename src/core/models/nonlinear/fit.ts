@@ -11,7 +11,6 @@ import { centredTotalSumOfSquares } from '../../sums-of-squares.ts';
 import { isExactFit } from '../../fit/exact-fit.ts';
 import type { NonlinearCandidate } from './candidate.ts';
 import { coefficientTable } from './coefficient-table.ts';
-import { jacobianGeometry } from './covariance.ts';
 import { ResidualProblem } from './residual-problem.ts';
 import { bestOutcome, DEFAULT_MAX_ITERATIONS, solveFromStart, type StartOutcome } from './solve.ts';
 import { CONVERGENCE_RULE } from './conventions.ts';
@@ -82,17 +81,11 @@ export function fitNonlinear(
   const best = bestOutcome(outcomes);
   if (!best) return { issues: [failureIssue(candidate, outcomes, at, limit)] };
 
-  const { x, residuals, rss } = best.refined;
-  const jacobian = new Float64Array(n * p);
-  problem.jacobian(x, new Float64Array(n), jacobian);
-  const geometry = jacobianGeometry(jacobian, n, p);
-  if (geometry.unscaledCovariance === null || geometry.factor === null) {
-    return { issues: [issue('nonlinear_rank_deficient', at, { candidate: candidate.name, parameters: geometry.dependent.map((j) => candidate.parameters[j]) })] };
-  }
+  const { x, residuals, rss, jacobian } = best.refined;
+  const { unscaled, factor, conditionNumber } = best.covariance;
 
   const df = n - p;
   const sigma = Math.sqrt(rss / df);
-  const unscaled = geometry.unscaledCovariance;
   const standardErrors = candidate.parameters.map((_, j) => (sigma > 0 ? sigma * Math.sqrt(unscaled[j][j]) : null));
   let weightedResponseNorm = 0;
   for (let i = 0; i < n; i++) weightedResponseNorm += (weights ? weights[i] : 1) * y[i] * y[i];
@@ -126,7 +119,7 @@ export function fitNonlinear(
       estimates: Array.from(x),
       covariance: unscaled.map((row) => row.map((v) => sigma * sigma * v)),
       unscaledCovariance: unscaled,
-      conditionNumber: geometry.conditionNumber,
+      conditionNumber,
       atBounds: candidate.parameters.filter((_, j) => x[j] === candidate.lower[j] || x[j] === candidate.upper[j]),
       convergence: {
         converged: true,
@@ -142,7 +135,7 @@ export function fitNonlinear(
       residuals,
       weights,
       jacobian,
-      factor: geometry.factor,
+      factor,
     },
   };
 }

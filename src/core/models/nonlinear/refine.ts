@@ -25,6 +25,8 @@ export interface RefinedFit {
   lastRelativeStep: number;
   /** Largest cosine between the residual vector and a free parameter's Jacobian column at x. */
   gradientCosine: number;
+  /** The weighted Jacobian at x (column-major n x p), for the covariance. */
+  jacobian: Float64Array;
 }
 
 interface Residuals {
@@ -77,8 +79,10 @@ export function refineFit(
   let steps = 0;
   let lastRelativeStep = 0;
   let gradientCosine = 0;
+  let jacobianAtX = false;
   for (let round = 0; round <= MAX_REFINEMENT_STEPS; round++) {
     if (problem.jacobian(x, scratch, jac) >= 0) return null;
+    jacobianAtX = true;
     // f = sqrt(w) (model - y) = -sqrt(w) e, from the double-double residuals.
     let fnorm = 0;
     for (let i = 0; i < n; i++) {
@@ -121,6 +125,11 @@ export function refineFit(
     x = trial;
     current = next;
     steps++;
+    jacobianAtX = false;
+    // A step this small moves the parameters by tens of units in their last
+    // place: what is left is rounding, not a way down.
+    if (lastRelativeStep <= 64 * Number.EPSILON) break;
   }
-  return { x, residuals: current.e, rss: current.rss[0] + current.rss[1], steps, lastRelativeStep, gradientCosine };
+  if (!jacobianAtX && problem.jacobian(x, scratch, jac) >= 0) return null;
+  return { x, residuals: current.e, rss: current.rss[0] + current.rss[1], steps, lastRelativeStep, gradientCosine, jacobian: jac };
 }

@@ -4,7 +4,7 @@
 // the end of the fit.
 import type { LeastSquaresProblem } from './lm/levenberg-marquardt.ts';
 import { TapeEvaluator } from './expression/evaluate.ts';
-import { valuesDD } from './expression/evaluate-dd.ts';
+import { TapeEvaluatorDD } from './expression/evaluate-dd.ts';
 import type { Tape } from './expression/tape.ts';
 
 export interface ResidualData {
@@ -20,12 +20,14 @@ export class ResidualProblem implements LeastSquaresProblem {
   readonly rows: number;
   readonly parameters: number;
   private readonly evaluator: TapeEvaluator;
+  private readonly extended: TapeEvaluatorDD;
   private readonly rootWeights: Float64Array | null;
 
   constructor(readonly tape: Tape, readonly data: ResidualData) {
     this.rows = data.y.length;
     this.parameters = tape.parameters.length;
     this.evaluator = new TapeEvaluator(tape, data.columns, this.rows);
+    this.extended = new TapeEvaluatorDD(tape, data.columns, this.rows);
     this.rootWeights = data.weights ? data.weights.map(Math.sqrt) : null;
   }
 
@@ -73,7 +75,7 @@ export class ResidualProblem implements LeastSquaresProblem {
    * residuals and sums of squares; the first non-finite row or -1.
    */
   residualsDD(b: ArrayLike<number>, eh: Float64Array, el: Float64Array): number {
-    valuesDD(this.tape, this.data.columns, this.rows, b, eh, el);
+    this.extended.values(b, eh, el);
     const { y } = this.data;
     let bad = -1;
     for (let i = 0; i < this.rows; i++) {

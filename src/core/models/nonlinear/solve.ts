@@ -5,7 +5,7 @@
 import { levenbergMarquardt, type LmSettings, type LmStop } from './lm/levenberg-marquardt.ts';
 import { refineFit, type RefinedFit } from './refine.ts';
 import type { ResidualProblem } from './residual-problem.ts';
-import { jacobianGeometry } from './covariance.ts';
+import { jacobianGeometry, type JacobianFactor } from './covariance.ts';
 
 /** Tolerances of Moré's tests (MINPACK's ftol, xtol, gtol): at rounding level, so the fit runs to the end of double precision. */
 export const LM_TOLERANCES = { ftol: 1e-15, xtol: 1e-15, gtol: 1e-15 } as const;
@@ -24,7 +24,12 @@ export const EVALUATIONS_PER_ITERATION = 2;
 export const CERTIFICATE_STEP = 1e-6;
 
 export type StartOutcome =
-  | { start: number; status: 'converged'; rss: number; iterations: number; evaluations: number; stop: LmStop; refined: RefinedFit }
+  | {
+    start: number; status: 'converged'; rss: number; iterations: number; evaluations: number; stop: LmStop;
+    refined: RefinedFit;
+    /** (J'WJ)^-1 and R at the solution (full rank, or the outcome would be rank-deficient). */
+    covariance: { unscaled: number[][]; factor: JacobianFactor; conditionNumber: number | null };
+  }
   /** The iteration or evaluation cap came first. */
   | { start: number; status: 'iteration-cap'; iterations: number; evaluations: number }
   /** Levenberg–Marquardt stopped, but the certificate says the point is no minimum. */
@@ -51,16 +56,15 @@ export function solveFromStart(
   const { iterations, evaluations } = lm;
   if (lm.stop === 'non-finite') return { start: index, status: 'non-finite', iterations, evaluations, row: lm.nonFiniteRow };
   if (lm.stop === 'iterations' || lm.stop === 'evaluations') return { start: index, status: 'iteration-cap', iterations, evaluations };
-  const jacobian = new Float64Array(problem.rows * problem.parameters);
-  if (problem.jacobian(lm.x, probe, jacobian) >= 0) return { start: index, status: 'non-finite', iterations, evaluations, row: -1 };
-  const { dependent } = jacobianGeometry(jacobian, problem.rows, problem.parameters);
-  if (dependent.length > 0) return { start: index, status: 'rank-deficient', iterations, evaluations, dependent };
   const refined = refineFit(problem, lm.x, bounds.lower, bounds.upper);
   if (!refined) return { start: index, status: 'non-finite', iterations, evaluations, row: -1 };
+  const { dependent, unscaledCovariance, factor, conditionNumber } = jacobianGeometry(refined.jacobian, problem.rows, problem.parameters);
+  if (dependent.length > 0 || !unscaledCovariance || !factor) return { start: index, status: 'rank-deficient', iterations, evaluations, dependent };
   if (!(refined.lastRelativeStep <= CERTIFICATE_STEP)) {
     return { start: index, status: 'no-minimum', iterations, evaluations, relativeStep: refined.lastRelativeStep };
   }
-  return { start: index, status: 'converged', rss: refined.rss, iterations, evaluations, stop: lm.stop, refined };
+  const covariance = { unscaled: unscaledCovariance, factor, conditionNumber };
+  return { start: index, status: 'converged', rss: refined.rss, iterations, evaluations, stop: lm.stop, refined, covariance };
 }
 
 /** The converged outcome with the smallest sum of squares (the first on a tie), or null. */

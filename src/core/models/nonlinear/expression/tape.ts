@@ -8,8 +8,8 @@
 // and on the parameters: data-only entries (cos(2*pi*x/12)) are computed once
 // per fit, parameter-only ones (1/b3) once per parameter vector, and only
 // entries that depend on both are evaluated row by row at every iteration.
-import { ddAdd, ddDiv, ddExp, ddMul, ddSqrtDD, type DD } from '../../../numeric/double-double.ts';
-import { DD_PI, ddAtanDD, ddLog10DD, ddLogDD, ddPowDD, ddPowIntDD, ddSinCos, ddTanDD } from '../../../numeric/dd-elementary.ts';
+import { ddAdd, ddDiv, ddMul, ddSqrtDD, type DD } from '../../../numeric/double-double.ts';
+import { DD_PI, ddAtanDD, ddExpDD, ddLog10DD, ddLogDD, ddPowDD, ddPowIntDD, ddSinCos, ddTanDD } from '../../../numeric/dd-elementary.ts';
 import type { ExpressionNode, FunctionName } from './syntax.ts';
 
 export type UnaryCode = 'neg' | FunctionName;
@@ -50,7 +50,7 @@ export function applyDD(code: UnaryCode | BinaryCode, a: DD, b: DD = [0, 0]): DD
     case 'mul': return ddMul(a[0], a[1], b[0], b[1]);
     case 'div': return ddDiv(a[0], a[1], b[0], b[1]);
     case 'pow': return ddPowDD(a[0], a[1], b[0], b[1]);
-    case 'exp': return ddExp(a[0], a[1]);
+    case 'exp': return ddExpDD(a[0], a[1]);
     case 'log': return ddLogDD(a[0], a[1]);
     case 'log10': return ddLog10DD(a[0], a[1]);
     case 'sqrt': return a[0] < 0 ? [NaN, 0] : ddSqrtDD(a[0], a[1]);

@@ -3,9 +3,7 @@
 // linear engine's QR (src/core/fit), which keeps the caller's column order and
 // sets dependent columns aside, Moré's method needs R complete for every
 // column, with any rank deficiency pushed to the trailing diagonal, so that
-// the damped system (R; sqrt(λ) D P) stays solvable. Remaining norms are
-// recomputed at each step rather than downdated, which costs one more pass
-// per column and never loses them to cancellation.
+// the damped system (R; sqrt(λ) D P) stays solvable.
 
 export interface PivotedQR {
   /** Columns factorised. */
@@ -27,27 +25,23 @@ export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array
   for (let j = 0; j < q; j++) pivot[j] = j;
   const qf = Float64Array.from(f);
   const r = new Float64Array(q * q);
+  // Remaining norms, downdated after each step as LAPACK's dgeqp3 does, and
+  // recomputed once cancellation could have eaten half their digits.
+  const partial = new Float64Array(q);
+  const reference = new Float64Array(q);
+  for (let j = 0; j < q; j++) partial[j] = reference[j] = columnNorm(a, n, j, 0);
   const steps = Math.min(n, q);
   for (let k = 0; k < steps; k++) {
     let best = k;
-    let bestNorm = -1;
-    for (let j = k; j < q; j++) {
-      const off = j * n;
-      let s = 0;
-      for (let i = k; i < n; i++) s += a[off + i] * a[off + i];
-      if (s > bestNorm) {
-        bestNorm = s;
-        best = j;
-      }
-    }
+    for (let j = k + 1; j < q; j++) if (partial[j] > partial[best]) best = j;
     if (best !== k) {
       swapColumns(a, n, k, best);
-      const t = pivot[k];
-      pivot[k] = pivot[best];
-      pivot[best] = t;
+      [pivot[k], pivot[best]] = [pivot[best], pivot[k]];
+      [partial[k], partial[best]] = [partial[best], partial[k]];
+      [reference[k], reference[best]] = [reference[best], reference[k]];
     }
     const off = k * n;
-    const norm = Math.sqrt(bestNorm);
+    const norm = columnNorm(a, n, k, k);
     if (norm === 0) continue; // the rest is zero: R's trailing block stays zero
     const x0 = a[off + k];
     const alpha = x0 >= 0 ? -norm : norm;
@@ -60,6 +54,15 @@ export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array
       for (let i = k; i < n; i++) s += a[off + i] * a[offj + i];
       const c = s / beta;
       for (let i = k; i < n; i++) a[offj + i] -= c * a[off + i];
+      if (partial[j] !== 0) {
+        const ratio = Math.abs(a[offj + k]) / partial[j];
+        const shrink = Math.max(0, (1 + ratio) * (1 - ratio));
+        if (shrink * (partial[j] / reference[j]) ** 2 <= DOWNDATE_LIMIT) {
+          partial[j] = reference[j] = columnNorm(a, n, j, k + 1);
+        } else {
+          partial[j] *= Math.sqrt(shrink);
+        }
+      }
     }
     let s = 0;
     for (let i = k; i < n; i++) s += a[off + i] * qf[i];
@@ -73,6 +76,16 @@ export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array
   const qtf = new Float64Array(q);
   qtf.set(qf.subarray(0, steps));
   return { cols: q, r, pivot, qtf };
+}
+
+/** sqrt(eps): below this fraction of its last computed value a downdated norm is recomputed (LAPACK's tol3z). */
+const DOWNDATE_LIMIT = Math.sqrt(Number.EPSILON);
+
+function columnNorm(a: Float64Array, n: number, j: number, from: number): number {
+  const off = j * n;
+  let s = 0;
+  for (let i = from; i < n; i++) s += a[off + i] * a[off + i];
+  return Math.sqrt(s);
 }
 
 function swapColumns(a: Float64Array, n: number, j: number, k: number): void {
