@@ -28,9 +28,19 @@ export function tTwoSidedPValue(t: number, df: number): number {
   return betainc(df / (df + t * t), df / 2, 0.5, true, false);
 }
 
+/** Recently used critical values: the quantile is an iterative inversion, and every fit of one comparison asks for the same few. */
+const criticalValues = new Map<string, number>();
+
 /** The two-sided critical value t(1 - (1 - level)/2; df). */
 export function tCriticalValue(level: number, df: number): number {
-  return studentT.quantile(1 - (1 - level) / 2, df);
+  const key = `${level} ${df}`;
+  let value = criticalValues.get(key);
+  if (value === undefined) {
+    value = studentT.quantile(1 - (1 - level) / 2, df);
+    if (criticalValues.size >= 256) criticalValues.clear();
+    criticalValues.set(key, value);
+  }
+  return value;
 }
 
 export function coefficientTable(

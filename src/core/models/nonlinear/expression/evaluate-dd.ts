@@ -72,15 +72,16 @@ export class TapeEvaluatorDD {
   /** Model values at b as fh + fl. */
   values(b: ArrayLike<number>, fh: Float64Array, fl: Float64Array): void {
     const { ops, params } = this.tape;
-    ops.forEach((op, k) => {
-      if (this.held[k] !== 'scalar' || !params[k]) return;
+    for (let k = 0; k < ops.length; k++) {
+      if (this.held[k] !== 'scalar' || !params[k]) continue;
+      const op = ops[k];
       if (op.code === 'param') {
         this.hi[k][0] = b[op.index];
         this.lo[k][0] = 0;
       } else {
         this.apply(k, 0, 1);
       }
-    });
+    }
     const out = this.tape.output;
     for (let start = 0; start < this.rows; start += BLOCK_ROWS) {
       const m = Math.min(BLOCK_ROWS, this.rows - start);

@@ -79,11 +79,13 @@ export class TapeEvaluator {
 
   /** Sets the parameter vector: parameter entries and every parameter-only entry. */
   private setParameters(b: ArrayLike<number>): void {
-    this.tape.ops.forEach((op, k) => {
-      if (this.storage[k] !== Storage.Scalar || !this.tape.params[k]) return;
+    const { ops, params } = this.tape;
+    for (let k = 0; k < ops.length; k++) {
+      if (this.storage[k] !== Storage.Scalar || !params[k]) continue;
+      const op = ops[k];
       if (op.code === 'param') this.scalar[k][0] = b[op.index];
       else this.apply(k, this.scalar[k], 0, 1);
-    });
+    }
   }
 
   private forwardBlock(start: number, m: number): void {

@@ -13,7 +13,7 @@
 // A trial point where the model is not finite counts as no reduction: Δ
 // shrinks tenfold and the method tries a shorter step, which is how it steps
 // around a domain edge (log of a negative number, a pole).
-import { pivotedQR } from './pivoted-qr.ts';
+import { pivotedQR, type PivotedQR } from './pivoted-qr.ts';
 import { lmParameter } from './lm-parameter.ts';
 
 const EPS = 2 ** -52;
@@ -78,10 +78,11 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
   const n = problem.rows;
   const p = problem.parameters;
   const { lower, upper } = settings;
-  let x = Float64Array.from(x0);
+  let x = x0.slice();
   let f = new Float64Array(n);
   let trialF = new Float64Array(n);
   const jac = new Float64Array(n * p);
+  const scratch = new Float64Array(n * p);
   const diag = new Float64Array(p);
   const colNorm = new Float64Array(p);
   let evaluations = 1;
@@ -128,10 +129,15 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
     const q = free.length;
     if (q === 0) return outcome('gradient'); // every parameter held at a bound by its gradient
 
-    const work = new Float64Array(n * q);
-    free.forEach((j, c) => work.set(jac.subarray(j * n, (j + 1) * n), c * n));
+    // The QR overwrites its input; the Jacobian is not needed again this iteration.
+    let work = jac;
+    if (q < p) {
+      work = scratch;
+      for (let c = 0; c < q; c++) work.copyWithin(c * n, free[c] * n, (free[c] + 1) * n);
+    }
     const qr = pivotedQR(work, n, q, f);
-    const freeDiag = Float64Array.from(free, (j) => diag[j]);
+    const freeDiag = new Float64Array(q);
+    for (let c = 0; c < q; c++) freeDiag[c] = diag[free[c]];
 
     // Gradient test: the largest cosine between f and a free column of J.
     let gnorm = 0;
@@ -147,31 +153,21 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
     }
     if (gnorm <= settings.gtol) return outcome('gradient');
 
-    // R P' s and R' Q'f pieces for the predicted reduction of a projected step.
-    const rTimes = (s: Float64Array): Float64Array => {
-      const out = new Float64Array(q);
-      for (let i = 0; i < q; i++) {
-        let t = 0;
-        for (let k = i; k < q; k++) t += qr.r[i * q + k] * s[qr.pivot[k]];
-        out[i] = t;
-      }
-      return out;
-    };
-
     let lastNonFinite = -1;
     for (;;) {
       const lm = lmParameter(qr, freeDiag, delta, lambda);
       lambda = lm.lambda;
-      const trial = Float64Array.from(x);
+      const trial = x.slice();
       const taken = new Float64Array(q);
       let projected = false;
-      free.forEach((j, c) => {
+      for (let c = 0; c < q; c++) {
+        const j = free[c];
         const v = x[j] + lm.step[c];
         const clipped = Math.min(Math.max(v, lower[j]), upper[j]);
         if (clipped !== v) projected = true;
         trial[j] = clipped;
         taken[c] = clipped - x[j];
-      });
+      }
       const pnorm = scaledNorm(freeDiag, taken);
       if (iterations === 1) delta = Math.min(delta, pnorm);
 
@@ -183,7 +179,7 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
       // Predicted reduction and directional derivative, relative to ||f||².
       let prered: number;
       let dirder: number;
-      const rs = rTimes(taken);
+      const rs = rTimesPermuted(qr, taken);
       const t1 = norm(rs) / fnorm;
       if (!projected) {
         const t2 = (Math.sqrt(lambda) * pnorm) / fnorm;
@@ -227,6 +223,18 @@ export function levenbergMarquardt(problem: LeastSquaresProblem, x0: Float64Arra
       if (ratio >= 1e-4) break;
     }
   }
+}
+
+/** R P' s: the step in the QR's pivoted coordinates times R, for the predicted reduction. */
+function rTimesPermuted(qr: PivotedQR, s: Float64Array): Float64Array {
+  const q = qr.cols;
+  const out = new Float64Array(q);
+  for (let i = 0; i < q; i++) {
+    let t = 0;
+    for (let k = i; k < q; k++) t += qr.r[i * q + k] * s[qr.pivot[k]];
+    out[i] = t;
+  }
+  return out;
 }
 
 /** Moré's stopping tests, then the ones that say rounding allows no further progress. */

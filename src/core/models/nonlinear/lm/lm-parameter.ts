@@ -29,7 +29,7 @@ export interface LmStep {
 function dampedSolve(qr: PivotedQR, d: Float64Array, sdiag: Float64Array, out: Float64Array): void {
   const { cols: q, r, pivot, qtf } = qr;
   const rdiag = new Float64Array(q);
-  const wa = Float64Array.from(qtf);
+  const wa = qtf.slice();
   for (let j = 0; j < q; j++) {
     for (let i = j; i < q; i++) r[i * q + j] = r[j * q + i];
     rdiag[j] = r[j * q + j];
@@ -94,7 +94,6 @@ function scaledNorm(d: Float64Array, x: Float64Array): number {
  */
 export function lmParameter(qr: PivotedQR, d: Float64Array, delta: number, lambda: number): LmStep {
   const { cols: q, r, pivot, qtf } = qr;
-  const rd = (k: number) => r[k * q + k];
   const step = new Float64Array(q);
   const wa1 = new Float64Array(q);
   const wa2 = new Float64Array(q);
@@ -104,11 +103,11 @@ export function lmParameter(qr: PivotedQR, d: Float64Array, delta: number, lambd
   let nsing = q;
   for (let j = 0; j < q; j++) {
     wa1[j] = qtf[j];
-    if (rd(j) === 0 && nsing === q) nsing = j;
+    if (r[j * q + j] === 0 && nsing === q) nsing = j;
     if (nsing < q) wa1[j] = 0;
   }
   for (let j = nsing - 1; j >= 0; j--) {
-    wa1[j] /= rd(j);
+    wa1[j] /= r[j * q + j];
     const t = wa1[j];
     for (let i = 0; i < j; i++) wa1[i] -= r[i * q + j] * t;
   }
@@ -128,7 +127,7 @@ export function lmParameter(qr: PivotedQR, d: Float64Array, delta: number, lambd
     for (let j = 0; j < q; j++) {
       let s = 0;
       for (let i = 0; i < j; i++) s += r[i * q + j] * wa1[i];
-      wa1[j] = (wa1[j] - s) / rd(j);
+      wa1[j] = (wa1[j] - s) / r[j * q + j];
     }
     const t = norm(wa1);
     lower = fp / delta / t / t;

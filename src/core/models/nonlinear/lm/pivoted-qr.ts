@@ -23,7 +23,7 @@ export interface PivotedQR {
 export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array): PivotedQR {
   const pivot = new Int32Array(q);
   for (let j = 0; j < q; j++) pivot[j] = j;
-  const qf = Float64Array.from(f);
+  const qf = f.slice();
   const r = new Float64Array(q * q);
   // Remaining norms, downdated after each step as LAPACK's dgeqp3 does, and
   // recomputed once cancellation could have eaten half their digits.
@@ -36,9 +36,9 @@ export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array
     for (let j = k + 1; j < q; j++) if (partial[j] > partial[best]) best = j;
     if (best !== k) {
       swapColumns(a, n, k, best);
-      [pivot[k], pivot[best]] = [pivot[best], pivot[k]];
-      [partial[k], partial[best]] = [partial[best], partial[k]];
-      [reference[k], reference[best]] = [reference[best], reference[k]];
+      swapEntries(pivot, k, best);
+      swapEntries(partial, k, best);
+      swapEntries(reference, k, best);
     }
     const off = k * n;
     const norm = columnNorm(a, n, k, k);
@@ -86,6 +86,12 @@ function columnNorm(a: Float64Array, n: number, j: number, from: number): number
   let s = 0;
   for (let i = from; i < n; i++) s += a[off + i] * a[off + i];
   return Math.sqrt(s);
+}
+
+function swapEntries(v: Int32Array | Float64Array, j: number, k: number): void {
+  const t = v[j];
+  v[j] = v[k];
+  v[k] = t;
 }
 
 function swapColumns(a: Float64Array, n: number, j: number, k: number): void {
