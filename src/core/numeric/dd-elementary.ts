@@ -12,6 +12,7 @@
 // - atan: one Newton step on sin(y) - a cos(y) = 0 from the double atan.
 // Constants were split from 300-bit values computed with mpmath 1.2.1.
 import { ddAdd, ddDiv, ddExp, ddMul, ddMulDouble, ddSub, quickTwoSum, twoProduct, type DD } from './double-double.ts';
+import { addTo, mulTo, newCell } from './dd-cell.ts';
 
 export const DD_PI: DD = [3.141592653589793, 1.2246467991473532e-16];
 const PI_OVER_2: DD = [1.5707963267948966, 6.123233995736766e-17];
@@ -30,7 +31,6 @@ const INV_FACTORIAL: DD[] = (() => {
 })();
 
 const LN2: DD = [0.6931471805599453, 2.3190468138462996e-17];
-const SPLITTER = 134217729; // 2^27 + 1
 
 /** 2^(j/64), j = 0..63, in double-double (from the series-and-squaring exp of double-double.ts). */
 const EXP2_TABLE: DD[] = Array.from({ length: 64 }, (_, j) => {
@@ -39,48 +39,10 @@ const EXP2_TABLE: DD[] = Array.from({ length: 64 }, (_, j) => {
 });
 
 /** 1/k! for k = 2..13, highest first, for the Horner form of expm1 on |r| <= ln2/128. */
-const EXPM1_COEFFICIENTS: DD[] = (() => {
-  const out: DD[] = [];
-  let f: DD = [1, 0];
-  for (let k = 2; k <= 13; k++) {
-    f = ddMulDouble(f[0], f[1], k);
-    out.push(ddDiv(1, 0, f[0], f[1]));
-  }
-  return out.reverse();
-})();
+const EXPM1_COEFFICIENTS: DD[] = INV_FACTORIAL.slice(2, 14).reverse();
 
-// Results of the allocation-free helpers below: a double-double (H, L).
-let H = 0;
-let L = 0;
-
-/** (H, L) = (ah + al)(bh + bl), Dekker's product with the cross terms. */
-function mulInto(ah: number, al: number, bh: number, bl: number): void {
-  const p = ah * bh;
-  let t = SPLITTER * ah;
-  const a1 = t - (t - ah);
-  const a2 = ah - a1;
-  t = SPLITTER * bh;
-  const b1 = t - (t - bh);
-  const b2 = bh - b1;
-  const e = a1 * b1 - p + a1 * b2 + a2 * b1 + a2 * b2 + (ah * bl + al * bh);
-  H = p + e;
-  L = e - (H - p);
-}
-
-/** (H, L) = (ah + al) + (bh + bl), the QD library's accurate addition. */
-function addInto(ah: number, al: number, bh: number, bl: number): void {
-  const s = ah + bh;
-  const sb = s - ah;
-  const e = ah - (s - sb) + (bh - sb);
-  const t = al + bl;
-  const tb = t - al;
-  const f = al - (t - tb) + (bl - tb);
-  const e1 = e + t;
-  const h1 = s + e1;
-  const l1 = e1 - (h1 - s) + f;
-  H = h1 + l1;
-  L = l1 - (H - h1);
-}
+/** The scratch cell of ddExpDD (one pair per call instead of dozens). */
+const cell = newCell();
 
 const LN2_64_HI = LN2[0] / 64;
 const LN2_64_LO = LN2[1] / 64;
@@ -97,38 +59,39 @@ export function ddExpDD(ah: number, al: number): DD {
   if (ah > 709.78) return [Infinity, 0];
   if (ah < -745.2) return [0, 0];
   if (Number.isNaN(ah)) return [NaN, 0];
+  const c = cell;
   const n = Math.round(ah / LN2_64_HI);
   const j = ((n % 64) + 64) % 64;
   const k = (n - j) / 64;
   // r = a - n ln2/64: n times each part exactly (Dekker), subtracted accurately.
-  mulInto(n, 0, LN2_64_HI, 0);
-  addInto(ah, al, -H, -L);
-  const rh0 = H;
-  const rl0 = L;
-  mulInto(n, 0, LN2_64_LO, 0);
-  addInto(rh0, rl0, -H, -L);
-  const rh = H;
-  const rl = L;
+  mulTo(c, n, 0, LN2_64_HI, 0);
+  addTo(c, ah, al, -c.h, -c.l);
+  const rh0 = c.h;
+  const rl0 = c.l;
+  mulTo(c, n, 0, LN2_64_LO, 0);
+  addTo(c, rh0, rl0, -c.h, -c.l);
+  const rh = c.h;
+  const rl = c.l;
   // Horner: q = c13; q = q r + c_k; ...; expm1(r) = r + r² q.
   let qh = EXPM1_COEFFICIENTS[0][0];
   let ql = EXPM1_COEFFICIENTS[0][1];
-  for (let c = 1; c < EXPM1_COEFFICIENTS.length; c++) {
-    mulInto(qh, ql, rh, rl);
-    addInto(H, L, EXPM1_COEFFICIENTS[c][0], EXPM1_COEFFICIENTS[c][1]);
-    qh = H;
-    ql = L;
+  for (let m = 1; m < EXPM1_COEFFICIENTS.length; m++) {
+    mulTo(c, qh, ql, rh, rl);
+    addTo(c, c.h, c.l, EXPM1_COEFFICIENTS[m][0], EXPM1_COEFFICIENTS[m][1]);
+    qh = c.h;
+    ql = c.l;
   }
-  mulInto(rh, rl, rh, rl);
-  mulInto(H, L, qh, ql);
-  addInto(rh, rl, H, L);
+  mulTo(c, rh, rl, rh, rl);
+  mulTo(c, c.h, c.l, qh, ql);
+  addTo(c, rh, rl, c.h, c.l);
   const [tabh, tabl] = EXP2_TABLE[j];
-  mulInto(tabh, tabl, H, L);
-  addInto(tabh, tabl, H, L); // 2^(j/64) (1 + expm1(r))
+  mulTo(c, tabh, tabl, c.h, c.l);
+  addTo(c, tabh, tabl, c.h, c.l); // 2^(j/64) (1 + expm1(r))
   // 2^k in two factors, so neither overflows nor goes subnormal before the product.
   const k1 = Math.trunc(k / 2);
   const f1 = 2 ** k1;
   const f2 = 2 ** (k - k1);
-  return [H * f1 * f2, L * f1 * f2];
+  return [c.h * f1 * f2, c.l * f1 * f2];
 }
 
 /** ln(ah + al) for ah + al > 0. */

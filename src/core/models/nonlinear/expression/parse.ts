@@ -137,19 +137,19 @@ class Parser {
   }
 
   private sum(): ExpressionNode {
-    let left = this.product();
-    while (this.isSymbol(this.peek(), '+', '-')) {
-      const op = this.next() as Extract<Token, { kind: 'symbol' }>;
-      left = { kind: 'binary', op: op.symbol as BinaryOperator, left, right: this.product(), at: left.at };
-    }
-    return left;
+    return this.leftAssociative(() => this.product(), '+', '-');
   }
 
   private product(): ExpressionNode {
-    let left = this.unary();
-    while (this.isSymbol(this.peek(), '*', '/')) {
-      const op = this.next() as Extract<Token, { kind: 'symbol' }>;
-      left = { kind: 'binary', op: op.symbol as BinaryOperator, left, right: this.unary(), at: left.at };
+    return this.leftAssociative(() => this.unary(), '*', '/');
+  }
+
+  /** operand (op operand)* for operators of one precedence, grouped from the left: 1-2-3 is (1-2)-3. */
+  private leftAssociative(operand: () => ExpressionNode, ...symbols: BinaryOperator[]): ExpressionNode {
+    let left = operand();
+    for (let next = this.peek(); this.isSymbol(next, ...symbols); next = this.peek()) {
+      this.next();
+      left = { kind: 'binary', op: next.symbol as BinaryOperator, left, right: operand(), at: left.at };
     }
     return left;
   }
