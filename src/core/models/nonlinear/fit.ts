@@ -127,6 +127,8 @@ export function fitNonlinear(
         evaluations: best.evaluations,
         refinementSteps: best.refined.steps,
         stoppedBy: best.stop,
+        finalStep: best.refined.lastRelativeStep,
+        gradientCosine: best.refined.gradientCosine,
         start: best.start,
         starts: outcomes.map(summary),
         rule: CONVERGENCE_RULE,

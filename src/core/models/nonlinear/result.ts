@@ -27,6 +27,10 @@ export interface NonlinearConvergence {
   refinementSteps: number;
   /** Which of Moré's tests stopped the iteration. */
   stoppedBy: LmStop;
+  /** The certificate: ||D δ|| / ||D b|| of the Gauss–Newton step from the solution (at most 1e-6 to count as converged). */
+  finalStep: number;
+  /** Largest cosine between the residual vector and a free parameter's Jacobian column at the solution (0 at an exact minimum). */
+  gradientCosine: number;
   /** The start vector whose solution won (smallest sum of squares among converged ones). */
   start: number;
   /** Every start vector's outcome, in request order. */

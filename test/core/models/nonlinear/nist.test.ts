@@ -39,6 +39,7 @@ for (const file of NLS_FILES) {
       const p = cert.parameters.length;
       t.equal(fit.convergence.converged, true);
       t.ok(fit.convergence.iterations > 0);
+      t.ok(fit.convergence.finalStep <= 1e-6, `certificate: final Gauss–Newton step ${fit.convergence.finalStep.toExponential(1)}`);
       t.equal(fit.observations, ds.observations);
       t.equal(fit.parameters, p + 1, 'k = parameters + 1');
       t.equal(fit.residualDf, cert.degreesOfFreedom);
