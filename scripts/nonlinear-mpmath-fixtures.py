@@ -9,7 +9,7 @@ mpmath at 50 digits, written to test/reference/nonlinear/mpmath-reference.json:
    the responses to doubles moves the minimum's RSS in its fourth digit, so
    the tests check the engine's RSS and standard deviations against this.
    Gauss-Newton from the certified estimates, exact Jacobian by mpmath.diff.
-2. Double-double elementary functions (log, log10, sin, cos, tan, atan, pow)
+2. Double-double elementary functions (exp, log, log10, sin, cos, tan, atan, pow)
    at points given as hi + lo, their exact values split into hi + lo.
 
 Run with Debian's Python (mpmath 1.2 comes with python3-mpmath/sympy):
@@ -74,6 +74,12 @@ def lanczos1():
 def elementary():
     # Arguments hi + lo with a nonzero lo, so the low part matters.
     points = [
+        # exp: both signs, the reduction's table edges (j ln2/64 +- ln2/128),
+        # near 0, and close to overflow and underflow.
+        ("exp", [0.5, 1e-17]), ("exp", [-0.5, -2e-17]), ("exp", [1e-9, 3e-26]), ("exp", [-1e-9, 0.0]),
+        ("exp", [0.0054152123481245725, 1e-19]), ("exp", [0.016245637044373718, -1e-18]),
+        ("exp", [-107.3, 4e-15]), ("exp", [-200.125, 1e-14]), ("exp", [88.7, -3e-15]), ("exp", [709.5, 1e-14]),
+        ("exp", [-700.25, 2e-14]), ("exp", [3.7, 1.1e-16]), ("exp", [-25.9, -1e-15]),
         ("log", [0.7, 1.3e-17]), ("log", [1.0000001, -4e-24]), ("log", [123456.789, 3e-12]), ("log", [3.5e-8, 1e-25]),
         ("log10", [0.02, 1e-19]), ("log10", [987.65, -2e-14]),
         ("sin", [0.3, 1e-17]), ("sin", [2.5, -1e-16]), ("sin", [-7.9, 3e-16]), ("sin", [1000.5, 1e-14]), ("sin", [1.5707963267948966, 6.123233995736766e-17]),
@@ -91,7 +97,7 @@ def elementary():
             value = a ** b
         else:
             x = mpmath.mpf(arg[0]) + mpmath.mpf(arg[1])
-            value = {"log": mpmath.log, "log10": lambda v: mpmath.log(v, 10), "sin": mpmath.sin, "cos": mpmath.cos,
+            value = {"exp": mpmath.exp, "log": mpmath.log, "log10": lambda v: mpmath.log(v, 10), "sin": mpmath.sin, "cos": mpmath.cos,
                      "tan": mpmath.tan, "atan": mpmath.atan}[fn](x)
         out.append({"fn": fn, "argument": arg, "value": split(mpmath.re(value))})
     return out
