@@ -48,12 +48,37 @@ export function pivotedQR(a: Float64Array, n: number, q: number, f: Float64Array
     const v0 = x0 - alpha;
     a[off + k] = v0;
     const beta = -alpha * v0; // v'v / 2
-    for (let j = k + 1; j < q; j++) {
-      const offj = j * n;
+    // Columns two at a time: one pass over v serves both dot products and
+    // both updates, halving the reads of v (the loops are memory-bound on
+    // tall Jacobians). Each column's arithmetic is the same as one at a time.
+    let j0 = k + 1;
+    for (; j0 + 1 < q; j0 += 2) {
+      const o1 = j0 * n;
+      const o2 = o1 + n;
+      let s1 = 0;
+      let s2 = 0;
+      for (let i = k; i < n; i++) {
+        const v = a[off + i];
+        s1 += v * a[o1 + i];
+        s2 += v * a[o2 + i];
+      }
+      const c1 = s1 / beta;
+      const c2 = s2 / beta;
+      for (let i = k; i < n; i++) {
+        const v = a[off + i];
+        a[o1 + i] -= c1 * v;
+        a[o2 + i] -= c2 * v;
+      }
+    }
+    if (j0 < q) {
+      const offj = j0 * n;
       let s = 0;
       for (let i = k; i < n; i++) s += a[off + i] * a[offj + i];
       const c = s / beta;
       for (let i = k; i < n; i++) a[offj + i] -= c * a[off + i];
+    }
+    for (let j = k + 1; j < q; j++) {
+      const offj = j * n;
       if (partial[j] !== 0) {
         const ratio = Math.abs(a[offj + k]) / partial[j];
         const shrink = Math.max(0, (1 + ratio) * (1 - ratio));
