@@ -104,6 +104,28 @@ export interface IssueFacts {
   glm_fitted_count_mismatch: { fitted: number; rows: number };
   glm_fitted_mean_invalid: { family: string; row: number; value: number; support: string };
   glm_distribution_parameter_invalid: { family: string; parameter: string; value: number | null };
+  // Nonlinear mean functions (models/nonlinear): the expression, its
+  // parameters, start vectors and bounds, and fits that end without a
+  // solution. Offsets count characters (Unicode code points) from 0.
+  expression_syntax: { offset: number; expected: string; found: string };
+  expression_unknown_function: { offset: number; name: string; functions: string[] };
+  expression_unknown_column: { offset: number; column: string };
+  expression_column_not_numeric: { offset: number; column: string; row: number; value: string };
+  expression_too_long: { length: number; limit: number };
+  expression_too_deep: { offset: number; limit: number };
+  parameter_unused: { parameter: string };
+  parameter_name_invalid: { parameter: string; reason: string };
+  parameters_too_many: { parameters: number; limit: number };
+  start_missing: { given: 'neither' | 'both' };
+  starts_parameters_differ: { missing: string[]; extra: string[] };
+  start_value_not_finite: { parameter: string };
+  bound_unknown_parameter: { parameter: string };
+  bound_invalid: { parameter: string; lower: number | null; upper: number | null };
+  start_outside_bounds: { parameter: string; value: number; lower: number | null; upper: number | null };
+  nonlinear_start_not_finite: { candidate: string; start: number; row: number };
+  nonlinear_not_converged: { candidate: string; reason: 'iteration cap' | 'no minimum'; iterations: number; limit: number; starts: number };
+  nonlinear_non_finite: { candidate: string; row: number; starts: number };
+  nonlinear_rank_deficient: { candidate: string; parameters: string[] };
 }
 
 export type IssueCode = keyof IssueFacts;
@@ -290,6 +312,43 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
     `${at} is ${f.value} at row ${f.row}; a ${f.family} fitted mean must be ${f.support}.`,
   glm_distribution_parameter_invalid: (f, at) =>
     `${at}: the ${f.family} family needs its ${f.parameter} as a positive finite number${f.value === null ? '' : `, not ${f.value}`}.`,
+  // Nonlinear mean functions.
+  expression_syntax: (f, at) => `${at} cannot be read at offset ${f.offset}: expected ${f.expected}, found ${f.found}.`,
+  expression_unknown_function: (f, at) =>
+    `${at} calls ${JSON.stringify(f.name)} at offset ${f.offset}, which is not a function of the grammar (${f.functions.join(', ')}).`,
+  expression_unknown_column: (f, at) =>
+    `${at} uses the name ${JSON.stringify(f.column)} at offset ${f.offset}, which is neither a parameter (a key of start) nor a column of the data.`,
+  expression_column_not_numeric: (f, at) =>
+    `${at} uses column ${JSON.stringify(f.column)} at offset ${f.offset}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; an expression needs numeric columns.`,
+  expression_too_long: (f, at) => `${at} has ${f.length} characters, above the limit of ${f.limit}.`,
+  expression_too_deep: (f, at) =>
+    `${at} nests parentheses, functions, powers and minus signs more than ${f.limit} deep (at offset ${f.offset}).`,
+  parameter_unused: (f, at) =>
+    `${at} gives a start value for ${JSON.stringify(f.parameter)}, which the expression never uses; a parameter that does not enter the model cannot be estimated.`,
+  parameter_name_invalid: (f, at) => `${at} names the parameter ${JSON.stringify(f.parameter)}, which ${f.reason}.`,
+  parameters_too_many: (f, at) => `${at} has ${f.parameters} parameters, above the limit of ${f.limit}.`,
+  start_missing: (f, at) =>
+    f.given === 'both'
+      ? `${at} gives both start and starts; give one start vector as start, or several as starts.`
+      : `${at} gives no start values; a nonlinear candidate needs start (or starts), whose keys name its parameters.`,
+  starts_parameters_differ: (f, at) =>
+    `${at} does not name the same parameters as the first start vector${f.missing.length ? ` (missing ${quoteList(f.missing)})` : ''}${f.extra.length ? ` (extra ${quoteList(f.extra)})` : ''}; every start vector gives a value for every parameter.`,
+  start_value_not_finite: (f, at) => `${at}, the start value of ${JSON.stringify(f.parameter)}, is not a finite number.`,
+  bound_unknown_parameter: (f, at) => `${at} bounds ${JSON.stringify(f.parameter)}, which is not a parameter (a key of start).`,
+  bound_invalid: (f, at) =>
+    `${at} gives ${JSON.stringify(f.parameter)} the bounds [${f.lower}, ${f.upper}]; the lower bound must be below the upper one (null for none).`,
+  start_outside_bounds: (f, at) =>
+    `${at} starts ${JSON.stringify(f.parameter)} at ${f.value}, outside its bounds [${f.lower}, ${f.upper}].`,
+  nonlinear_start_not_finite: (f, at) =>
+    `${at} (${JSON.stringify(f.candidate)}) has no finite value at data row ${f.row} with start vector ${f.start}; choose start values where the expression is defined on every row.`,
+  nonlinear_not_converged: (f, at) =>
+    f.reason === 'iteration cap'
+      ? `${at} (${JSON.stringify(f.candidate)}) did not converge within ${f.limit} iterations from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Try start values closer to the solution, bounds, or a simpler expression.`
+      : `${at} (${JSON.stringify(f.candidate)}) stopped, from ${f.starts === 1 ? 'its start vector' : `each of its ${f.starts} start vectors`}, at parameter values that are not a least-squares minimum (a Gauss–Newton step from there still moves them); it is not ranked. The expression may not be smooth there, or a parameter may be heading for infinity or the edge of the expression's domain: try bounds or other start values.`,
+  nonlinear_non_finite: (f, at) =>
+    `${at} (${JSON.stringify(f.candidate)}) ran into parameter values where the expression or its derivatives have no finite value (first at data row ${f.row}) and could not step around them from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Bounds on the parameters can keep the fit inside the expression's domain.`,
+  nonlinear_rank_deficient: (f, at) =>
+    `${at} (${JSON.stringify(f.candidate)}) ends with a Jacobian of deficient rank: ${quoteList(f.parameters)} ${f.parameters.length === 1 ? 'is' : 'are'} not identified by the data (some combination of parameters leaves the fitted values unchanged), so no standard errors or comparable parameter count exist; it is not ranked. Remove or fix the redundant parameters.`,
 };
 
 /** Makes an issue with its standard message. */
