@@ -116,7 +116,7 @@ t.test('the strip names the model each criterion prefers and marks disagreement 
   // Same model, same swatch; a different model, a different patterned swatch.
   t.same(cells.map((c) => c.data.group), ['0', '1', '0', '0', '1']);
   t.ok(parsed.tags?.includes('pattern'), 'the second model gets a pattern, which survives grey printing');
-  t.ok(parsed.texts?.includes('Preferred model by criterion: 2 different models'));
+  t.ok(parsed.texts?.includes("Best by each of the verdict's 5 criteria: 2 different models"));
 
   const agreeing = fixtureRecord([
     { name: 'linear', rss: 3.0, parameters: 3 },
@@ -125,7 +125,7 @@ t.test('the strip names the model each criterion prefers and marks disagreement 
   const calm = draw(agreeing).parsed;
   t.same(marked(calm, 'strip-cell').map((c) => c.data.group), ['0', '0', '0', '0', '0']);
   t.notOk(calm.tags?.includes('pattern'));
-  t.ok(calm.texts?.includes('Preferred model by criterion: all agree'));
+  t.ok(calm.texts?.includes("Best by each of the verdict's 5 criteria: all agree"));
 });
 
 t.test('identical bytes for the same record and options, also from a copy of the record', async (t) => {
@@ -177,7 +177,7 @@ t.test('a long name is shortened with an ellipsis, the full name kept in the bar
   const row = marked(parsed, 'model-row').find((r) => r.data.model === long)!;
   t.ok(row, 'row found by its full name');
   const bar = marked(parsed, 'delta-bar').find((b) => b.data.model === long)!;
-  t.match(bar.title, new RegExp(`^${long.replace(/[+^]/g, '\\$&')}: Δ AICc`));
+  t.match(bar.title, new RegExp(`^A ${long.replace(/[+^]/g, '\\$&')}: Δ AICc`), 'the title names the key and the full name');
   const shown = parsed.texts!.find((s) => s.startsWith('peakTemp + ') && s.endsWith('…'));
   t.ok(shown, `truncated label ${shown}`);
   t.ok(shown!.length < long.length);
