@@ -59,11 +59,11 @@ function thresholds(models: [ModelView, Obj][]): string | null {
   return `Flagged when: ${facts.join('; ')}. High-leverage rows are counted against 2p/n.`;
 }
 
-/** Each distinct sentence once, with the models it was said of. */
-function saidOnce(items: [string, string][]): Html[] {
+/** Each distinct sentence once, with the models it was said of ("every model" when said of all `of` models). */
+function saidOnce(items: [string, string][], of: number): Html[] {
   const byText = new Map<string, string[]>();
   for (const [model, text] of items) byText.set(text, [...(byText.get(text) ?? []), model]);
-  return [...byText].map(([text, models]) => tag('li', {}, tag('strong', {}, `${models.join(', ')}: `), text));
+  return [...byText].map(([text, models]) => tag('li', {}, tag('strong', {}, `${models.length === of && of > 1 ? 'every model' : models.join(', ')}: `), text));
 }
 
 export function diagnosticsSection(record: StoredComparisonView): Html | null {
@@ -95,7 +95,7 @@ export function diagnosticsSection(record: StoredComparisonView): Html | null {
     )),
     rule === null ? null : tag('p', { class: 'note' }, rule),
     notes.length === 0 ? null : fragment(tag('h3', {}, 'About the checks'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-notes' }, ...[...new Set(notes.map(([, n]) => n))].map((n) => tag('li', {}, n)))),
-    cautions.length === 0 ? null : fragment(tag('h3', {}, 'What the checks found'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-cautions' }, ...saidOnce(cautions))),
+    cautions.length === 0 ? null : fragment(tag('h3', {}, 'What the checks found'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-cautions' }, ...saidOnce(cautions, known.length))),
     ...other.map((m) => tag('section', { class: 'diagnostics', 'data-model': m.name }, tag('h3', {}, m.name), valueTree(m.diagnostics))),
   );
 }
