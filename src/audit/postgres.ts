@@ -11,6 +11,8 @@ import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { postgresMigrations } from './migrations/postgres.ts';
+import type { ChainLinks } from './integrity.ts';
+import { chainLinksFromRows, chainLinksSql } from './links.ts';
 import { listFilter, pageOf, whereClause } from './query.ts';
 import { chainRecord, prepareRecord, RECORD_COLUMNS, recordToRow, rowToRecord, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
@@ -138,6 +140,11 @@ class PostgresAuditStore implements AuditStore {
     const reading = rowToRecord(rows[0] as RecordRow);
     if ('corrupt' in reading) throw new AuditRecordCorrupt(reading.corrupt.seq, reading.corrupt.id, reading.corrupt.problems);
     return reading.record;
+  }
+
+  async chainLinks(seq: number): Promise<ChainLinks> {
+    const { rows } = await this.query(chainLinksSql((n) => `$${n}`), [seq - 1, seq + 1]);
+    return chainLinksFromRows(rows, seq);
   }
 
   async list(query?: ListQuery): Promise<ListPage> {

@@ -11,6 +11,8 @@ import { AuditRecordCorrupt, AuditUnavailable } from './errors.ts';
 import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { sqliteMigrations } from './migrations/sqlite.ts';
+import type { ChainLinks } from './integrity.ts';
+import { chainLinksFromRows, chainLinksSql } from './links.ts';
 import { listFilter, pageOf, whereClause } from './query.ts';
 import { chainRecord, prepareRecord, RECORD_COLUMNS, recordToRow, rowToRecord, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
@@ -103,6 +105,11 @@ class SqliteAuditStore implements AuditStore {
     const reading = rowToRecord(row);
     if ('corrupt' in reading) throw new AuditRecordCorrupt(reading.corrupt.seq, reading.corrupt.id, reading.corrupt.problems);
     return reading.record;
+  }
+
+  async chainLinks(seq: number): Promise<ChainLinks> {
+    const rows = this.read(() => this.db.prepare(chainLinksSql(() => '?')).all(seq - 1, seq + 1)) as Parameters<typeof chainLinksFromRows>[0];
+    return chainLinksFromRows(rows, seq);
   }
 
   async list(query?: ListQuery): Promise<ListPage> {

@@ -5,7 +5,10 @@
 //
 // Caching: a stored record never changes (append-only, hash-chained) and the
 // renderers are deterministic, so a reply may be kept for a year without
-// asking again (RFC 9111 max-age; RFC 8246 immutable). It is `public` only
+// asking again (RFC 9111 max-age; RFC 8246 immutable). A copy kept while the
+// record was intact stays true to it, even if the row is edited later; a
+// record that fails its integrity check is drawn with that warning and never
+// cached (no-store), so repairing the database is seen at once. It is `public` only
 // when the request carried no credentials (the service runs open): with an API
 // key it is `private`, because `public` would let a shared cache serve a
 // read-role picture to anyone (RFC 9111 §3.5). A new service version may draw
@@ -35,7 +38,8 @@ import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { RecordParams } from '../schemas/record.ts';
 import { zodValidatorCompiler } from '../validation.ts';
-import { answeredResult, getComparison } from './records.ts';
+import type { RecordIntegrity } from '../../audit/integrity.ts';
+import { answeredResult, readRecord } from './records.ts';
 
 export const SVG_CONTENT_TYPE = 'image/svg+xml; charset=utf-8';
 export const HTML_CONTENT_TYPE = 'text/html; charset=utf-8';
@@ -89,22 +93,22 @@ async function recordAndOptions(
   id: string,
   query: unknown,
   reply: FastifyReply,
-): Promise<{ view: StoredComparisonView; options: ChartOptions } | null> {
-  const record = await getComparison(store, id, reply);
-  if (!record) return null;
-  const view = storedComparisonView(record, answeredResult(record));
+): Promise<{ view: StoredComparisonView; options: ChartOptions; integrity: RecordIntegrity } | null> {
+  const read = await readRecord(store, id, reply, 'comparison');
+  if (!read) return null;
+  const view = storedComparisonView(read.record, answeredResult(read.record), read.integrity);
   const parsed = parseChartOptions((query ?? {}) as Record<string, unknown>, view);
   if (!parsed.ok) {
     optionsProblem(reply, parsed.issues);
     return null;
   }
-  return { view, options: parsed.options };
+  return { view, options: parsed.options, integrity: read.integrity };
 }
 
-function sendPicture(request: FastifyRequest, reply: FastifyReply, body: string, contentType: string, policy: string): FastifyReply {
+function sendPicture(request: FastifyRequest, reply: FastifyReply, body: string, contentType: string, policy: string, intact: boolean): FastifyReply {
   const etag = `"${createHash('sha256').update(body).digest('base64url').slice(0, 32)}"`;
   const scope = request.headers.authorization === undefined ? 'public' : 'private';
-  reply.header('cache-control', `${scope}, ${IMMUTABLE}`).header('etag', etag).header('content-security-policy', policy);
+  reply.header('cache-control', intact ? `${scope}, ${IMMUTABLE}` : 'no-store').header('etag', etag).header('content-security-policy', policy);
   const held = request.headers['if-none-match'];
   if (typeof held === 'string' && held.split(',').some((tag) => tag.trim().replace(/^W\//, '') === etag)) {
     return reply.code(304).send();
@@ -135,7 +139,7 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
   }, async (request, reply) => {
     const found = await recordAndOptions(store, request.params.id, request.query, reply);
     if (!found) return reply;
-    return sendPicture(request, reply, renderChartSvg(found.view, found.options), SVG_CONTENT_TYPE, chartPolicyHeader);
+    return sendPicture(request, reply, renderChartSvg(found.view, found.options), SVG_CONTENT_TYPE, chartPolicyHeader, found.integrity.ok);
   });
 
   app.get('/v1/comparisons/:id/report', {
@@ -160,6 +164,6 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
     const found = await recordAndOptions(store, request.params.id, request.query, reply);
     if (!found) return reply;
     const html = renderReportHtml(found.view, { chartSvg: renderChartSvg(found.view, found.options) });
-    return sendPicture(request, reply, html, HTML_CONTENT_TYPE, reportPolicyHeader);
+    return sendPicture(request, reply, html, HTML_CONTENT_TYPE, reportPolicyHeader, found.integrity.ok);
   });
 };
