@@ -65,8 +65,10 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
     schema: {
       tags: ['searches'],
       summary: 'Score every subset of a pool of terms, refit the best and record the search',
-      description:
+      description: [
+        'Every subset of `pool` (with the `always` terms; with `hierarchy`, only subsets holding the terms a power or product is built from) is a candidate, scored on every core; the best `top` are refitted exactly and returned with their weights over every subset scored, and the search is appended to the audit chain. The example is the demo scenario (tile shrinkage, invented data).',
         'With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total }) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start are answered with their status as usual.',
+      ].join('\n\n'),
       body: SearchRequest,
       response: { 200: SearchResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
     },
