@@ -4,7 +4,7 @@
 // the numbers). A diagnostics object of another shape falls back to a tree.
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatPValue, formatSignificant } from './number-format.ts';
-import { valueTree } from './report-extras.ts';
+import { valueTree, whichModels } from './report-extras.ts';
 import type { ModelView, StoredComparisonView } from './types.ts';
 
 type Obj = Record<string, unknown>;
@@ -59,11 +59,17 @@ function thresholds(models: [ModelView, Obj][]): string | null {
   return `Flagged when: ${facts.join('; ')}. High-leverage rows are counted against 2p/n.`;
 }
 
-/** Each distinct sentence once, with the models it was said of ("every model" when said of all `of` models). */
+/**
+ * Each distinct sentence once, with the models it was said of ("every model"
+ * when said of all `of` models). What is said of every model comes first, so
+ * it does not sit between two findings about one model.
+ */
 function saidOnce(items: [string, string][], of: number): Html[] {
   const byText = new Map<string, string[]>();
   for (const [model, text] of items) byText.set(text, [...(byText.get(text) ?? []), model]);
-  return [...byText].map(([text, models]) => tag('li', {}, tag('strong', {}, `${models.length === of && of > 1 ? 'every model' : models.join(', ')}: `), text));
+  const ofAll = (models: string[]): boolean => models.length === of && of > 1;
+  const ordered = [...byText].sort(([, a], [, b]) => Number(ofAll(b)) - Number(ofAll(a)));
+  return ordered.map(([text, models]) => tag('li', {}, tag('strong', {}, `${whichModels(models, of)}: `), text));
 }
 
 export function diagnosticsSection(record: StoredComparisonView): Html | null {

@@ -122,7 +122,7 @@ function diagnosticFindings(diagnostics: unknown): Set<string> {
 }
 
 /** "every model", or the models' names. */
-function whichModels(names: string[], all: number): string {
+export function whichModels(names: string[], all: number): string {
   return names.length === all && all > 1 ? 'every model' : names.join(', ');
 }
 

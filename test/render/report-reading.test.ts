@@ -107,6 +107,19 @@ t.test('every finding once: shared cautions grouped, diagnostics findings not re
   t.match(text, /listed once, under Diagnostics/);
 });
 
+t.test('what the checks found: a finding said of every model comes before the findings of one model', async (t) => {
+  const record = kilnRecord();
+  const shared = 'Every candidate shares this finding.';
+  const own = 'Only the first candidate has this finding.';
+  // The shape the diagnostics table reads; the checks themselves are left unavailable.
+  const checked = (cautions: string[]) => ({ available: false, reason: 'not computed here', residualNormality: {}, heteroscedasticity: {}, autocorrelation: {}, multicollinearity: {}, influence: {}, cautions });
+  for (const m of record.result.models) m.diagnostics = checked([shared]);
+  record.result.models[0].diagnostics = checked([own, shared]);
+  const text = textOf(record);
+  t.match(text, new RegExp(`every model: ${shared.replace(/[.]/g, '\\.')}`));
+  t.ok(text.indexOf(`every model: ${shared}`) < text.indexOf(own), 'the shared finding first, though a model listed its own first');
+});
+
 t.test('integrity: a failure at the very top, an intact record in one line, nothing when unchecked', async (t) => {
   const failed = { ...kilnRecord(), integrity: { ok: false, reason: 'hash_mismatch', detail: 'Record 17 no longer hashes to its stored hash.' } };
   const html = renderReportHtml(failed);
