@@ -17,23 +17,53 @@ function verdictCell(value: string, passed: unknown): Html {
   return tag('td', {}, value);
 }
 
+/**
+ * Over its own threshold when the record states one; otherwise the check's
+ * verdict. A check of two numbers (VIF and condition number) passes or fails
+ * as a whole, and flagging both cells would mark a VIF of 1 as trouble.
+ */
+function overThreshold(value: unknown, threshold: unknown, passed: unknown): boolean | null {
+  const x = finiteOrNull(value);
+  const limit = finiteOrNull(threshold);
+  if (x === null) return null;
+  if (limit === null) return passed === false ? false : null;
+  return x <= limit;
+}
+
+// Screening numbers are read against a threshold: three significant digits say
+// all a reader needs (common practice for diagnostic tables).
+const screening = (value: unknown): string => formatSignificant(value, 'n/a', 3);
+
 const columns: { heading: string; cell: (d: Obj) => Html }[] = [
   { heading: 'normality p (Jarque–Bera)', cell: (d) => verdictCell(formatPValue(part(d, 'residualNormality').pValue), part(d, 'residualNormality').passed) },
   { heading: 'constant variance p (Breusch–Pagan)', cell: (d) => verdictCell(formatPValue(part(d, 'heteroscedasticity').pValue), part(d, 'heteroscedasticity').passed) },
-  { heading: 'Durbin–Watson', cell: (d) => verdictCell(formatSignificant(part(d, 'autocorrelation').statistic), part(d, 'autocorrelation').passed) },
+  { heading: 'Durbin–Watson', cell: (d) => verdictCell(screening(part(d, 'autocorrelation').statistic), part(d, 'autocorrelation').passed) },
   {
-    heading: 'largest VIF · condition number',
+    heading: 'largest VIF',
     cell: (d) => {
       const m = part(d, 'multicollinearity');
-      return verdictCell(`${formatSignificant(m.maxVarianceInflation)} · ${formatSignificant(m.conditionNumber)}`, m.passed);
+      return verdictCell(screening(m.maxVarianceInflation), overThreshold(m.maxVarianceInflation, m.varianceInflationThreshold, m.passed));
     },
   },
   {
-    heading: "largest Cook's distance · high-leverage rows",
+    heading: 'condition number',
+    cell: (d) => {
+      const m = part(d, 'multicollinearity');
+      return verdictCell(screening(m.conditionNumber), overThreshold(m.conditionNumber, m.conditionNumberThreshold, m.passed));
+    },
+  },
+  {
+    heading: "largest Cook's distance",
     cell: (d) => {
       const i = part(d, 'influence');
-      const rows = finiteOrNull(i.highLeverageRows);
-      return verdictCell(`${formatSignificant(i.maxCooksDistance)} · ${rows === null ? 'n/a' : String(rows)}`, i.passed);
+      return verdictCell(screening(i.maxCooksDistance), overThreshold(i.maxCooksDistance, i.cooksDistanceThreshold, i.passed));
+    },
+  },
+  {
+    heading: 'high-leverage rows',
+    cell: (d) => {
+      const rows = finiteOrNull(part(d, 'influence').highLeverageRows);
+      return verdictCell(rows === null ? 'n/a' : String(rows), rows === null ? null : rows === 0);
     },
   },
 ];

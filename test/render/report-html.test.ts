@@ -155,6 +155,10 @@ t.test('diagnostics: one table row per model, flags in words, each note and caut
   t.same(diag.map((r) => r.model), ['linear', 'quadratic', 'by-kiln'], 'a row per model with diagnostics');
   t.equal(diag[0].cells[2], '0.0071 · flagged', 'a failed check says so in words');
   t.equal(diag[1].cells[2], '0.3100', 'p-values to four decimals, as elsewhere in the report');
+  // The collinearity check failed on its condition number alone (78.3 > 30): only that cell says so.
+  t.equal(diag[0].cells[4], '1', 'a VIF of 1 is not flagged though its check failed');
+  t.equal(diag[0].cells[5], '78.3 · flagged', 'the condition number over its threshold is');
+  t.same(diag[0].cells.slice(6), ['0.088', '0'], "Cook's distance and high-leverage rows in columns of their own");
   t.equal(diag[2].cells[1], 'not available: fitted elsewhere');
   const count = (s: string) => parsed.text.split(s).length - 1;
   t.equal(count('Jarque–Bera is a large-sample test.'), 1, 'a note said once, not per model');
