@@ -8,7 +8,7 @@ import { bandRange } from './band-legend.ts';
 import { formatCriterionDelta, formatPercent } from './number-format.ts';
 import { palette } from './palette.ts';
 import { element, px, textElement } from './svg-markup.ts';
-import { truncateToWidth } from './text-measure.ts';
+import { estimateTextWidth, truncateToWidth } from './text-measure.ts';
 
 const zoneFill: Partial<Record<string, string>> = { weaker: palette.zoneWeaker, negligible: palette.zoneNegligible };
 
@@ -27,8 +27,16 @@ export function drawBands(content: ChartContent, layout: ChartLayout): string {
       const x1 = deltaToX(layout, Math.min(band.maxDelta ?? Infinity, layout.axisMax));
       parts.push(element('rect', { class: 'band-zone', 'data-band': band.band, x: x0, y: top, width: x1 - x0, height, fill }));
     });
+    // An axis number that would touch the one before it is left out (its
+    // line stays, and its tooltip still names it): at the narrowest widths
+    // "0 2 4 7 10" would otherwise run together.
+    const gap = layout.smallFont * 0.4;
+    let labelledTo = layout.deltaX + estimateTextWidth('0', layout.smallFont) / 2;
     for (const at of legend.lines) {
       const x = deltaToX(layout, at);
+      const half = estimateTextWidth(String(at), layout.smallFont) / 2;
+      const roomy = x - half >= labelledTo + gap;
+      if (roomy) labelledTo = x + half;
       const line = element('line', {
         x1: x, y1: layout.tickY + layout.smallFont * 0.3, x2: x, y2: layout.rowsBottom,
         stroke: palette.mutedInk, 'stroke-width': 0.8, 'stroke-dasharray': '3 2',
@@ -40,7 +48,7 @@ export function drawBands(content: ChartContent, layout: ChartLayout): string {
         ? `${bandRange(legend.rules, opened)}: ${legend.rules[opened].wording}`
         : `Δ = ${at}`;
       const title = textElement('title', {}, words);
-      parts.push(element('g', { class: 'band-line', 'data-at': at }, [title, line, label]));
+      parts.push(element('g', { class: 'band-line', 'data-at': at }, roomy ? [title, line, label] : [title, line]));
     }
   }
   parts.push(textElement('text', { x: layout.deltaX, y: layout.tickY, 'text-anchor': 'middle', 'font-size': layout.smallFont, fill: palette.mutedInk }, '0'));

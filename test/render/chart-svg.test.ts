@@ -195,3 +195,23 @@ t.test('names carrying markup are text, never elements', async (t) => {
   t.same(marked(parsed, 'delta-bar').map((b) => b.data.model).sort(), ['"><image href="x"/>', '<script>alert(1)</script>', 'a & b', "it's\uFFFDodd"].sort());
   t.equal(parsed.title, 'Ranking by AICc: <b>label</b> & co');
 });
+
+t.test('axis numbers never touch: at the narrowest width the crowded ones are left out, their lines kept', async (t) => {
+  /** Each band line's axis number and where it is centred, or null when left out. */
+  const axisNumbers = (svg: string) => [...svg.matchAll(/<g class="band-line" data-at="([^"]+)">(.*?)<\/g>/g)]
+    .map(([, at, inner]) => {
+      const label = /<text x="([^"]+)"[^>]*>([^<]+)<\/text>/.exec(inner);
+      return { at, x: label === null ? null : Number(label[1]) };
+    });
+  const wide = axisNumbers(draw(kilnRecord(), { size: 'panel' }).svg);
+  t.same(wide.map((n) => n.at), ['2', '4', '7', '10']);
+  t.ok(wide.every((n) => n.x !== null), 'at 720 px every line has its number');
+
+  const narrow = axisNumbers(draw(kilnRecord(), { width: 240 }).svg);
+  t.same(narrow.map((n) => n.at), ['2', '4', '7', '10'], 'every line is still drawn');
+  const shown = narrow.filter((n): n is { at: string; x: number } => n.x !== null);
+  t.ok(shown.length < narrow.length, `some numbers left out at 240 px (${shown.map((n) => n.at).join(', ')} shown)`);
+  // Centres at least a digit-pair apart: two numbers of up to two digits at this size cannot meet.
+  const fontSize = Number(/<g class="band-line"[^>]*>.*?<text[^>]*font-size="([^"]+)"/.exec(draw(kilnRecord(), { width: 240 }).svg)?.[1] ?? 'NaN');
+  for (let i = 1; i < shown.length; i++) t.ok(shown[i].x - shown[i - 1].x >= fontSize * 1.2, `${shown[i - 1].at} and ${shown[i].at} are apart`);
+});
