@@ -42,6 +42,7 @@ function nothingKeptBaseline(): AuditStore {
       return { ...(input as StoredRecord), id: randomUUID(), createdAt: new Date().toISOString(), seq, prevHash: zeros, hash: zeros };
     },
     get: async () => null,
+    chainLinks: async () => ({ previous: null, next: null, head: null }),
     list: async () => ({ records: [], corrupt: [], nextCursor: null }),
     verify: async () => ({ ok: true, records: seq, head: null, firstBroken: null }),
     ready: async () => true,

@@ -21,3 +21,5 @@ export type { VerifyReport, BreakReason } from './chain.ts';
 export { canonicalJson, requestDigest, sha256Hex, GENESIS_HASH } from './chain.ts';
 export { AuditUnavailable, AuditRecordInvalid, AuditRecordCorrupt, AuditCursorInvalid, AuditQueryInvalid } from './errors.ts';
 export type { AuditClock, RandomBytes } from './ids.ts';
+export { recordIntegrity, integrityReasons } from './integrity.ts';
+export type { RecordIntegrity, IntegrityReason, ChainLinks } from './integrity.ts';

@@ -14,6 +14,8 @@ import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { postgresMigrations } from './migrations/postgres.ts';
 import { listFilter, listQuery, pageOf, postgresDialect } from './query.ts';
 import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
+import type { ChainLinks } from './integrity.ts';
+import { chainLinksFromRows, chainLinksSql } from './links.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
 import { headFromRow, rowsThatFit, verifyByPages } from './verify-pages.ts';
 
@@ -145,6 +147,11 @@ class PostgresAuditStore implements AuditStore {
     const reading = rowToRecord(rows[0] as RecordRow);
     if ('corrupt' in reading) throw new AuditRecordCorrupt(reading.corrupt.seq, reading.corrupt.id, reading.corrupt.problems);
     return reading.record;
+  }
+
+  async chainLinks(seq: number): Promise<ChainLinks> {
+    const { rows } = await this.query(chainLinksSql((n) => `$${n}`), [seq - 1, seq + 1]);
+    return chainLinksFromRows(rows, seq);
   }
 
   async list(query?: ListQuery): Promise<ListPage> {

@@ -14,6 +14,8 @@ import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { sqliteMigrations } from './migrations/sqlite.ts';
 import { listFilter, listQuery, pageOf, sqliteDialect } from './query.ts';
 import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
+import type { ChainLinks } from './integrity.ts';
+import { chainLinksFromRows, chainLinksSql } from './links.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
 import { headFromRow, verifyByPages, type VerifyPage, type VerifyPageLimits } from './verify-pages.ts';
 import { rowBodyLength } from './verify-row.ts';
@@ -108,6 +110,11 @@ class SqliteAuditStore implements AuditStore {
     const reading = rowToRecord(row);
     if ('corrupt' in reading) throw new AuditRecordCorrupt(reading.corrupt.seq, reading.corrupt.id, reading.corrupt.problems);
     return reading.record;
+  }
+
+  async chainLinks(seq: number): Promise<ChainLinks> {
+    const rows = this.read(() => this.db.prepare(chainLinksSql(() => '?')).all(seq - 1, seq + 1)) as Parameters<typeof chainLinksFromRows>[0];
+    return chainLinksFromRows(rows, seq);
   }
 
   async list(query?: ListQuery): Promise<ListPage> {

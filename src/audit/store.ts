@@ -2,6 +2,7 @@
 // the way back out) and the AuditStore interface both databases implement.
 import { z } from 'zod';
 import type { RecordedHead, VerifyReport } from './chain.ts';
+import type { ChainLinks } from './integrity.ts';
 
 const hex64 = z.string().regex(/^[0-9a-f]{64}$/, 'expected 64 lowercase hex characters');
 const jsonObject = z.record(z.string(), z.unknown());
@@ -97,6 +98,8 @@ export interface AuditStore {
   append(input: NewRecord): Promise<StoredRecord>;
   /** null when no record has this id; rejects with AuditRecordCorrupt when the row is unreadable. */
   get(id: string): Promise<StoredRecord | null>;
+  /** The stored hashes around position `seq` and the committed head, for integrity on read (integrity.ts). */
+  chainLinks(seq: number): Promise<ChainLinks>;
   list(query?: ListQuery): Promise<ListPage>;
   /** Re-hashes the whole chain in seq order. */
   verify(): Promise<VerifyReport>;

@@ -64,6 +64,7 @@ export function withHeadWitness(store: AuditStore, path: string, options: Witnes
     verify: () => store.verify(),
     ready: () => store.ready(),
     head: () => store.head(),
+    chainLinks: (seq) => store.chainLinks(seq),
     async close() {
       if (timer) clearTimeout(timer);
       timer = null;

@@ -14,6 +14,7 @@ import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 import { zodValidatorCompiler } from './validation.ts';
 import { registerJsonBody } from './json-body.ts';
 import { openapiOptions } from './openapi-options.ts';
+import { docsUiOptions } from './docs-ui.ts';
 import { loadPolicyFile, type ActivePolicy } from '../policy-file.ts';
 import { withRefusals } from './plugins/refusal.ts';
 import { requestTimeoutOptions } from './plugins/request-timeout.ts';
@@ -111,7 +112,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
     processMetrics,
   });
 
-  await app.register(swaggerUi, { routePrefix: '/docs' });
+  await app.register(swaggerUi, docsUiOptions);
   app.metrics.watchPool(() => pool.stats());
   const countReplaced = () => app.metrics.computeWorkersReplaced.inc();
   pool.on('replaced', countReplaced);

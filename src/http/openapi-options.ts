@@ -1,7 +1,9 @@
 // The OpenAPI 3.1 document's frame: info, tags, the bearer scheme, and the
-// finishing touches the route schemas cannot express themselves.
+// finishing touches the route schemas cannot express themselves (problem
+// media types, the refusals of the access layer, worked examples).
 import type { FastifyDynamicSwaggerOptions } from '@fastify/swagger';
 import { jsonSchemaTransform, jsonSchemaTransformObject } from 'fastify-type-provider-zod';
+import { attachExamples } from './openapi-examples.ts';
 import { openapiInfo } from './openapi-info.ts';
 import { finishDocument } from './openapi-problems.ts';
 
@@ -27,5 +29,5 @@ export const openapiOptions: FastifyDynamicSwaggerOptions = {
     security: [{ apiKey: [] }],
   },
   transform: jsonSchemaTransform,
-  transformObject: (input) => finishDocument(jsonSchemaTransformObject(input)),
+  transformObject: (input) => attachExamples(finishDocument(jsonSchemaTransformObject(input))),
   };

@@ -47,6 +47,23 @@ export function rankedCriteria(record: StoredComparisonView): CriterionName[] {
   return criterionNames.filter((c) => Array.isArray(rankings[c]) && (rankings[c]?.length ?? 0) > 0);
 }
 
+/**
+ * The criteria the verdict counts (the keys of verdict.best, in the contract's
+ * order), so the strip of preferred models and the verdict's sentence count
+ * the same criteria and tell one story. A record without verdict.best: every
+ * ranked criterion but leave-one-out, a check of prediction error that no
+ * verdict counts.
+ */
+export function verdictCriteria(record: StoredComparisonView): CriterionName[] {
+  const ranked = rankedCriteria(record);
+  const best = record.result?.verdict?.best;
+  if (best !== null && typeof best === 'object' && Object.keys(best).length > 0) {
+    const counted = ranked.filter((c) => Object.hasOwn(best, c));
+    if (counted.length > 0) return counted;
+  }
+  return ranked.filter((c) => c !== 'loo');
+}
+
 /** The criterion the record itself was ranked by, if it ranked by one it has. */
 export function defaultCriterion(record: StoredComparisonView): CriterionName | null {
   const ranked = rankedCriteria(record);

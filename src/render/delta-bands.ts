@@ -93,3 +93,20 @@ export function entryBandWording(entry: Pick<RankingEntry, 'band' | 'delta'>, cr
   const delta = typeof entry.delta === 'number' ? entry.delta : null;
   return bandOf(delta, ownBands[family])?.wording ?? null;
 }
+
+/**
+ * The words a person reads beside a Δ: the best model (Δ = 0) is "best" (or
+ * "tied for best"), never a band, because a band measures the evidence against
+ * a model relative to the best, and "evidence against it barely worth a
+ * mention" said of the best model itself misleads; every other entry gets its
+ * band's words (entryBandWording).
+ */
+export function supportWording(entry: Pick<RankingEntry, 'band' | 'delta'>, criterion: CriterionName, atBest: number): string | null {
+  if (entry.delta === 0) return atBest > 1 ? 'tied for best' : 'best';
+  return entryBandWording(entry, criterion);
+}
+
+/** How many entries share the best value (Δ = 0). */
+export function countAtBest(entries: readonly Pick<RankingEntry, 'delta'>[]): number {
+  return entries.filter((e) => e.delta === 0).length;
+}

@@ -3,6 +3,7 @@
 // the audit store (src/audit/chain.ts); it is a parameter, defaulting to the
 // store's rule in words, so the route can pass the store's own wording.
 import { fragment, tag, type Html } from './html-markup.ts';
+import { integrityFact } from './report-integrity.ts';
 import type { StoredComparisonView } from './types.ts';
 
 export interface ChainVerification {
@@ -31,6 +32,11 @@ export const defaultChainVerification: ChainVerification = {
 /** The store starts its chain from 64 zeros; older or foreign records may say null. */
 const genesis = /^0{64}$/;
 
+function integrityLine(record: StoredComparisonView): Html[] {
+  const fact = integrityFact(record);
+  return fact === null ? [] : [tag('dt', {}, fact[0]), tag('dd', { 'data-integrity': record.integrity?.ok ? 'ok' : 'failed' }, fact[1])];
+}
+
 export function chainSection(record: StoredComparisonView, rule: ChainVerification): Html {
   const first = record.prevHash === null || record.prevHash === undefined || record.prevHash === '' || genesis.test(record.prevHash);
   return fragment(
@@ -39,6 +45,7 @@ export function chainSection(record: StoredComparisonView, rule: ChainVerificati
       tag('dt', {}, 'position'), tag('dd', { 'data-seq': String(record.seq) }, `record ${record.seq}`),
       tag('dt', {}, 'hash'), tag('dd', { class: 'hash' }, String(record.hash)),
       tag('dt', {}, 'previous hash'), tag('dd', { class: 'hash' }, first ? 'none: this is the first record' : String(record.prevHash)),
+      ...integrityLine(record),
     ),
     tag('p', {},
       'To check the whole chain, ask the service: ',

@@ -4,7 +4,7 @@
 // the numbers). A diagnostics object of another shape falls back to a tree.
 import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatPValue, formatSignificant } from './number-format.ts';
-import { valueTree } from './report-extras.ts';
+import { valueTree, whichModels } from './report-extras.ts';
 import type { ModelView, StoredComparisonView } from './types.ts';
 
 type Obj = Record<string, unknown>;
@@ -17,23 +17,53 @@ function verdictCell(value: string, passed: unknown): Html {
   return tag('td', {}, value);
 }
 
+/**
+ * Over its own threshold when the record states one; otherwise the check's
+ * verdict. A check of two numbers (VIF and condition number) passes or fails
+ * as a whole, and flagging both cells would mark a VIF of 1 as trouble.
+ */
+function overThreshold(value: unknown, threshold: unknown, passed: unknown): boolean | null {
+  const x = finiteOrNull(value);
+  const limit = finiteOrNull(threshold);
+  if (x === null) return null;
+  if (limit === null) return passed === false ? false : null;
+  return x <= limit;
+}
+
+// Screening numbers are read against a threshold: three significant digits say
+// all a reader needs (common practice for diagnostic tables).
+const screening = (value: unknown): string => formatSignificant(value, 'n/a', 3);
+
 const columns: { heading: string; cell: (d: Obj) => Html }[] = [
   { heading: 'normality p (Jarque–Bera)', cell: (d) => verdictCell(formatPValue(part(d, 'residualNormality').pValue), part(d, 'residualNormality').passed) },
   { heading: 'constant variance p (Breusch–Pagan)', cell: (d) => verdictCell(formatPValue(part(d, 'heteroscedasticity').pValue), part(d, 'heteroscedasticity').passed) },
-  { heading: 'Durbin–Watson', cell: (d) => verdictCell(formatSignificant(part(d, 'autocorrelation').statistic), part(d, 'autocorrelation').passed) },
+  { heading: 'Durbin–Watson', cell: (d) => verdictCell(screening(part(d, 'autocorrelation').statistic), part(d, 'autocorrelation').passed) },
   {
-    heading: 'largest VIF · condition number',
+    heading: 'largest VIF',
     cell: (d) => {
       const m = part(d, 'multicollinearity');
-      return verdictCell(`${formatSignificant(m.maxVarianceInflation)} · ${formatSignificant(m.conditionNumber)}`, m.passed);
+      return verdictCell(screening(m.maxVarianceInflation), overThreshold(m.maxVarianceInflation, m.varianceInflationThreshold, m.passed));
     },
   },
   {
-    heading: "largest Cook's distance · high-leverage rows",
+    heading: 'condition number',
+    cell: (d) => {
+      const m = part(d, 'multicollinearity');
+      return verdictCell(screening(m.conditionNumber), overThreshold(m.conditionNumber, m.conditionNumberThreshold, m.passed));
+    },
+  },
+  {
+    heading: "largest Cook's distance",
     cell: (d) => {
       const i = part(d, 'influence');
-      const rows = finiteOrNull(i.highLeverageRows);
-      return verdictCell(`${formatSignificant(i.maxCooksDistance)} · ${rows === null ? 'n/a' : String(rows)}`, i.passed);
+      return verdictCell(screening(i.maxCooksDistance), overThreshold(i.maxCooksDistance, i.cooksDistanceThreshold, i.passed));
+    },
+  },
+  {
+    heading: 'high-leverage rows',
+    cell: (d) => {
+      const rows = finiteOrNull(part(d, 'influence').highLeverageRows);
+      return verdictCell(rows === null ? 'n/a' : String(rows), rows === null ? null : rows === 0);
     },
   },
 ];
@@ -59,11 +89,17 @@ function thresholds(models: [ModelView, Obj][]): string | null {
   return `Flagged when: ${facts.join('; ')}. High-leverage rows are counted against 2p/n.`;
 }
 
-/** Each distinct sentence once, with the models it was said of. */
-function saidOnce(items: [string, string][]): Html[] {
+/**
+ * Each distinct sentence once, with the models it was said of ("every model"
+ * when said of all `of` models). What is said of every model comes first, so
+ * it does not sit between two findings about one model.
+ */
+function saidOnce(items: [string, string][], of: number): Html[] {
   const byText = new Map<string, string[]>();
   for (const [model, text] of items) byText.set(text, [...(byText.get(text) ?? []), model]);
-  return [...byText].map(([text, models]) => tag('li', {}, tag('strong', {}, `${models.join(', ')}: `), text));
+  const ofAll = (models: string[]): boolean => models.length === of && of > 1;
+  const ordered = [...byText].sort(([, a], [, b]) => Number(ofAll(b)) - Number(ofAll(a)));
+  return ordered.map(([text, models]) => tag('li', {}, tag('strong', {}, `${whichModels(models, of)}: `), text));
 }
 
 export function diagnosticsSection(record: StoredComparisonView): Html | null {
@@ -95,7 +131,7 @@ export function diagnosticsSection(record: StoredComparisonView): Html | null {
     )),
     rule === null ? null : tag('p', { class: 'note' }, rule),
     notes.length === 0 ? null : fragment(tag('h3', {}, 'About the checks'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-notes' }, ...[...new Set(notes.map(([, n]) => n))].map((n) => tag('li', {}, n)))),
-    cautions.length === 0 ? null : fragment(tag('h3', {}, 'What the checks found'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-cautions' }, ...saidOnce(cautions))),
+    cautions.length === 0 ? null : fragment(tag('h3', {}, 'What the checks found'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-cautions' }, ...saidOnce(cautions, known.length))),
     ...other.map((m) => tag('section', { class: 'diagnostics', 'data-model': m.name }, tag('h3', {}, m.name), valueTree(m.diagnostics))),
   );
 }

@@ -3,8 +3,11 @@
 // appear because one of them stands for every comparison.
 import { firstRows, leftOutNote, REPORT_ROW_LIMITS } from './bounded-rows.ts';
 import { fragment, tag, type Html } from './html-markup.ts';
-import { finiteOrNull, formatPValue, formatSignificant } from './number-format.ts';
+import { finiteOrNull, formatPercent, formatPValue, formatSignificant } from './number-format.ts';
+import { predictionTable } from './report-coefficients.ts';
+import { breakableName } from './report-table.ts';
 import type { CautionView, StoredComparisonView } from './types.ts';
+import { keyInWords } from './words.ts';
 
 /** Said on every report, whatever the numbers: the service's own limits. */
 export const standingCaution =
@@ -62,47 +65,45 @@ export function nestedTestsSection(record: StoredComparisonView): Html | null {
   );
 }
 
-function predictionsTable(predictions: unknown[], recordId: string): Html {
-  const { shown, total } = firstRows(predictions, REPORT_ROW_LIMITS.averagedPredictions);
-  const rows = shown.filter((p): p is Record<string, unknown> => p !== null && typeof p === 'object' && !Array.isArray(p));
-  const keys = [...new Set(rows.flatMap((r) => Object.keys(r)))];
-  return fragment(
-    tag('div', { class: 'table-wrap' }, tag('table', { 'data-section': 'averaged-predictions' },
-      tag('caption', {}, 'Averaged predictions'),
-      tag('thead', {}, tag('tr', {}, tag('th', { scope: 'col' }, 'row'), ...keys.map((k) => tag('th', { scope: 'col' }, k)))),
-      tag('tbody', {}, ...rows.map((r, i) => tag('tr', {}, tag('td', {}, String(i + 1)), ...keys.map((k) => tag('td', {}, valueTree(r[k], 3)))))),
-    )),
-    leftOutNote(shown.length, total, 'averaged predictions', recordId),
-  );
+/** Which models the coefficients were averaged over, and their weight, when the record says. */
+function averagedOver(averaged: NonNullable<StoredComparisonView['result']['averaged']>): Html | null {
+  const models = Array.isArray(averaged.models) ? averaged.models.map(String) : [];
+  const covered = finiteOrNull(averaged.weightCovered);
+  if (models.length === 0 && covered === null) return null;
+  const over = models.length === 0 ? 'Coefficients averaged over the models on one response scale' : `Coefficients averaged over ${models.join(', ')}`;
+  const weight = covered === null ? '' : `, which hold ${formatPercent(covered)} of the weight`;
+  const short = covered !== null && covered < 1 ? '; the other models (another response scale) are left out of the coefficients, not of the predictions' : '';
+  return tag('p', { class: covered !== null && covered < 1 ? 'note emphasis' : 'note', 'data-section': 'averaged-over' }, `${over}${weight}${short}.`);
 }
 
 export function averagedSection(record: StoredComparisonView): Html | null {
   const averaged = record.result.averaged;
   const allTerms = averaged?.terms ?? [];
   const predictions = averaged?.predictions ?? [];
-  if (allTerms.length === 0 && predictions.length === 0) return null;
+  if (!averaged || (allTerms.length === 0 && predictions.length === 0)) return null;
   const { shown: terms, total: termCount } = firstRows(allTerms, REPORT_ROW_LIMITS.averagedTerms);
   return fragment(
     tag('h2', { id: 'averaged' }, 'Averaged estimates'),
     tag('p', { class: 'note' }, 'Estimates averaged over the candidates with their weights; the unconditional standard error includes the uncertainty of which model is right.'),
+    averagedOver(averaged),
     terms.length === 0 ? null : tag('div', { class: 'table-wrap' }, tag('table', { 'data-section': 'averaged-terms' },
       tag('thead', {}, tag('tr', {}, ...['term', 'estimate', 'unconditional standard error', 'importance'].map((h, i) => tag('th', { scope: 'col', class: i === 0 ? 'name' : null }, h)))),
       tag('tbody', {}, ...terms.map((t) => tag('tr', { 'data-term': String(t.term) },
-        tag('td', { class: 'name' }, String(t.term)),
+        tag('td', { class: 'name' }, breakableName(t.term)),
         tag('td', {}, formatSignificant(t.estimate)),
         tag('td', {}, formatSignificant(t.unconditionalStandardError)),
-        tag('td', {}, finiteOrNull(t.importance) === null ? 'n/a' : formatSignificant(t.importance)),
+        tag('td', {}, finiteOrNull(t.importance) === null ? 'n/a' : formatSignificant(t.importance, 'n/a', 3)),
       ))),
     )),
     leftOutNote(terms.length, termCount, 'averaged terms', record.id),
-    predictions.length === 0 ? null : predictionsTable(predictions, record.id),
+    predictions.length === 0 ? null : predictionTable(record, predictions, 'Averaged predictions', 'averaged predictions', { 'data-section': 'averaged-predictions' }),
   );
 }
 
-/** The facts of a caution on one line: "rows 3; parameters 5". */
+/** The facts of a caution on one line, in words: "rows dropped 3; parameters 5". */
 function inlineFacts(facts: Record<string, unknown>): string {
   return Object.entries(facts)
-    .map(([key, v]) => `${key} ${typeof v === 'number' ? formatSignificant(v) : typeof v === 'string' ? v : JSON.stringify(v)}`)
+    .map(([key, v]) => `${keyInWords(key)} ${typeof v === 'number' ? formatSignificant(v) : typeof v === 'string' ? v : JSON.stringify(v)}`)
     .join('; ');
 }
 
@@ -115,13 +116,52 @@ function cautionItem(caution: CautionView, about: string | null): Html {
   return tag('li', { 'data-code': typeof code === 'string' ? code : null }, prefix, words, detail);
 }
 
+const cautionText = (c: CautionView): string => (typeof c === 'string' ? c : typeof c?.message === 'string' ? c.message : '');
+
+/** The cautions the diagnostics table already lists for a model ("What the checks found"). */
+function diagnosticFindings(diagnostics: unknown): Set<string> {
+  const cautions = diagnostics !== null && typeof diagnostics === 'object' ? (diagnostics as { cautions?: unknown }).cautions : undefined;
+  return new Set(Array.isArray(cautions) ? cautions.filter((c): c is string => typeof c === 'string') : []);
+}
+
+/** "every model", or the models' names. */
+export function whichModels(names: string[], all: number): string {
+  return names.length === all && all > 1 ? 'every model' : names.join(', ');
+}
+
+/**
+ * The standing caution, then the record's own cautions and each model's, every
+ * finding said once: a caution said of several models is one item naming them,
+ * the findings the diagnostics section lists are not repeated here, and the
+ * record's "ranking is not validation" caution is the standing one.
+ */
 export function cautionsSection(record: StoredComparisonView): Html {
   const items: Html[] = [];
-  for (const c of record.result.cautions ?? []) items.push(cautionItem(c, null));
-  for (const m of record.result.models ?? []) for (const c of m.cautions ?? []) items.push(cautionItem(c, m.name));
+  for (const c of record.result.cautions ?? []) {
+    if (typeof c === 'object' && c?.code === 'ranking_is_not_validation') continue;
+    items.push(cautionItem(c, null));
+  }
+  const models = record.result.models ?? [];
+  const grouped = new Map<string, { caution: CautionView; models: string[] }>();
+  let listedUnderDiagnostics = 0;
+  for (const m of models) {
+    const findings = diagnosticFindings(m.diagnostics);
+    for (const c of m.cautions ?? []) {
+      if (findings.has(cautionText(c))) {
+        listedUnderDiagnostics += 1;
+        continue;
+      }
+      const key = JSON.stringify(c);
+      const group = grouped.get(key) ?? { caution: c, models: [] };
+      if (!group.models.includes(m.name)) group.models.push(m.name);
+      grouped.set(key, group);
+    }
+  }
+  for (const { caution, models: names } of grouped.values()) items.push(cautionItem(caution, whichModels(names, models.length)));
   return fragment(
     tag('h2', { id: 'cautions' }, 'Cautions'),
     tag('p', { class: 'standing', 'data-caution': 'standing' }, standingCaution),
     items.length === 0 ? tag('p', { class: 'note' }, 'No further cautions for this comparison.') : tag('ul', { class: 'cautions' }, ...items),
+    listedUnderDiagnostics === 0 ? null : tag('p', { class: 'note' }, 'The findings of the residual and design checks are listed once, under Diagnostics.'),
   );
 }

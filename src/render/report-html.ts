@@ -8,10 +8,14 @@ import { criterionDisplayName } from './criteria.ts';
 import { fragment, raw, tag, type Html } from './html-markup.ts';
 import { formatCount } from './number-format.ts';
 import { chainSection, defaultChainVerification, type ChainVerification } from './report-chain.ts';
+import { coefficientTables, predictionsSection } from './report-coefficients.ts';
+import { datasetAndConventions } from './report-conventions.ts';
 import { diagnosticsSection } from './report-diagnostics.ts';
-import { averagedSection, cautionsSection, nestedTestsSection, valueTree } from './report-extras.ts';
+import { averagedSection, cautionsSection, nestedTestsSection } from './report-extras.ts';
+import { integrityNotice } from './report-integrity.ts';
 import { reportStyle } from './report-style.ts';
-import { coefficientTables, modelsTable, rankingTables, supportNote } from './report-tables.ts';
+import { breakableName, factsList } from './report-table.ts';
+import { modelFitTable, modelsTable, rankingTables, supportNote } from './report-tables.ts';
 import type { StoredComparisonView } from './types.ts';
 
 export interface ReportOptions {
@@ -44,9 +48,6 @@ export function jobSentence(record: StoredComparisonView): string {
   return `Compared ${plural(models, 'candidate model')} of ${response}${data}${ranking}${agree}.`;
 }
 
-function factsList(entries: [string, Html | string][], attrs: Record<string, string> = {}): Html {
-  return tag('dl', { class: 'facts', ...attrs }, ...entries.flatMap(([k, v]) => [tag('dt', {}, k), tag('dd', {}, v)]));
-}
 
 function recordFacts(record: StoredComparisonView): Html {
   const entries: [string, Html | string][] = [
@@ -61,22 +62,6 @@ function recordFacts(record: StoredComparisonView): Html {
   return factsList(entries, { 'data-section': 'record' });
 }
 
-function datasetAndConventions(record: StoredComparisonView): Html {
-  const d = record.result.dataset ?? {};
-  const conventions = Object.entries(record.result.conventions ?? {}).map(([k, v]): [string, Html | string] => [k, valueTree(v, 2)]);
-  return fragment(
-    tag('h2', { id: 'data' }, 'Data set and conventions'),
-    factsList([
-      ['response', String(d.response ?? 'n/a')],
-      ['observations used', formatCount(d.observations)],
-      ['rows left out', formatCount(d.rowsDropped)],
-      ['fingerprint', tag('span', { class: 'hash' }, String(d.fingerprint ?? 'n/a'))],
-    ], { 'data-section': 'dataset' }),
-    conventions.length === 0 ? null : factsList(conventions, { 'data-section': 'conventions' }),
-    tag('p', { class: 'note' }, 'All candidates were scored on the same rows of the same response under these conventions, so their criteria can be compared.'),
-  );
-}
-
 export function renderReportHtml(record: StoredComparisonView, options: ReportOptions = {}): string {
   const r = record.result;
   const criterion = defaultCriterion(record);
@@ -85,7 +70,8 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
   const heading = typeof record.label === 'string' && record.label.trim() !== '' ? record.label : `Comparison ${record.id}`;
   const main = tag('main', {},
     tag('header', {},
-      tag('h1', {}, heading),
+      integrityNotice(record),
+      tag('h1', {}, breakableName(heading)),
       tag('p', { class: 'job' }, jobSentence(record)),
       typeof r.verdict?.summary === 'string' && r.verdict.summary !== '' ? tag('p', { class: 'summary' }, r.verdict.summary) : null,
       recordFacts(record),
@@ -99,11 +85,13 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
     rankingTables(record),
     tag('h2', { id: 'models-heading' }, 'Models'),
     modelsTable(record),
+    modelFitTable(record),
     nestedTestsSection(record),
     averagedSection(record),
     diagnosticsSection(record),
     tag('h2', { id: 'coefficients' }, 'Coefficients'),
     coefficientTables(record),
+    predictionsSection(record),
     cautionsSection(record),
     chainSection(record, options.chain ?? defaultChainVerification),
     tag('footer', {}, 'Produced by parsimetry from the stored record; the numbers are those of the record, not recomputed for this page.'),

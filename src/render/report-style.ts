@@ -9,9 +9,9 @@ export const reportStyle = `
 * { box-sizing: border-box; }
 body { margin: 0; background: ${palette.paper}; color: ${palette.ink}; font: 15px/1.5 ${fontStack}; }
 main { max-width: 68rem; margin: 0 auto; padding: 1.5rem 1.25rem 3rem; }
-h1 { font-size: 1.45rem; margin: 0 0 .35rem; line-height: 1.25; overflow-wrap: anywhere; }
+h1 { font-size: 1.45rem; margin: 0 0 .35rem; line-height: 1.25; overflow-wrap: break-word; }
 h2 { font-size: 1.1rem; margin: 2rem 0 .6rem; padding-bottom: .2rem; border-bottom: 2px solid ${palette.ink}; }
-h3 { font-size: .98rem; margin: 1.3rem 0 .4rem; overflow-wrap: anywhere; }
+h3 { font-size: .98rem; margin: 1.3rem 0 .4rem; overflow-wrap: break-word; }
 p { margin: .4rem 0; }
 .job { font-size: 1.05rem; margin: .2rem 0 .3rem; }
 .summary, .note { color: ${palette.mutedInk}; }
@@ -25,8 +25,9 @@ caption { text-align: left; font-weight: bold; padding: .2rem 0; }
 th, td { padding: .28rem .55rem; border-bottom: 1px solid ${palette.faintRule}; text-align: right; vertical-align: top; }
 th { background: ${palette.wash}; border-bottom: 1px solid ${palette.rule}; font-weight: bold; }
 th:first-child, td:first-child, td.name, th.name, td.words, th.words { text-align: left; }
-/* The min-width keeps ordinary names (up to about 24 characters) whole; only longer words break anywhere. */
-td.name { overflow-wrap: anywhere; min-width: 13rem; max-width: 22rem; }
+/* Names break only where the page put a <wbr> (after + _ / . , ; : ×) or after a hyphen or space;
+   break-word splits a part only when that part alone is wider than the column. */
+td.name { overflow-wrap: break-word; min-width: 14rem; max-width: 22rem; }
 td.support { min-width: 9rem; }
 td.flagged { font-weight: bold; }
 tr.leader td { font-weight: bold; }
@@ -34,6 +35,10 @@ tr.leader td { font-weight: bold; }
 ul.cautions { padding-left: 1.2rem; }
 ul.cautions li { margin: .3rem 0; }
 .standing { border-left: 4px solid ${palette.ink}; padding: .4rem .8rem; background: ${palette.wash}; }
+.integrity { margin: 0 0 .8rem; padding: .45rem .8rem; }
+.integrity.ok { border-left: 4px solid ${palette.weightBar}; background: ${palette.wash}; color: ${palette.ink}; font-size: .92rem; }
+.integrity.failed { border: 3px solid ${palette.ink}; background: ${palette.zoneNegligible}; color: ${palette.ink}; font-size: 1.05rem; }
+.note.emphasis { color: ${palette.ink}; font-weight: bold; }
 .facts-inline { color: ${palette.mutedInk}; font-size: .9em; }
 ul.tree { margin: .2rem 0; padding-left: 1.1rem; }
 footer { margin-top: 2.5rem; color: ${palette.mutedInk}; font-size: .85rem; }
@@ -50,11 +55,12 @@ footer { margin-top: 2.5rem; color: ${palette.mutedInk}; font-size: .85rem; }
   .table-wrap { overflow: visible; }
   /* Paper cannot scroll: narrower cells so the widest table (models) fits the text width. */
   table { font-size: 7.5pt; }
-  table#models { font-size: 6.5pt; }
   th, td { padding: .15rem .2rem; }
   td.name { min-width: 6rem; }
   td.support { min-width: 5rem; }
   .standing { background: none; border-left-color: #000; }
+  .integrity.ok { background: none; border-left-color: #000; }
+  .integrity.failed { background: none; border-color: #000; }
   .summary, .note, dl.facts dt, footer, .facts-inline { color: #333; }
 }
 `;

@@ -3,7 +3,7 @@
 // the result is checked only as far as the renderers walk it: lists that are
 // not lists become empty and elements that are not objects are left out, so a
 // record of any age draws without a crash.
-import type { ComparisonResultView, ModelView, RankingEntry, StoredComparisonView } from './types.ts';
+import type { ComparisonResultView, IntegrityView, ModelView, RankingEntry, StoredComparisonView } from './types.ts';
 
 /** The envelope fields of a stored record (src/audit/store.ts StoredRecord has them all). */
 export interface StoredRecordLike {
@@ -18,8 +18,12 @@ export interface StoredRecordLike {
 const isObject = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object' && !Array.isArray(v);
 const objects = <T>(v: unknown): T[] => (Array.isArray(v) ? v.filter(isObject) : []) as T[];
 
-/** `result` is the result as the service answered it (with its id and createdAt). */
-export function storedComparisonView(record: StoredRecordLike, result: Record<string, unknown>): StoredComparisonView {
+/**
+ * `result` is the result as the service answered it (with its id and createdAt);
+ * `integrity` the check made as it was read (absent: not checked, and the
+ * pictures say nothing about it).
+ */
+export function storedComparisonView(record: StoredRecordLike, result: Record<string, unknown>, integrity?: IntegrityView): StoredComparisonView {
   const rankings = isObject(result.rankings) ? result.rankings : {};
   const view: ComparisonResultView = {
     ...(result as Partial<ComparisonResultView>),
@@ -43,5 +47,5 @@ export function storedComparisonView(record: StoredRecordLike, result: Record<st
     nestedTests: Array.isArray(result.nestedTests) ? objects(result.nestedTests) : undefined,
     averaged: isObject(result.averaged) ? (result.averaged as ComparisonResultView['averaged']) : undefined,
   };
-  return { id: record.id, createdAt: record.createdAt, label: record.label, seq: record.seq, hash: record.hash, prevHash: record.prevHash, result: view };
+  return { id: record.id, createdAt: record.createdAt, label: record.label, seq: record.seq, hash: record.hash, prevHash: record.prevHash, result: view, integrity: integrity ?? null };
 }

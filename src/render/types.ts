@@ -51,6 +51,8 @@ export interface ModelView {
   press?: number | null;
   looRmse?: number | null;
   diagnostics?: unknown;
+  /** Estimates at the rows of options.predict (and, in later records, their intervals). */
+  predictions?: unknown[];
 }
 
 export interface NestedTestView {
@@ -93,8 +95,22 @@ export interface ComparisonResultView {
   };
   cautions?: CautionView[];
   nestedTests?: NestedTestView[];
-  averaged?: { terms?: AveragedTermView[]; predictions?: unknown[] };
+  averaged?: {
+    terms?: AveragedTermView[];
+    predictions?: unknown[];
+    /** Later records: the models whose coefficients were averaged, and their summed weight. */
+    models?: unknown[];
+    weightCovered?: number | null;
+    [extra: string]: unknown;
+  };
   policy?: { name?: string | null; hash?: string | null };
+}
+
+/** The integrity check made when the record was read back (src/audit/integrity.ts). */
+export interface IntegrityView {
+  ok: boolean;
+  reason: string | null;
+  detail: string;
 }
 
 /** A stored record: the comparison result plus its place in the audit chain. */
@@ -106,4 +122,6 @@ export interface StoredComparisonView {
   hash: string;
   prevHash: string | null;
   result: ComparisonResultView;
+  /** null or absent: not checked (a record rendered outside the service's read path). */
+  integrity?: IntegrityView | null;
 }

@@ -5,6 +5,7 @@ import { createHash } from 'node:crypto';
 import type { Test } from 'tap';
 import { AuditCursorInvalid, AuditRecordCorrupt, AuditRecordInvalid, AuditUnavailable, LIST_LIMIT_MAX, requestDigest } from '../../src/audit/open.ts';
 import type { AuditStore, AuditStoreOptions, NewRecord } from '../../src/audit/open.ts';
+import { integrityOnReadSuite } from './integrity.suite.ts';
 
 export interface StoreHarness {
   /** Opens (or reopens) the harness's one database. */
@@ -275,4 +276,6 @@ export function auditStoreSuite(t: Test, makeHarness: () => Promise<StoreHarness
     await a.close();
     await b.close();
   });
+
+  integrityOnReadSuite(t, withStore);
 }

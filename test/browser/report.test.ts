@@ -115,4 +115,100 @@ if (!existsSync(chromiumPath)) {
     t.same(problems, []);
     await page.close();
   });
+
+  t.test('at every size the chart offers, every bar and strip box names one model unambiguously, within its room', async (t) => {
+    const page = await context.newPage();
+    const queries = ['size=tile', 'size=panel', 'size=print', 'size=wide', 'width=240', 'criterion=bic', 'criterion=bic&size=tile', 'criterion=adjustedR2&size=tile'];
+    for (const query of queries) {
+      await page.goto(`${service.chartUrl}?${query}`);
+      const drawn = await page.evaluate(() => {
+        const svg = document.documentElement as unknown as SVGSVGElement;
+        const right = svg.viewBox.baseVal.width;
+        const textRight = (el: Element | null) => (el ? (el as SVGTextElement).getBBox().x + (el as SVGTextElement).getBBox().width : 0);
+        return {
+          rows: [...document.querySelectorAll('.model-row')].map((row) => {
+            const name = row.querySelector('.model-name .name-text') as SVGTextElement;
+            return {
+              model: row.getAttribute('data-model')!,
+              key: row.getAttribute('data-key')!,
+              shown: name.textContent ?? '',
+              width: name.getComputedTextLength(),
+              room: Number(row.querySelector('.model-name')!.getAttribute('data-room')),
+              wordsRight: Math.max(textRight(row.querySelector('.band-words')), textRight(row.querySelector('.delta-value'))),
+            };
+          }),
+          cells: [...document.querySelectorAll('.strip-cell')].map((cell) => {
+            const box = (cell.querySelector('rect') as SVGRectElement).getBBox();
+            return { model: cell.getAttribute('data-model')!, key: cell.getAttribute('data-key')!, text: cell.textContent ?? '', nameRight: textRight(cell.querySelector('.name-text')), boxRight: box.x + box.width };
+          }),
+          note: document.querySelector('.model-key')?.textContent ?? null,
+          right,
+        };
+      });
+      t.equal(drawn.rows.length, service.modelNames.length, `${query}: one row per model`);
+      t.equal(new Set(drawn.rows.map((r) => r.key)).size, drawn.rows.length, `${query}: one key per model`);
+      for (const row of drawn.rows) {
+        const named = row.shown === row.model || (row.shown.endsWith('…') && (drawn.note ?? '').includes(`${row.key}\u00a0${row.model}`));
+        t.ok(named, `${query}: row ${row.key} names ${row.model} (shown "${row.shown}")`);
+        t.ok(row.width <= row.room + 0.5, `${query}: the name of ${row.key} fits its room (${row.width.toFixed(1)} ≤ ${row.room})`);
+        t.ok(row.wordsRight <= drawn.right + 0.5, `${query}: the value and words of ${row.key} end inside the chart`);
+      }
+      for (const cell of drawn.cells) {
+        const key = drawn.rows.find((r) => r.model === cell.model)?.key;
+        t.equal(cell.key, key, `${query}: the strip box names ${cell.model} by its key`);
+        t.ok(cell.nameRight <= cell.boxRight + 0.5, `${query}: the name in the ${cell.key} box stays inside it`);
+      }
+    }
+    await page.close();
+  });
+
+  t.test('the report at 1280 px: no table scrolls sideways, and names break only between their parts', async (t) => {
+    const page = await context.newPage();
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await page.goto(service.reportUrl);
+    const overflowing = await page.$$eval('.table-wrap', (wraps) => wraps.filter((w) => w.scrollWidth > w.clientWidth).map((w) => w.querySelector('table')?.id || w.querySelector('table')?.getAttribute('data-ranking') || w.querySelector('table')?.getAttribute('data-section')));
+    t.same(overflowing, [], 'every table fits the page column, σ, PRESS and leave-one-out included');
+    const fit = await page.$$eval('#model-fit thead th', (ths) => ths.map((th) => th.textContent));
+    t.same(fit, ['model', 'RSS', 'σ', 'R²', 'adjusted R²', 'PRESS', 'leave-one-out RMSE']);
+    // A line break inside a name must follow a joining character (+ _ / . , ; : × - or a space).
+    const breaks = await page.$$eval('td.name, h3, h1', (cells) => cells.flatMap((cell) => {
+      const found: string[] = [];
+      const walker = document.createTreeWalker(cell, NodeFilter.SHOW_TEXT);
+      let previous: { top: number; char: string } | null = null;
+      for (let node = walker.nextNode(); node; node = walker.nextNode()) {
+        const text = node.textContent ?? '';
+        for (let i = 0; i < text.length; i++) {
+          const range = document.createRange();
+          range.setStart(node, i);
+          range.setEnd(node, i + 1);
+          const rect = range.getClientRects()[0];
+          if (!rect) continue;
+          if (previous && rect.top > previous.top + 2 && !/[+_/.,;:×\-\s]/.test(previous.char) && !/\s/.test(text[i])) found.push(`${cell.textContent}: after "${previous.char}"`);
+          previous = { top: rect.top, char: text[i] };
+        }
+      }
+      return found;
+    }));
+    t.same(breaks, [], 'no name breaks inside a word');
+    await page.screenshot({ path: join(browserOutputDir, 'report-1280.png'), fullPage: true });
+    await page.close();
+  });
+
+  t.test('/docs: the service\'s own page, and "Try it out" on POST /v1/comparisons answers 200', async (t) => {
+    const page = await context.newPage();
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await page.goto(`${service.base}/docs`);
+    await page.waitForSelector('.opblock', { timeout: 60_000 });
+    t.equal(await page.title(), 'parsimetry · API documentation');
+    t.equal(await page.locator('.topbar').count(), 0, 'no library header bar (logo, URL box)');
+    const operation = page.locator('#operations-comparisons-post_v1_comparisons');
+    await operation.locator('.opblock-summary').click();
+    await operation.locator('button.try-out__btn').click();
+    await operation.locator('button.execute').click();
+    const status = operation.locator('.live-responses-table .response .response-col_status').first();
+    await status.waitFor({ timeout: 60_000 });
+    t.equal((await status.textContent())?.trim(), '200', 'the worked example is answered with 200');
+    await page.screenshot({ path: join(browserOutputDir, 'docs-try-it-out.png') });
+    await page.close();
+  });
 }

@@ -11,6 +11,7 @@ import { buildApp } from '../../src/http/app.ts';
 import { demoComparison } from '../../scripts/demo-data.ts';
 
 export interface BrowserTestService {
+  base: string;
   reportUrl: string;
   chartUrl: string;
   /** Every model the report must show, including one whose name carries markup. */
@@ -44,6 +45,7 @@ export async function startServiceForBrowserTest(): Promise<BrowserTestService> 
     const body = await response.json();
     if (!response.ok) throw new Error(`the service refused the comparison: ${response.status} ${JSON.stringify(body)}`);
     return {
+      base,
       reportUrl: `${base}/v1/comparisons/${body.id}/report`,
       chartUrl: `${base}/v1/comparisons/${body.id}/chart.svg`,
       modelNames: (body.models as { name: string }[]).map((m) => m.name),

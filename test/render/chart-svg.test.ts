@@ -116,7 +116,7 @@ t.test('the strip names the model each criterion prefers and marks disagreement 
   // Same model, same swatch; a different model, a different patterned swatch.
   t.same(cells.map((c) => c.data.group), ['0', '1', '0', '0', '1']);
   t.ok(parsed.tags?.includes('pattern'), 'the second model gets a pattern, which survives grey printing');
-  t.ok(parsed.texts?.includes('Preferred model by criterion: 2 different models'));
+  t.ok(parsed.texts?.includes("Best by each of the verdict's 5 criteria: 2 different models"));
 
   const agreeing = fixtureRecord([
     { name: 'linear', rss: 3.0, parameters: 3 },
@@ -125,7 +125,7 @@ t.test('the strip names the model each criterion prefers and marks disagreement 
   const calm = draw(agreeing).parsed;
   t.same(marked(calm, 'strip-cell').map((c) => c.data.group), ['0', '0', '0', '0', '0']);
   t.notOk(calm.tags?.includes('pattern'));
-  t.ok(calm.texts?.includes('Preferred model by criterion: all agree'));
+  t.ok(calm.texts?.includes("Best by each of the verdict's 5 criteria: all agree"));
 });
 
 t.test('identical bytes for the same record and options, also from a copy of the record', async (t) => {
@@ -177,7 +177,7 @@ t.test('a long name is shortened with an ellipsis, the full name kept in the bar
   const row = marked(parsed, 'model-row').find((r) => r.data.model === long)!;
   t.ok(row, 'row found by its full name');
   const bar = marked(parsed, 'delta-bar').find((b) => b.data.model === long)!;
-  t.match(bar.title, new RegExp(`^${long.replace(/[+^]/g, '\\$&')}: Δ AICc`));
+  t.match(bar.title, new RegExp(`^A ${long.replace(/[+^]/g, '\\$&')}: Δ AICc`), 'the title names the key and the full name');
   const shown = parsed.texts!.find((s) => s.startsWith('peakTemp + ') && s.endsWith('…'));
   t.ok(shown, `truncated label ${shown}`);
   t.ok(shown!.length < long.length);
@@ -194,4 +194,24 @@ t.test('names carrying markup are text, never elements', async (t) => {
   t.notMatch(svg, /<script/);
   t.same(marked(parsed, 'delta-bar').map((b) => b.data.model).sort(), ['"><image href="x"/>', '<script>alert(1)</script>', 'a & b', "it's\uFFFDodd"].sort());
   t.equal(parsed.title, 'Ranking by AICc: <b>label</b> & co');
+});
+
+t.test('axis numbers never touch: at the narrowest width the crowded ones are left out, their lines kept', async (t) => {
+  /** Each band line's axis number and where it is centred, or null when left out. */
+  const axisNumbers = (svg: string) => [...svg.matchAll(/<g class="band-line" data-at="([^"]+)">(.*?)<\/g>/g)]
+    .map(([, at, inner]) => {
+      const label = /<text x="([^"]+)"[^>]*>([^<]+)<\/text>/.exec(inner);
+      return { at, x: label === null ? null : Number(label[1]) };
+    });
+  const wide = axisNumbers(draw(kilnRecord(), { size: 'panel' }).svg);
+  t.same(wide.map((n) => n.at), ['2', '4', '7', '10']);
+  t.ok(wide.every((n) => n.x !== null), 'at 720 px every line has its number');
+
+  const narrow = axisNumbers(draw(kilnRecord(), { width: 240 }).svg);
+  t.same(narrow.map((n) => n.at), ['2', '4', '7', '10'], 'every line is still drawn');
+  const shown = narrow.filter((n): n is { at: string; x: number } => n.x !== null);
+  t.ok(shown.length < narrow.length, `some numbers left out at 240 px (${shown.map((n) => n.at).join(', ')} shown)`);
+  // Centres at least a digit-pair apart: two numbers of up to two digits at this size cannot meet.
+  const fontSize = Number(/<g class="band-line"[^>]*>.*?<text[^>]*font-size="([^"]+)"/.exec(draw(kilnRecord(), { width: 240 }).svg)?.[1] ?? 'NaN');
+  for (let i = 1; i < shown.length; i++) t.ok(shown[i].x - shown[i - 1].x >= fontSize * 1.2, `${shown[i - 1].at} and ${shown[i].at} are apart`);
 });

@@ -40,7 +40,7 @@ t.test('the job in one line, data set, conventions, chain position and how to ve
   const text = summariseHtml(renderReportHtml(record)).text;
   t.match(text, /Compared 5 candidate models of shrinkage on 40 observations \(2 rows with missing values left out\); by AICc the best is quadratic, but the criteria disagree\./);
   t.match(text, /fingerprint\s*sha256:c{64}/);
-  t.match(text, /parameterCount\s*coefficients plus error variance/);
+  t.match(text, /parameters \(k\)\s*coefficients plus error variance/, 'conventions under names of their own, not JSON keys');
   t.match(text, /record 17/);
   t.ok(text.includes(record.hash) && text.includes(record.prevHash!));
   t.match(text, /GET \/v1\/audit\/verify/);
@@ -101,7 +101,7 @@ t.test('nested tests, averaged estimates and diagnostics appear only when presen
   const html = renderReportHtml(record);
   const text = summariseHtml(html).text;
   for (const id of ['nested', 'averaged', 'diagnostics']) t.match(html, new RegExp(`id="${id}"`));
-  t.match(text, /linearquadratic15\.40\.02585\.6<0\.0001/, 'nested test row: df, F, p, LR, p');
+  t.match(text, /linearquadratic15\.40\.02585\.6< 0\.0001/, 'nested test row: df, F, p, LR, p');
   t.match(text, /peakTemp0\.01210\.00251/);
   t.match(text, /durbinWatson: 1\.93/);
 });
@@ -155,6 +155,10 @@ t.test('diagnostics: one table row per model, flags in words, each note and caut
   t.same(diag.map((r) => r.model), ['linear', 'quadratic', 'by-kiln'], 'a row per model with diagnostics');
   t.equal(diag[0].cells[2], '0.0071 · flagged', 'a failed check says so in words');
   t.equal(diag[1].cells[2], '0.3100', 'p-values to four decimals, as elsewhere in the report');
+  // The collinearity check failed on its condition number alone (78.3 > 30): only that cell says so.
+  t.equal(diag[0].cells[4], '1', 'a VIF of 1 is not flagged though its check failed');
+  t.equal(diag[0].cells[5], '78.3 · flagged', 'the condition number over its threshold is');
+  t.same(diag[0].cells.slice(6), ['0.088', '0'], "Cook's distance and high-leverage rows in columns of their own");
   t.equal(diag[2].cells[1], 'not available: fitted elsewhere');
   const count = (s: string) => parsed.text.split(s).length - 1;
   t.equal(count('Jarque–Bera is a large-sample test.'), 1, 'a note said once, not per model');

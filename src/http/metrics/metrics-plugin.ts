@@ -25,6 +25,7 @@ export function installMetrics(app: FastifyInstance, options: { processMetrics?:
     schema: {
       tags: ['operations'],
       summary: 'Prometheus text exposition; needs an API key with any role when keys are configured',
+      description: 'Request counts and durations by route and status, comparisons, searches and models fitted, audit append durations and failures (README: operations). Public when no keys are configured.',
     },
   }, async (_request, reply) => {
     const text = await metrics.registry.metrics();

@@ -29,6 +29,11 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
     schema: {
       tags: ['comparisons'],
       summary: 'Fit and score candidate models on one data set, rank them and record the comparison',
+      description: [
+        'Send the data (`data.columns`, or `data.summary`), the `response` column and the `candidates`: terms for the service to fit, or residuals, an RSS or a log-likelihood of models fitted elsewhere. Every candidate is scored on the same rows under one convention (`conventions` in the answer), ranked by every criterion, and the comparison is appended to the audit chain before the answer is sent; its `id` reads it back.',
+        'The example is the demo scenario (tile shrinkage, invented data): send it with "Try it out".',
+        'Criteria rank the candidates against each other; they do not validate a model. Where a model is chosen for a safety-relevant use, defer to domain review and local rules.',
+      ].join('\n\n'),
       body: ComparisonRequest,
       response: { 200: ComparisonResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
     },

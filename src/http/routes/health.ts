@@ -36,7 +36,10 @@ export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore; chainAtSta
   };
 
   app.get('/healthz', {
-    schema: { tags: ['operations'], summary: 'Liveness', security: [], response: { 200: Health } },
+    schema: {
+      tags: ['operations'], summary: 'Liveness', security: [], response: { 200: Health },
+      description: 'Always 200 while the process answers requests; for a container\'s liveness probe. It does not touch the audit store: see /readyz.',
+    },
   }, async () => ({ status: 'ok' as const }));
 
   app.get('/readyz', {
@@ -45,6 +48,7 @@ export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore; chainAtSta
       summary: 'Readiness: the audit store takes records (a write is proven, probed when none is recent)',
       security: [],
       response: { 200: Health, 503: Health },
+      description: '200 when the audit store answers and its last write (or a write probe after a failure) succeeded; 503 otherwise, because no result is sent without its audit record. For a load balancer\'s readiness check.',
     },
   }, async (_request, reply) => {
     const ready = await store.ready().catch(() => false);

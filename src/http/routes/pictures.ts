@@ -5,7 +5,10 @@
 //
 // Caching: a stored record never changes (append-only, hash-chained) and the
 // renderers are deterministic, so a reply may be kept for a year without
-// asking again (RFC 9111 max-age; RFC 8246 immutable). It is `public` only
+// asking again (RFC 9111 max-age; RFC 8246 immutable). A copy kept while the
+// record was intact stays true to it, even if the row is edited later; a
+// record that fails its integrity check is drawn with that warning and never
+// cached (no-store), so repairing the database is seen at once. It is `public` only
 // when the request carried no credentials (the service runs open): with an API
 // key it is `private`, because `public` would let a shared cache serve a
 // read-role picture to anyone (RFC 9111 §3.5). A new service version may draw
@@ -36,7 +39,8 @@ import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { RecordParams } from '../schemas/record.ts';
 import { zodValidatorCompiler } from '../validation.ts';
-import { answeredResult, getComparison } from './records.ts';
+import type { RecordIntegrity } from '../../audit/integrity.ts';
+import { answeredResult, readRecord } from './records.ts';
 
 export const SVG_CONTENT_TYPE = 'image/svg+xml; charset=utf-8';
 export const HTML_CONTENT_TYPE = 'text/html; charset=utf-8';
@@ -90,22 +94,22 @@ async function recordAndOptions(
   id: string,
   query: unknown,
   reply: FastifyReply,
-): Promise<{ view: StoredComparisonView; options: ChartOptions } | null> {
-  const record = await getComparison(store, id, reply);
-  if (!record) return null;
-  const view = storedComparisonView(record, answeredResult(record));
+): Promise<{ view: StoredComparisonView; options: ChartOptions; integrity: RecordIntegrity } | null> {
+  const read = await readRecord(store, id, reply, 'comparison');
+  if (!read) return null;
+  const view = storedComparisonView(read.record, answeredResult(read.record), read.integrity);
   const parsed = parseChartOptions((query ?? {}) as Record<string, unknown>, view);
   if (!parsed.ok) {
     optionsProblem(reply, parsed.issues);
     return null;
   }
-  return { view, options: parsed.options };
+  return { view, options: parsed.options, integrity: read.integrity };
 }
 
-function sendPicture(request: FastifyRequest, reply: FastifyReply, body: string, contentType: string, policy: string): FastifyReply {
+function sendPicture(request: FastifyRequest, reply: FastifyReply, body: string, contentType: string, policy: string, intact: boolean): FastifyReply {
   const etag = `"${createHash('sha256').update(body).digest('base64url').slice(0, 32)}"`;
   const scope = request.headers.authorization === undefined ? 'public' : 'private';
-  reply.header('cache-control', `${scope}, ${IMMUTABLE}`).header('etag', etag).header('content-security-policy', policy);
+  reply.header('cache-control', intact ? `${scope}, ${IMMUTABLE}` : 'no-store').header('etag', etag).header('content-security-policy', policy);
   const held = request.headers['if-none-match'];
   if (typeof held === 'string' && held.split(',').some((tag) => tag.trim().replace(/^W\//, '') === etag)) {
     return reply.code(304).send();
@@ -120,8 +124,10 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       tags: ['comparisons'],
       summary: 'A picture of one ranking of a stored comparison, as SVG, for a dashboard to embed',
       description: [
-        'One row per model: its Δ from the best as a bar against dashed reference lines (AIC, AICc, HQC: Δ 2, 4, 7, 10; BIC: 2, 6, 10), its weight beside it, and a strip naming the model each criterion prefers.',
-        'The words beside the bars are the team policy\'s band for each Δ, as in the JSON (rankings.*.band). The SVG carries a <title> and a <desc> with the whole ranking in words, and every value as text.',
+        'One row per model: its Δ from the best as a bar against dashed reference lines (AIC, AICc, HQC: Δ 2, 4, 7, 10; BIC: 2, 6, 10), its weight beside it, and a strip naming the model each criterion of the verdict prefers.',
+        'Every model has a key (A, B, …, in the record\'s model order) beside its name in its row and its strip box; where a name does not fit, it is shortened and a note under the chart spells out every key with its full name.',
+        'The words beside the bars are the team policy\'s band for each Δ, as in the JSON (rankings.*.band), except the best model (Δ = 0), which reads "best". They stand after the value, inside a long bar, or on a line under the bar; where a fixed height leaves no room they are left out and a note says how many. The SVG carries a <title> and a <desc> with the whole ranking in words, and every value as text.',
+        'A record that fails its integrity check on reading (see `integrity` of GET /v1/comparisons/{id}) is drawn with a warning across its top and data-integrity="failed" on the root, and is sent with Cache-Control: no-store.',
         'The bytes depend only on the record and the options, so the reply is cacheable for a year (public without credentials, private with an API key) and carries a strong ETag.',
         'Criteria rank the candidates; they do not validate a model. Defer to domain review and local rules.',
       ].join('\n\n'),
@@ -136,7 +142,7 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
   }, async (request, reply) => {
     const found = await recordAndOptions(store, request.params.id, request.query, reply);
     if (!found) return reply;
-    return sendPicture(request, reply, renderChartSvg(found.view, found.options), SVG_CONTENT_TYPE, chartPolicyHeader);
+    return sendPicture(request, reply, renderChartSvg(found.view, found.options), SVG_CONTENT_TYPE, chartPolicyHeader, found.integrity.ok);
   });
 
   app.get('/v1/comparisons/:id/report', {
@@ -145,10 +151,10 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       tags: ['comparisons'],
       summary: 'A self-contained HTML page of a stored comparison, for a person to read or print',
       description: [
-        'What was compared and who came first, in one sentence; the data set and conventions; the chart; every ranking with the team policy\'s words for each Δ; the models and their coefficients; nested tests, averaged estimates and diagnostics when the record has them; the cautions; and the record\'s place in the audit chain with how to check it.',
+        'The integrity check made on reading the record, first (a failure in a bordered alert); what was compared and who came first, in one sentence; the data set and conventions in words; the chart; every ranking with the team policy\'s words for each Δ; the models (criteria, and fit with σ, PRESS and leave-one-out) and their coefficients; predictions, nested tests, averaged estimates and diagnostics when the record has them; the cautions, each said once; and the record\'s place in the audit chain with how to check it.',
         'No scripts and nothing loaded from anywhere: the style sheet and the chart are inline and the Content-Security-Policy forbids everything else. The query options choose the chart drawn in the page, as for chart.svg.',
         `Long tables are cut short so the page stays readable and bounded in size: the first ${REPORT_ROW_LIMITS.coefficients} coefficients per model, ${REPORT_ROW_LIMITS.averagedTerms} averaged terms and ${REPORT_ROW_LIMITS.averagedPredictions} averaged predictions, each with a note saying how many were left out; GET /v1/comparisons/{id} holds them all.`,
-        'Cacheable for a year, like chart.svg.',
+        'Cacheable for a year, like chart.svg; never cached when the record fails its integrity check.',
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
@@ -162,6 +168,6 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
     const found = await recordAndOptions(store, request.params.id, request.query, reply);
     if (!found) return reply;
     const html = renderReportHtml(found.view, { chartSvg: renderChartSvg(found.view, found.options) });
-    return sendPicture(request, reply, html, HTML_CONTENT_TYPE, reportPolicyHeader);
+    return sendPicture(request, reply, html, HTML_CONTENT_TYPE, reportPolicyHeader, found.integrity.ok);
   });
 };

@@ -1,7 +1,9 @@
-// Reading the audit record back: one stored comparison, and pages of them.
+// Reading the audit record back: one stored comparison or search, each checked
+// for integrity as it is read, and pages of comparisons.
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { AuditCursorInvalid, AuditQueryInvalid, AuditRecordCorrupt, AuditUnavailable } from '../../audit/errors.ts';
+import { recordIntegrity, type RecordIntegrity } from '../../audit/integrity.ts';
 import type { AuditStore, RecordKind, StoredRecord } from '../../audit/store.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
@@ -32,6 +34,15 @@ export function notFound(reply: FastifyReply, id: string, kind: RecordKind | 're
     problem(404, problemTypes.notFound, 'Not found', `no ${kind} with id ${id}`));
 }
 
+const recordPaths: Record<RecordKind, string> = { comparison: '/v1/comparisons', search: '/v1/searches' };
+
+/** A record of the other kind: still a 404 here, but saying what the id is and where to read it. */
+function otherKind(reply: FastifyReply, id: string, asked: RecordKind, found: RecordKind): FastifyReply {
+  const href = `${recordPaths[found]}/${id}`;
+  return reply.code(404).type(PROBLEM_CONTENT_TYPE).send(
+    problem(404, problemTypes.notFound, 'Not found', `${id} is a ${found}, not a ${asked}: read it at GET ${href}`, { recordKind: found, href }));
+}
+
 /** The stored record of that kind, or a reply already sent (404, 500, 503). */
 export async function getRecord(store: AuditStore, id: string, reply: FastifyReply, kind: RecordKind): Promise<StoredRecord | null> {
   let record: StoredRecord | null;
@@ -41,15 +52,36 @@ export async function getRecord(store: AuditStore, id: string, reply: FastifyRep
     replyToStoreReadError(error, reply);
     return null;
   }
-  // Comparisons and searches each live under their own path.
-  if (!record || record.kind !== kind) {
+  if (!record) {
     notFound(reply, id, kind);
+    return null;
+  }
+  // Comparisons and searches each live under their own path.
+  if (record.kind !== kind) {
+    otherKind(reply, id, kind, record.kind);
     return null;
   }
   return record;
 }
 
 export const getComparison = (store: AuditStore, id: string, reply: FastifyReply) => getRecord(store, id, reply, 'comparison');
+
+/** The record with its integrity checked against its neighbours, or a reply already sent. */
+export async function readRecord(
+  store: AuditStore, id: string, reply: FastifyReply, kind: RecordKind,
+): Promise<{ record: StoredRecord; integrity: RecordIntegrity } | null> {
+  const record = await getRecord(store, id, reply, kind);
+  if (!record) return null;
+  let integrity: RecordIntegrity;
+  try {
+    integrity = recordIntegrity(record, await store.chainLinks(record.seq));
+  } catch (error) {
+    replyToStoreReadError(error, reply);
+    return null;
+  }
+  if (!integrity.ok) reply.log.error({ seq: record.seq, id: record.id, reason: integrity.reason }, 'a stored record failed its integrity check on read');
+  return { record, integrity };
+}
 
 /** The POST response exactly: the route stores the result without the fields the envelope holds. */
 export function answeredResult(record: StoredRecord): Record<string, unknown> {
@@ -94,31 +126,42 @@ function envelope(record: StoredRecord) {
   };
 }
 
+function readDescription(kind: RecordKind, made: string): string {
+  const other: RecordKind = kind === 'comparison' ? 'search' : 'comparison';
+  return [
+    `The ${kind} as ${made} answered it (\`result\`), the request as sent (or only its digest), and its place in the audit chain (\`chain\`).`,
+    '`integrity` is checked on every read: the record\'s hash recomputed from its content, its link to the record before it, and the link of the record after it (or the committed head) to it. A record edited in the database is still answered, with `integrity.ok` false and the reason; do not rely on it, and run GET /v1/audit/verify.',
+    `An id of a ${other} is a 404 that says so and where to read it (\`href\`).`,
+  ].join('\n\n');
+}
+
 export const recordRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async (app, { store }) => {
   app.get('/v1/comparisons/:id', {
     schema: {
       tags: ['audit'],
       summary: 'One stored comparison: request summary, the result as it was answered, and its place in the audit chain',
+      description: readDescription('comparison', 'POST /v1/comparisons'),
       params: RecordParams,
       response: { 200: StoredComparison, 400: ProblemSchema, 404: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
     },
   }, async (request, reply) => {
-    const record = await getComparison(store, request.params.id, reply);
-    if (!record) return reply;
-    return reply.code(200).send({ ...envelope(record), kind: 'comparison' as const, result: answeredResult(record) });
+    const read = await readRecord(store, request.params.id, reply, 'comparison');
+    if (!read) return reply;
+    return reply.code(200).send({ ...envelope(read.record), kind: 'comparison' as const, result: answeredResult(read.record), integrity: read.integrity });
   });
 
   app.get('/v1/searches/:id', {
     schema: {
       tags: ['searches'],
       summary: 'One stored search: request summary, the result as it was answered, and its place in the audit chain',
+      description: readDescription('search', 'POST /v1/searches'),
       params: RecordParams,
       response: { 200: StoredSearch, 400: ProblemSchema, 404: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema },
     },
   }, async (request, reply) => {
-    const record = await getRecord(store, request.params.id, reply, 'search');
-    if (!record) return reply;
-    return reply.code(200).send({ ...envelope(record), kind: 'search' as const, result: answeredResult(record) });
+    const read = await readRecord(store, request.params.id, reply, 'search');
+    if (!read) return reply;
+    return reply.code(200).send({ ...envelope(read.record), kind: 'search' as const, result: answeredResult(read.record), integrity: read.integrity });
   });
 
 

@@ -78,8 +78,10 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
     schema: {
       tags: ['searches'],
       summary: 'Score every subset of a pool of terms, refit the best and record the search',
-      description:
+      description: [
+        'Every subset of `pool` (with the `always` terms; with `hierarchy`, only subsets holding the terms a power or product is built from) is a candidate, scored on the workers of the compute pool (branch and bound beyond 2^24 subsets, with `proven` saying whether the top list is proven); the best `top` are refitted exactly and returned with their weights over every subset scored, and the search is appended to the audit chain. The example is the demo scenario (tile shrinkage, invented data).',
         'With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start (priced over a limit, the compute queue full) are answered with their status as usual.',
+      ].join('\n\n'),
       body: SearchRequest,
       response: { 200: SearchResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
     },

@@ -1,6 +1,7 @@
 // Shapes of the audit endpoints: a stored comparison, a page of them, the chain
 // verification report and a replay report. Query and path parameters too.
 import { z } from 'zod';
+import { integrityReasons } from '../../audit/integrity.ts';
 import { LIST_LIMIT_DEFAULT, LIST_LIMIT_MAX } from '../../audit/store.ts';
 import { decimalQueryInteger } from './common.ts';
 import { ComparisonResult } from './comparison-response.ts';
@@ -10,8 +11,8 @@ const hex64 = z.string().meta({ description: '64 lowercase hex characters (SHA-2
 /** The ids the store issues (UUIDv7 form); anything else cannot name a record. */
 export const RecordId = z
   .string()
-  .regex(/^[0-9a-f]{8}-[0-9a-f]{4}-7[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/, 'not a comparison id (a lowercase UUIDv7, as POST /v1/comparisons returns)')
-  .meta({ description: 'The id POST /v1/comparisons returned.' });
+  .regex(/^[0-9a-f]{8}-[0-9a-f]{4}-7[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/, 'not a record id (a lowercase UUIDv7, as POST /v1/comparisons and POST /v1/searches return)')
+  .meta({ description: 'The id POST /v1/comparisons (or, under /v1/searches, POST /v1/searches) returned.' });
 
 export const RecordParams = z.strictObject({ id: RecordId });
 
@@ -29,7 +30,11 @@ export const ListQuerySchema = z
     limit: decimalQueryInteger('limit', 1, LIST_LIMIT_MAX)
       .optional()
       .meta({ description: `Page size, 1..${LIST_LIMIT_MAX} in decimal digits (default ${LIST_LIMIT_DEFAULT}).` }),
-    fingerprint: z.string().min(1).max(200).optional().meta({ description: 'Only records of this dataset.fingerprint ("sha256:…").' }),
+    fingerprint: z
+      .string()
+      .regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits, as dataset.fingerprint reads')
+      .optional()
+      .meta({ description: 'Only records of this dataset.fingerprint ("sha256:" and 64 lowercase hex digits).' }),
     caller: z.string().min(1).max(200).optional().meta({ description: 'Only records made by this API key id ("anonymous" without keys).' }),
     label: z.string().max(1000).optional().meta({ description: 'Only records whose label contains this text (case-sensitive); empty matches every record.' }),
     from: Instant.optional().meta({ description: 'Only records created at or after this instant (a date means its midnight UTC).' }),
@@ -60,6 +65,21 @@ export const RequestSummary = z
 
 const jsonObject = z.record(z.string(), z.unknown());
 
+export const RecordIntegrity = z
+  .strictObject({
+    ok: z.boolean().meta({ description: 'true when every check passed.' }),
+    reason: z.enum(integrityReasons).nullable().meta({
+      description:
+        'The first check that failed, null when ok: hash_mismatch (content edited), prev_hash_mismatch (it does not name the stored hash of the record before it), sequence_gap (a neighbouring record is missing), next_link_mismatch (the record after it names another hash: this one was rewritten with a new hash, or the next replaced), head_mismatch (it is the newest record but the committed head disagrees).',
+    }),
+    detail: z.string().meta({ description: 'The finding in words, with the positions it concerns, and what to do when it failed.' }),
+  })
+  .meta({
+    id: 'RecordIntegrity',
+    description:
+      'Checked on every read: the record\'s own hash recomputed from its content, its link to the record before it, and the link of the record after it (or the committed head) to it. A whole-chain rewrite by someone with database access passes; only GET /v1/audit/verify against a head.hash kept elsewhere detects that.',
+  });
+
 export const StoredComparison = z
   .strictObject({
     id: z.string(),
@@ -82,6 +102,7 @@ export const StoredComparison = z
       description: 'The result exactly as POST /v1/comparisons answered it. Records written by an older serviceVersion keep that version\'s shape.',
     }),
     chain: ChainPosition,
+    integrity: RecordIntegrity,
   })
   .meta({ id: 'StoredComparison' });
 
