@@ -24,7 +24,9 @@ function startWorker(): Worker {
   // Run from sources (tsx, tap) the worker module is the .ts beside this one; built, the .js.
   const ext = import.meta.url.endsWith('.ts') ? '.ts' : '.js';
   const entry = new URL(`./verify-worker${ext}`, import.meta.url).href;
-  return new Worker(new URL('../search/workers/worker-entry.mjs', import.meta.url), { workerData: { entry } });
+  // The compute pool's plain-JS entry installs the TypeScript loader when the module is a source file;
+  // no inherited preloads (a TypeScript one would fail in the worker before any loader).
+  return new Worker(new URL('../compute/worker-entry.mjs', import.meta.url), { workerData: { module: entry }, execArgv: [] });
 }
 
 export class RowChecker {
