@@ -1,6 +1,6 @@
 // What a design column is, as opposed to what it is called. A label is for
 // people and a data column's name can imitate one ("x^2" holding sin x, a
-// column named "(intercept)"); a key is built from the structured term, so
+// column named "intercept"); a key is built from the structured term, so
 // two columns of one comparison share a key exactly when the design builder
 // formed them the same way from the same data: nested tests and model
 // averaging compare keys, never labels.
@@ -14,7 +14,7 @@
 //                                            reference its coefficient is
 //                                            measured against
 //   ["product", member, member, ...]        members in code-point order of
-//                                            their keys, since a:b and b:a
+//                                            their keys, since a×b and b×a
 //                                            are the same column
 import { compareCodePoints } from './code-point-order.ts';
 
