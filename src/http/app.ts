@@ -20,6 +20,7 @@ import { registerServicePlugins } from './plugins/service-plugins.ts';
 import { KeyRing } from './security/key-ring.ts';
 import { loadKeysFile } from './security/keys-file.ts';
 import { healthRoutes } from './routes/health.ts';
+import { rootRoutes } from './routes/root.ts';
 import { comparisonRoutes } from './routes/comparisons.ts';
 import { recordRoutes } from './routes/records.ts';
 import { pictureRoutes } from './routes/pictures.ts';
@@ -83,6 +84,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
 
   await app.register(swaggerUi, { routePrefix: '/docs' });
 
+  await app.register(rootRoutes);
   await app.register(healthRoutes, { store });
   await app.register(comparisonRoutes, { store, config, policy });
   await app.register(recordRoutes, { store });

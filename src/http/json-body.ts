@@ -5,6 +5,7 @@
 // longer hash as it was hashed), and U+0000 (PostgreSQL text cannot hold it).
 import type { FastifyInstance } from 'fastify';
 import { toPointer } from './problems.ts';
+import { nonJsonNumber } from './non-json-numbers.ts';
 
 export class BodyRefused extends Error {
   readonly statusCode = 400;
@@ -54,10 +55,12 @@ function firstProblem(value: unknown, path: Path): BodyRefused | null {
 
 export function registerJsonBody(app: FastifyInstance): void {
   app.removeContentTypeParser(['application/json', 'text/plain']);
-  app.addContentTypeParser('application/json', { parseAs: 'string' }, (_request, body, done) => {
+  app.addContentTypeParser('application/json', { parseAs: 'string' }, (request, body, done) => {
     const text = body as string;
     if (text.trim() === '') {
-      done(new BodyRefused('invalid-json', null, 'the body is empty; send a JSON object'), undefined);
+      // A route that takes no body (replay) accepts an empty one, whatever the content type says.
+      if ((request.routeOptions.config as { emptyBody?: boolean } | undefined)?.emptyBody) done(null, undefined);
+      else done(new BodyRefused('invalid-json', null, 'the body is empty; send a JSON object'), undefined);
       return;
     }
     let value: unknown;
@@ -66,6 +69,12 @@ export function registerJsonBody(app: FastifyInstance): void {
       // prototype), so the walk below sees it and refuses it.
       value = JSON.parse(text);
     } catch (error) {
+      const token = nonJsonNumber(text);
+      if (token) {
+        const what = `${token.token} is not a JSON number: use null for a missing value (and a finite number otherwise)`;
+        done(new BodyRefused('invalid-json', token.path, token.path === null ? `the body is not valid JSON: ${what}` : what), undefined);
+        return;
+      }
       done(new BodyRefused('invalid-json', null, `the body is not valid JSON: ${(error as Error).message}`), undefined);
       return;
     }
