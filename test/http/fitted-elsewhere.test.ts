@@ -48,6 +48,27 @@ t.test('the dataset fingerprint is stable, sensitive, and computable in Python f
   t.equal(err.actual, a.dataset.fingerprint, 'both fingerprints named');
 });
 
+t.test('examples/fingerprint.py agrees with the service for summary requests and zero weights', async (t) => {
+  const { app } = await buildTestApp(t);
+  const summary = {
+    rows: 5, columns: ['x', 'y'], means: [3, -0.2],
+    centredCrossProducts: [[10, 7.5], [7.5, 6.8]],
+  };
+  const weighted = { ...summary, weights: { sum: 6.5, sumLog: 0.4 } };
+  for (const s of [summary, weighted]) {
+    const request = { data: { summary: s }, response: 'y', candidates: [{ name: 'line', terms: ['x'] }, { name: 'mean', terms: [] }] };
+    const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: request });
+    t.equal(res.statusCode, 200, res.body.slice(0, 200));
+    const python = execFileSync('python3', ['examples/fingerprint.py'], { input: JSON.stringify(request) }).toString().trim();
+    t.equal(python, res.json().dataset.fingerprint, `summary${s === weighted ? ' (weighted)' : ''}: the script computes the service's fingerprint`);
+  }
+  // A zero weight leaves its row out of the fingerprint as out of the fit.
+  const rows = { ...small, data: { columns: { ...small.data.columns, w: [1, 0, 2, 1, 1, 0, 1, 2] } }, weights: 'w', candidates: [{ name: 'line', terms: ['x'] }] };
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: rows });
+  const python = execFileSync('python3', ['examples/fingerprint.py'], { input: JSON.stringify(rows) }).toString().trim();
+  t.equal(python, res.json().dataset.fingerprint, 'zero weights: the same rows left out');
+});
+
 t.test('every response names its policy and hash; each ranking entry carries its Δ band', async (t) => {
   const { app } = await buildTestApp(t);
   const body = (await app.inject({ method: 'POST', url: '/v1/comparisons', payload: demoComparison() })).json();

@@ -79,13 +79,16 @@ t.test('from a data summary (numpy moments of the same rows): the same coefficie
   t.equal(body.averaged.predictions.length, 2);
 });
 
+/** The fatigue data: a straight line in crack length against one in log length, predicted at three loads. */
+const fatigueRequest = {
+  data: { columns: reference.fatigue.data }, response: 'length',
+  candidates: [{ name: 'line', terms: ['load'] }, { name: 'log-line', terms: ['load'], response: { fn: 'log' } }],
+  options: { predict: { columns: reference.fatigue.newRows } },
+};
+
 t.test('a model of log y predicts on the original scale: exp of the statsmodels log-scale frame, marked as the median', async (t) => {
   const F = reference.fatigue;
-  const body = await compare(t, {
-    data: { columns: F.data }, response: 'length',
-    candidates: [{ name: 'line', terms: ['load'] }, { name: 'log-line', terms: ['load'], response: { fn: 'log' } }],
-    options: { predict: { columns: F.newRows } },
-  });
+  const body = await compare(t, fatigueRequest);
   const [line, logLine] = body.models;
   agrees(t, line.coefficients, F.line.coefficients95, COEFFICIENT_FIELDS, 1e-10, 'line');
   agrees(t, line.predictions, F.line.predictions95, PREDICTION_FIELDS, 1e-10, 'line prediction');
@@ -99,11 +102,7 @@ t.test('a model of log y predicts on the original scale: exp of the statsmodels 
 
 t.test('model averaging keeps the winner: predictions over both scales, MATA intervals as scipy solves them', async (t) => {
   const F = reference.fatigue;
-  const body = await compare(t, {
-    data: { columns: F.data }, response: 'length',
-    candidates: [{ name: 'line', terms: ['load'] }, { name: 'log-line', terms: ['load'], response: { fn: 'log' } }],
-    options: { predict: { columns: F.newRows } },
-  });
+  const body = await compare(t, fatigueRequest);
   const weights = Object.fromEntries(body.rankings.aicc.map((e: { name: string; weight: number }) => [e.name, e.weight]));
   t.ok(Math.abs(weights['log-line'] - F.aiccWeights['log-line']) < 1e-10, `AICc weight ${weights['log-line']} vs ${F.aiccWeights['log-line']}`);
   const averaged = body.averaged;

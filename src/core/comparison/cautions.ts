@@ -57,7 +57,7 @@ export function comparisonCautions(f: ComparisonCautionFacts): Caution[] {
   if (f.models.length === 1) {
     out.push({
       code: 'single_candidate',
-      message: `Only one candidate was sent. Criteria rank models against each other, so a ranking needs two or more: Δ is 0, the weight is 1 and the verdict is empty of meaning; send the alternatives you are choosing between (at least a simpler model) to compare.`,
+      message: 'Only one candidate was sent. Criteria rank models against each other, so a ranking needs two or more: here Δ is 0 and the weight 1 by construction, and neither says anything about how good the model is. Send the alternatives being chosen between (at least a simpler model) to compare.',
     });
   }
   if (!f.hasData) {

@@ -17,6 +17,10 @@ export type BackTransformed = number | 'below' | 'above';
 export interface ResponseScale {
   /** g(y), or ±Infinity for y below or above the range g maps. */
   toModel(y: number): number;
+  /** dg/dy at a y inside the range (0 outside). */
+  toModelSlope(y: number): number;
+  /** True when g does not map onto the whole real line, so a model-scale value can fall outside it (sqrt, Box–Cox). */
+  bounded: boolean;
   /** g⁻¹(μ), or 'below' / 'above' when μ lies outside the range of g. */
   fromModel(mu: number): BackTransformed;
   /** dg⁻¹/dμ at a μ inside the range of g. */
@@ -27,6 +31,8 @@ export interface ResponseScale {
 
 const IDENTITY: ResponseScale = {
   toModel: (y) => y,
+  toModelSlope: () => 1,
+  bounded: false,
   fromModel: (mu) => mu,
   slope: () => 1,
   description: 'none: the model describes the response itself; its prediction is the mean response, which is also its median',
@@ -38,6 +44,8 @@ function boxCox(lambda: number): ResponseScale {
   const edge = -1 / lambda;
   return {
     toModel: (y) => (y > 0 ? Math.expm1(lambda * Math.log(y)) / lambda : Number.NEGATIVE_INFINITY),
+    toModelSlope: (y) => (y > 0 ? Math.exp((lambda - 1) * Math.log(y)) : 0),
+    bounded: true,
     fromModel: (mu) => {
       if (lambda > 0 && !(mu > edge)) return 'below';
       if (lambda < 0 && !(mu < edge)) return 'above';
@@ -50,6 +58,8 @@ function boxCox(lambda: number): ResponseScale {
 
 const LOG: ResponseScale = {
   toModel: (y) => (y > 0 ? Math.log(y) : Number.NEGATIVE_INFINITY),
+  toModelSlope: (y) => (y > 0 ? 1 / y : 0),
+  bounded: false,
   fromModel: (mu) => {
     const y = Math.exp(mu);
     return y === Number.POSITIVE_INFINITY ? 'above' : y;
@@ -60,6 +70,8 @@ const LOG: ResponseScale = {
 
 const SQRT: ResponseScale = {
   toModel: (y) => (y >= 0 ? Math.sqrt(y) : Number.NEGATIVE_INFINITY),
+  toModelSlope: (y) => (y > 0 ? 0.5 / Math.sqrt(y) : 0),
+  bounded: true,
   fromModel: (mu) => (mu >= 0 ? mu * mu : 'below'),
   slope: (mu) => 2 * mu,
   description: 'median: μ̂², the median of y when √y is normal (the mean would be μ̂² + σ²); intervals are the squares of the square-root-scale intervals, a negative end taken as 0; standard error by the delta method 2μ̂ · se',

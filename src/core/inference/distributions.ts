@@ -9,6 +9,7 @@ import F from '@stdlib/stats-base-dists-f';
 import chisquare from '@stdlib/stats-base-dists-chisquare';
 import normal from '@stdlib/stats-base-dists-normal';
 import T from '@stdlib/stats-base-dists-t';
+import gammaln from '@stdlib/math-base-special-gammaln';
 
 /** P(X > x) for X ~ chi-square(df): Q(df/2, x/2), the upper regularised incomplete gamma. */
 export function chiSquareUpperTail(x: number, df: number): number {
@@ -74,4 +75,22 @@ export function normalQuantile(p: number): number {
 /** P(T <= x) for T ~ Student's t(df); df = Infinity gives the standard normal. */
 export function tCdf(x: number, df: number): number {
   return Number.isFinite(df) ? T.cdf(x, df) : normal.cdf(x, 0, 1);
+}
+
+/** ln of the t(df) density's constant, Γ((df+1)/2) / (Γ(df/2) √(df π)), by df: a model's df repeats for every row. */
+const tLogNormaliser = new Map<number, number>();
+
+/**
+ * The density of Student's t(df) at x; df = Infinity gives the standard
+ * normal. Written out, (1 + x²/df)^(−(df+1)/2) times the cached constant,
+ * since it is called for every row and model of an averaged prediction.
+ */
+export function tPdf(x: number, df: number): number {
+  if (!Number.isFinite(df)) return Math.exp(-0.5 * x * x) / Math.sqrt(2 * Math.PI);
+  let c = tLogNormaliser.get(df);
+  if (c === undefined) {
+    c = gammaln((df + 1) / 2) - gammaln(df / 2) - 0.5 * Math.log(df * Math.PI);
+    tLogNormaliser.set(df, c);
+  }
+  return Math.exp(c - ((df + 1) / 2) * Math.log1p((x * x) / df));
 }

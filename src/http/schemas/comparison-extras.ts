@@ -60,7 +60,7 @@ export const Averaged = z
     estimatorDescription: z.string(),
     averages: z.strictObject({ estimate: z.string(), overModelsWithTerm: z.string() }),
     terms: z.array(AveragedTerm),
-    predictions: z.array(z.strictObject(predictionFields)).meta({
+    predictions: z.array(Prediction).meta({
       description: 'Averaged predictions on the response\'s original scale over every model that can predict (predictionsOver): Σ w ŷ, the unconditional standard error, and model-averaged tail-area intervals (conventions.predictions).',
     }),
     predictionsOver: z
