@@ -189,4 +189,8 @@ t.test('collinearity: judged on centred regressors; one regressor never fires; f
     t.notOk('cautions' in model.diagnostics, 'findings live among the model\'s cautions only');
   }
   t.equal(body.cautions.filter((c: { code: string }) => c.code === 'checks_are_not_validation').length, 1);
+  // x and x² of temperatures near 1200 are collinear by construction: said, with the remedy.
+  const curved = body.models.find((m: { name: string }) => m.name === 'curved-temperature');
+  t.equal(curved.diagnostics.multicollinearity.passed, false);
+  t.match(curved.diagnostics.multicollinearity.note, /"peakTemp\^2" is a power or product of columns far from zero.*centring/);
 });

@@ -49,6 +49,11 @@ function parseKey(key: string): ColumnIdentity | null {
   }
 }
 
+/** What kind of column a key identifies ("power", "product", …), or null for a key that is not one. */
+export function keyKind(key: string): ColumnIdentity[0] | null {
+  return parseKey(key)?.[0] ?? null;
+}
+
 /** The factor codings a column involves: column and reference per dummy, in key order. */
 export function keyReferences(key: string): { column: string; reference: string }[] {
   const out: { column: string; reference: string }[] = [];

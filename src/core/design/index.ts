@@ -7,5 +7,5 @@ export { factorCoding, factorLevels, type FactorCoding, type FactorDummy } from 
 export { INTERCEPT_LABEL, termLabel } from './labels.ts';
 export { responseValues, weightValues } from './response.ts';
 export { compareCodePoints } from './code-point-order.ts';
-export { columnKey, columnQualifier, keyReferences, type ColumnIdentity } from './column-identity.ts';
+export { columnKey, columnQualifier, keyKind, keyReferences, type ColumnIdentity } from './column-identity.ts';
 export { sampleRows, type SampleRows } from './sample-rows.ts';

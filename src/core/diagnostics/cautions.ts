@@ -33,7 +33,8 @@ export function diagnosticCautions(d: ModelDiagnostics): string[] {
   if (m.passed === false) {
     out.push(
       `Some regressors are nearly linear combinations of others (largest variance inflation factor ${fmt(m.maxVarianceInflation)}, condition number of the centred, scaled regressors ${fmt(m.conditionNumber)}). ` +
-        'The criteria are not affected, but the individual coefficients and their standard errors are unstable and hard to interpret, and so is term importance in model averaging; consider centring, dropping or combining related terms.',
+        'The criteria are not affected, but the individual coefficients and their standard errors are unstable and hard to interpret, and so is term importance in model averaging; consider centring, dropping or combining related terms.' +
+        (m.note ? ` ${m.note}` : ''),
     );
   }
   const f = d.influence;

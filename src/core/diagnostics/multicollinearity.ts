@@ -10,9 +10,10 @@
 // columns the basis does not hold) or with numerically dependent columns
 // factorises its columns here.
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
+import { keyKind } from '../design/column-identity.ts';
 import type { ModelGeometry } from '../inference/model-geometry.ts';
 import { designFactor } from '../inference/orthonormal-basis.ts';
-import { scaledConditionNumber, varianceInflationFactors } from './collinearity.ts';
+import { scaledConditionNumber } from './collinearity.ts';
 import { centredConditionFromFactor, centringFactor, conditionFromFactor, inflationFromFactor } from './scaled-factor.ts';
 import { DIAGNOSTIC_THRESHOLDS as T } from './thresholds.ts';
 import type { MulticollinearityCheck } from './types.ts';
@@ -63,6 +64,10 @@ export function multicollinearityCheck(
   else if (slopeIndices.length === 0) notes.push('The model has no regressor besides the intercept, so nothing can be collinear.');
   else if (!design.intercept) notes.push('The model has no intercept; the variance inflation factors and the condition number are computed on centred columns all the same.');
   if (unbounded) notes.push('Once centred, some columns are exactly collinear, so their variance inflation is unbounded.');
+  const built = builtFromInflated(design, slopeIndices, vifs);
+  if (built.length > 0) {
+    notes.push(`${built.map((l) => JSON.stringify(l)).join(', ')} ${built.length === 1 ? 'is a power or product' : 'are powers or products'} of columns far from zero, nearly collinear with the columns ${built.length === 1 ? 'it is' : 'they are'} built from by construction: the fit and the criteria are unaffected, and centring those columns before forming the power or product (the same model) removes most of it.`);
+  }
   return {
     varianceInflationFactors: slopeIndices.map((j, k) => ({ term: design.labels[j], vif: vifs[k] ?? null })),
     maxVarianceInflation: maxVif,
@@ -77,4 +82,20 @@ export function multicollinearityCheck(
         : (maxVif === null || maxVif <= T.varianceInflation) && conditionNumber <= T.conditionNumber,
     note: notes.length ? notes.join(' ') : null,
   };
+}
+
+/**
+ * Inflated columns that are powers or products (by their identity, never
+ * their label): their collinearity with their own factors is structural, and
+ * centring before forming them is the usual remedy (common practice).
+ */
+function builtFromInflated(design: DesignMatrix, slopeIndices: readonly number[], vifs: readonly (number | null)[]): string[] {
+  if (!design.keys) return [];
+  const out: string[] = [];
+  slopeIndices.forEach((j, k) => {
+    const v = vifs[k];
+    const kind = keyKind(design.keys![j]);
+    if (v !== null && v > T.varianceInflation && (kind === 'power' || kind === 'product')) out.push(design.labels[j]);
+  });
+  return out;
 }
