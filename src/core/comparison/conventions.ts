@@ -5,7 +5,11 @@ import type { RankByChoice } from '../policy.ts';
 import { ALIAS_TOLERANCE } from '../fit/index.ts';
 import { PIVOT_TOLERANCE } from '../search/sweep.ts';
 
-export const CONVENTIONS_VERSION = '1';
+// 2: coefficient labels of the service's own; predictions of a transformed
+// response on the original scale (the median); averaged coefficients over one
+// scale and predictions over all; the collinearity condition number of the
+// centred regressors; zero weights leave rows out.
+export const CONVENTIONS_VERSION = '2';
 
 export interface Conventions {
   version: string;
