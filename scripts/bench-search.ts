@@ -36,7 +36,7 @@ const x = Array.from({ length: m }, () => Float64Array.from({ length: rows }, ()
 const y = Float64Array.from({ length: rows }, (_, i) => x[0][i] + 0.5 * x[1][i] - 0.3 * x[2][i] + 0.5 * (uniform() - 0.5));
 const designOf = (terms: number[]): DesignMatrix => {
   const high = [new Float64Array(rows).fill(1), ...terms.map((t) => x[t])];
-  return { rows, labels: ['(intercept)', ...terms.map((t) => `x${t}`)], high, low: high.map(() => new Float64Array(rows)), intercept: true, termOfColumn: [-1, ...terms] };
+  return { rows, labels: ['intercept', ...terms.map((t) => `x${t}`)], high, low: high.map(() => new Float64Array(rows)), intercept: true, termOfColumn: [-1, ...terms] };
 };
 const all = [...Array(m).keys()];
 const problem = subsetProblemFromDesign(designOf(all), y, null, m, noHierarchy(m));

@@ -105,7 +105,7 @@ beetle <- data.frame(
 beetle_new <- data.frame(dose = c(1.70, 1.78, 1.86))
 for (link in c("logit", "probit", "cloglog")) {
   fit <- polish(glm(cbind(killed, exposed - killed) ~ dose, family = binomial(link = link), data = beetle, control = CONTROL))
-  cases[[paste0("beetle-", link)]] <- case(fit, c("(intercept)", "dose"), "binomial", link, beetle, "killed", list("dose"),
+  cases[[paste0("beetle-", link)]] <- case(fit, c("intercept", "dose"), "binomial", link, beetle, "killed", list("dose"),
     1, as.numeric(logLik(fit)), NULL, trials = "exposed", newdata = beetle_new)
 }
 # The same beetles one row each (0/1 response): same coefficients, a
@@ -117,7 +117,7 @@ each <- data.frame(
 fit01 <- polish(glm(dead ~ dose, family = binomial, data = each, control = CONTROL))
 cases[["beetle-logit-ungrouped"]] <- list(
   family = "binomial", link = "logit", rows = nrow(each),
-  coefficients = coefficient_table(fit01, 1, c("(intercept)", "dose")),
+  coefficients = coefficient_table(fit01, 1, c("intercept", "dose")),
   logLikelihood = as.numeric(logLik(fit01)), deviance = fit01$deviance,
   sumLogBinomialCoefficients = sum(lchoose(beetle$exposed, beetle$killed))
 )
@@ -135,7 +135,7 @@ seams_f <- transform(seams, gas = codepoint_factor(gas))
 seams_new <- data.frame(length = c(1, 2, 3), current = c(130, 170, 210), gas = factor(c("argon", "co2", "mix"), levels = levels(seams_f$gas)))
 big <- polish(glm(defects ~ current + gas, offset = log(length), family = poisson, data = seams_f, control = CONTROL))
 small <- polish(glm(defects ~ current, offset = log(length), family = poisson, data = seams_f, control = CONTROL))
-cases[["seams-poisson-offset"]] <- case(big, c("(intercept)", "current", "gas[co2]", "gas[mix]"), "poisson", "log",
+cases[["seams-poisson-offset"]] <- case(big, c("intercept", "current", "gas=co2", "gas=mix"), "poisson", "log",
   seams, "defects", list("current", "gas"), 1, as.numeric(logLik(big)), NULL,
   offset = "logLength", newdata = seams_new, newoffset = log(c(1, 2, 3)))
 cases[["seams-poisson-offset"]]$data$logLength <- arr(log(seams$length))
@@ -146,7 +146,7 @@ cases[["seams-poisson-offset"]]$data$logLength <- arr(log(seams$length))
 # compared: deviance, log-likelihood, leverages, Cook's distances, residuals
 # and predictions with their standard errors.
 cubic <- polish(glm(defects ~ poly(current, 3) + gas, offset = log(length), family = poisson, data = seams_f, control = CONTROL))
-cases[["seams-poisson-cubic"]] <- case(cubic, c("(intercept)", "p1", "p2", "p3", "gas[co2]", "gas[mix]"), "poisson", "log",
+cases[["seams-poisson-cubic"]] <- case(cubic, c("intercept", "p1", "p2", "p3", "gas=co2", "gas=mix"), "poisson", "log",
   seams, "defects", list("current", list(kind = "power", of = "current", degree = 2), list(kind = "power", of = "current", degree = 3), "gas"),
   1, as.numeric(logLik(cubic)), NULL, offset = "logLength", newdata = seams_new, newoffset = log(c(1, 2, 3)))
 cases[["seams-poisson-cubic"]]$data$logLength <- arr(log(seams$length))
@@ -190,7 +190,7 @@ nb_alternation <- function(formula) {
 nb <- nb_alternation(leaks ~ pressure + age + offset(logValves))
 nb_small <- nb_alternation(leaks ~ pressure + offset(logValves))
 valves_new <- data.frame(pressure = c(16, 40, 60), age = c(5, 15, 25), logValves = log(c(10, 20, 30)))
-cases[["valves-negative-binomial"]] <- case(nb$fit, c("(intercept)", "pressure", "age"), "negativeBinomial", "log",
+cases[["valves-negative-binomial"]] <- case(nb$fit, c("intercept", "pressure", "age"), "negativeBinomial", "log",
   valves, "leaks", list("pressure", "age"), 1, nb$logLik,
   list(name = "theta", estimate = nb$theta, standardError = nb$se),
   offset = "logValves", newdata = valves_new, newoffset = valves_new$logValves)
@@ -206,7 +206,7 @@ rate <- 0.5 - 0.015 * pumps$age + c(harbour = 0, inland = 0.1, upland = -0.08)[p
 pumps$hours <- rgamma(n, shape = 4, rate = 4 * rate)
 pumps_f <- transform(pumps, site = codepoint_factor(site))
 pumps_new <- data.frame(age = c(2, 10, 18), site = factor(c("harbour", "inland", "upland"), levels = levels(pumps_f$site)))
-gamma_labels <- c("(intercept)", "age", "site[inland]", "site[upland]")
+gamma_labels <- c("intercept", "age", "site=inland", "site=upland")
 for (link in c("log", "inverse")) {
   fit <- polish(glm(hours ~ age + site, family = Gamma(link = link), data = pumps_f, control = CONTROL))
   shape <- gamma.shape(fit, it.lim = 100, eps.max = 1e-12)
@@ -245,7 +245,7 @@ for (link in c("1/mu^2", "log")) {
     start = if (link == "log") c(5, -0.01) else c(1e-5, 2e-7)))
   phi <- fit$deviance / n
   name <- if (link == "log") "log" else "inverseSquare"
-  cases[[paste0("sensors-inverse-gaussian-", name)]] <- case(fit, c("(intercept)", "temperature"), "inverseGaussian", name,
+  cases[[paste0("sensors-inverse-gaussian-", name)]] <- case(fit, c("intercept", "temperature"), "inverseGaussian", name,
     sensors, "days", list("temperature"), phi, as.numeric(logLik(fit)),
     list(name = "dispersion", estimate = phi, standardError = phi * sqrt(2 / n)), newdata = sensors_new)
 }

@@ -42,7 +42,7 @@ right <- fits(function(fam) survreg(Surv(rightOnlyCycles, rightOnlyStatus == "ex
 bear <- fits(function(fam) survreg(Surv(bearings) ~ 1, dist = fam, control = control))
 versions <- obj(R = str(R.version$version.string), survival = str(as.character(packageVersion("survival"))))
 writeLines(paste0("{\n \"source\": \"survival::survreg, formula ~ I(1/kelvin) + finish (reference matte) + load; coefficients on log-time (time for normal, logistic, extreme); scale is sigma; logLikelihood is survreg's loglik[2]\",\n",
-                  " \"versions\": ", versions, ",\n \"terms\": [\"(intercept)\", \"1/kelvin\", \"finish[gloss]\", \"load\"],\n",
+                  " \"versions\": ", versions, ",\n \"terms\": [\"intercept\", \"1/kelvin\", \"finish=gloss\", \"load\"],\n",
                   " \"mixed\": ", mixed, ",\n \"right\": ", right, ",\n \"bearings\": ", bear, "\n}"),
            file.path(out_dir, "survreg-aft.json"))
 

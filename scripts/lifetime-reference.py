@@ -201,7 +201,7 @@ def gamma_aft(d):
         out[label] = {'coefficients': coefficients, 'shape': float(math.exp(r.x[4])), 'logLikelihood': float(-r.fun),
                       'optimizer': 'Nelder-Mead then BFGS (gtol 1e-9)'}
     return {'source': 'scipy.optimize on the censored gamma likelihood (scipy.stats.gamma.logpdf, scipy.special.gammainc/gammaincc)',
-            'versions': VERSIONS, 'terms': ['(intercept)', '1/kelvin', 'finish[gloss]', 'load'], 'fits': out}
+            'versions': VERSIONS, 'terms': ['intercept', '1/kelvin', 'finish=gloss', 'load'], 'fits': out}
 
 def pump_inspections():
     # Our own scenario: 60 pump seals, each checked on its own irregular

@@ -5,13 +5,18 @@
 // sentence that names the field, written here once so all callers read the
 // same words.
 
+import { isMissingMarker, readsAsNumber } from './design/text-values.ts';
+
 export type IssuePath = (string | number)[];
 
 /** The facts each issue code carries, besides its path and message. */
 export interface IssueFacts {
   no_candidates: Record<string, never>;
   duplicate_name: { name: string; first: number };
-  unknown_column: { column: string };
+  /** available: the data's columns (at most 20 listed); suggestion: a near match, if any. */
+  unknown_column: { column: string; available: string[]; columns: number; suggestion: string | null };
+  /** A text column whose values all read as numbers, used where a number or a factor declaration belongs. */
+  numbers_as_text: { column: string; example: string; missingMarkers: string[] };
   column_length_mismatch: { column: string; length: number; expected: number };
   column_mixed_types: { column: string; row: number };
   value_not_finite: { column: string; row: number };
@@ -36,7 +41,8 @@ export interface IssueFacts {
   too_few_rows: { rows: number; parameters: number };
   observations_mismatch: { observations: number; expected: number; against: string };
   residuals_count_mismatch: { residuals: number; rows: number; dataRows: number };
-  residual_at_dropped_row: { row: number };
+  /** row: the first; rows: up to 20 of them, count: all. */
+  residual_at_dropped_row: { row: number; rows: number[]; count: number };
   residual_missing: { row: number };
   estimation_mixed: { reml: string[]; ml: string[] };
   reml_fixed_effects_missing: { name: string };
@@ -71,6 +77,9 @@ export interface IssueFacts {
   /** With hierarchy, an always term needs a lower-order term that is not in always. */
   hierarchy_always_incomplete: { label: string; needs: string; inPool: boolean };
   nested_test_invalid: { reason: string };
+  prediction_column_missing: { column: string; sent: string[] };
+  prediction_level_unknown: { column: string; level: string; levels: string[] };
+  prediction_weight_invalid: { column: string; row: number; value: string | number | null };
   // Lifetime distributions and censored observations (src/core/models/lifetime).
   censoring_status_unknown: { column: string; row: number; value: string };
   /** column null: the request names no upper column at all. */
@@ -154,11 +163,21 @@ function quoteList(values: string[]): string {
   return values.map((v) => JSON.stringify(v)).join(', ');
 }
 
+/** Advice for a text value where a number belongs. */
+function textAdvice(value: string): string {
+  if (isMissingMarker(value)) return ' — use null for a missing value';
+  if (readsAsNumber(value)) return ' — send numbers as JSON numbers, not as text';
+  return '';
+}
+
 const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } = {
   no_candidates: (_f, at) => `${at} lists no candidate models; give at least one.`,
   duplicate_name: (f, at) =>
     `${at} repeats the name ${JSON.stringify(f.name)} already used by candidate ${f.first}; names must be unique.`,
-  unknown_column: (f, at) => `${at} refers to column ${JSON.stringify(f.column)}, which the data does not have.`,
+  unknown_column: (f, at) =>
+    `${at} refers to column ${JSON.stringify(f.column)}, which the data does not have${f.suggestion === null ? '' : `; did you mean ${JSON.stringify(f.suggestion)}?`} The data's columns: ${quoteList(f.available)}${f.columns > f.available.length ? ` and ${f.columns - f.available.length} more` : ''}.`,
+  numbers_as_text: (f, at) =>
+    `${at} uses column ${JSON.stringify(f.column)}, whose values are all numbers written as text (e.g. ${JSON.stringify(f.example)})${f.missingMarkers.length > 0 ? ` or missing-value markers (${quoteList(f.missingMarkers)})` : ''}; as text it would become a factor with a level per distinct value. Send the values as JSON numbers${f.missingMarkers.length > 0 ? ' with null for a missing value' : ''}, or, if they are category codes, declare the column { "kind": "factor", "of": ${JSON.stringify(f.column)} }.`,
   column_length_mismatch: (f, at) =>
     `${at} has ${f.length} values but the other columns have ${f.expected}; all columns must be the same length.`,
   column_mixed_types: (f, at) =>
@@ -166,13 +185,13 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   value_not_finite: (f, at) => `${at} holds a value at row ${f.row} that is not a finite number.`,
   value_missing: (f, at) => `${at} is missing a value at row ${f.row}, a row the comparison uses.`,
   response_not_numeric: (f, at) =>
-    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; the response must be numeric.`,
+    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; the response must be numeric${textAdvice(f.value)}.`,
   response_constant: (f, at) =>
     `${at} names column ${JSON.stringify(f.column)}, which is constant (${f.value}) on all ${f.rows} rows used; there is nothing to explain.`,
   weights_not_numeric: (f, at) =>
-    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; weights must be numbers.`,
+    `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; weights must be numbers${textAdvice(f.value)}.`,
   weights_not_positive: (f, at) =>
-    `${at} names column ${JSON.stringify(f.column)}, whose value at row ${f.row} is ${f.value === null ? 'missing' : f.value}; weights must be positive.`,
+    `${at} names column ${JSON.stringify(f.column)}, whose value at row ${f.row} is ${f.value === null ? 'missing' : f.value}; weights must be positive (0 leaves a row out; a negative weight has no meaning).`,
   term_form_unknown: (_f, at) => `${at} is not one of the term forms: a column name, power, product, transform or factor.`,
   term_not_numeric: (f, at) =>
     `${at} takes a ${f.form} of column ${JSON.stringify(f.column)}, which is categorical; a ${f.form} needs a numeric column.`,
@@ -193,9 +212,11 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   design_value_not_finite: (f, at) =>
     `${at} gives design column ${JSON.stringify(f.label)} a value at row ${f.row} too large for a double.`,
   duplicate_term: (f, at) =>
-    `${at} produces design column ${JSON.stringify(f.label)}, which term ${f.first} of the same candidate already produces (the order of a product's columns does not matter).`,
+    f.first < 0
+      ? `${at} produces design column ${JSON.stringify(f.label)}, the label of the model's intercept; rename the data column, or set intercept to false.`
+      : `${at} produces design column ${JSON.stringify(f.label)}, which term ${f.first} of the same candidate already produces (the order of a product's columns does not matter).`,
   all_rows_dropped: (f, at) =>
-    `${at}: every one of the ${f.rows} rows has a missing value in a column some candidate uses, so no rows are left.`,
+    `${at}: every one of the ${f.rows} rows has a missing value (or a zero weight) in a column some candidate uses, so no rows are left.`,
   too_few_rows: (f, at) =>
     `${at} has ${f.parameters} coefficients to estimate from ${f.rows} rows; a model needs at least as many rows as coefficients (and more for any criterion to exist).`,
   observations_mismatch: (f, at) =>
@@ -203,7 +224,7 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   residuals_count_mismatch: (f, at) =>
     `${at} has ${f.residuals} residuals; send one per row the comparison uses (${f.rows}) or one per data row (${f.dataRows}) with null where a row is dropped.`,
   residual_at_dropped_row: (f, at) =>
-    `${at} has a residual at data row ${f.row}, which the comparison drops (a missing value in a column some candidate uses); the model was fitted on rows the others do not use — refit it on the common rows, or send null there.`,
+    `${at} has residuals at ${f.count === 1 ? 'data row' : `${f.count} data rows`} ${f.rows.join(', ')}${f.count > f.rows.length ? ', …' : ''}, which the comparison drops (a missing value, or a zero weight, in a column some candidate uses); the model was fitted on rows the other candidates are not scored on, so its likelihood is not comparable — refit it on the common rows and send its residuals there.`,
   residual_missing: (f, at) =>
     `${at} is null at data row ${f.row}, which the comparison uses; every used row needs a residual.`,
   estimation_mixed: (f, at) =>
@@ -221,6 +242,12 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
       ? `${at} expects dataset ${f.expected}, but the request has no data to fingerprint.`
       : `${at} expects dataset ${f.expected}, but the rows this comparison uses fingerprint as ${f.actual}; the data differ from what the caller expected.`,
   nested_test_invalid: (f, at) => `${at} names a pair that cannot be tested: ${f.reason}`,
+  prediction_column_missing: (f, at) =>
+    `${at} lacks column ${JSON.stringify(f.column)}, which a fitted candidate uses; the prediction rows need every column the fitted candidates use${f.sent.length > 0 ? ` (they have ${quoteList(f.sent)})` : ''}.`,
+  prediction_level_unknown: (f, at) =>
+    `${at} holds level ${JSON.stringify(f.level)} of column ${JSON.stringify(f.column)}, which the rows the models were fitted on do not have (they have ${quoteList(f.levels)}); a model predicts only at levels it was fitted on.`,
+  prediction_weight_invalid: (f, at) =>
+    `${at} gives the new observation at row ${f.row} the weight ${f.value === null ? 'null' : JSON.stringify(f.value)}; a weight in the prediction rows must be a positive number (leave the weights column out for weight 1).`,
   work_limit: (f, at) =>
     `The request would take about ${roughly(f.estimate)} ${f.unit} of computing (estimated from its shape before any of it runs), above the limit of ${roughly(f.limit)} (${f.setting}); the largest part is ${f.largest}, at ${at}. ${f.remedy}.`,
   memory_limit: (f, at) =>

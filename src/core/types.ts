@@ -23,7 +23,7 @@ export type Columns = Readonly<Record<string, ColumnValues>>;
  */
 export interface DesignMatrix {
   rows: number;
-  /** One readable label per column, e.g. "(intercept)", "peakTemp^2", "kiln[west]". */
+  /** One readable label per column, e.g. "intercept", "peakTemp^2", "kiln=west", "peakTemp×kiln=west". */
   labels: string[];
   /**
    * One identity per column, built from the structured term (see

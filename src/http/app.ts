@@ -22,6 +22,7 @@ import { registerServicePlugins } from './plugins/service-plugins.ts';
 import { KeyRing } from './security/key-ring.ts';
 import { loadKeysFile } from './security/keys-file.ts';
 import { healthRoutes } from './routes/health.ts';
+import { rootRoutes } from './routes/root.ts';
 import { comparisonRoutes } from './routes/comparisons.ts';
 import { recordRoutes } from './routes/records.ts';
 import { pictureRoutes } from './routes/pictures.ts';
@@ -121,6 +122,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
     if (!givenPool) await pool.close();
   });
 
+  await app.register(rootRoutes);
   if (chainAtStart?.finding) app.metrics.recordChainFinding(chainAtStart.finding);
   await app.register(healthRoutes, { store, chainAtStart });
   await app.register(comparisonRoutes, { store, config, policy, compute });

@@ -31,8 +31,9 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     response: body.response ?? null,
     weights: body.weights ?? null,
     candidates: body.candidates.map(candidateInput),
-    rankBy: body.options.rankBy,
+    rankBy: body.options.rankBy ?? body.rankBy,
     confidenceLevel: body.options.confidenceLevel,
+    intervalLevel: body.options.intervalLevel,
     expectedFingerprint: body.datasetFingerprint,
     extras: {
       tests: body.options.tests,

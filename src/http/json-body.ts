@@ -13,6 +13,7 @@ import { toPointer } from './problems.ts';
 import { locateInJson } from './body/locate.ts';
 import { scanJsonText } from './body/text-scan.ts';
 import { textNeedsChecks, walkValue } from './body/value-walk.ts';
+import { nonJsonNumber } from './non-json-numbers.ts';
 
 export type BodyRefusalKind = 'invalid-json' | 'unsafe-key' | 'bad-text' | 'too-deep' | 'duplicate-key';
 
@@ -58,6 +59,12 @@ export function parseJsonBody(text: string, maxDepth: number): { value: unknown 
     // prototype), so the walk sees it and refuses it.
     value = JSON.parse(text);
   } catch (error) {
+    // NaN, Infinity and the like (written by some JSON encoders) get a message that says what to send instead.
+    const token = nonJsonNumber(text);
+    if (token) {
+      const what = `${token.token} is not a JSON number: use null for a missing value (and a finite number otherwise)`;
+      return { refused: new BodyRefused('invalid-json', token.path, token.path === null ? `the body is not valid JSON: ${what}` : what) };
+    }
     return { refused: new BodyRefused('invalid-json', null, `the body is not valid JSON: ${(error as Error).message}`) };
   }
   const walk = walkValue(value, textNeedsChecks(text));
@@ -79,8 +86,14 @@ export function parseJsonBody(text: string, maxDepth: number): { value: unknown 
 /** maxDepth: JSON_MAX_DEPTH (src/config.ts has the default and why). */
 export function registerJsonBody(app: FastifyInstance, { maxDepth }: { maxDepth: number }): void {
   app.removeContentTypeParser(['application/json', 'text/plain']);
-  app.addContentTypeParser('application/json', { parseAs: 'string' }, (_request, body, done) => {
-    const parsed = parseJsonBody(body as string, maxDepth);
+  app.addContentTypeParser('application/json', { parseAs: 'string' }, (request, body, done) => {
+    const text = body as string;
+    // A route that takes no body (replay) accepts an empty one, whatever the content type says.
+    if (text.trim() === '' && (request.routeOptions.config as { emptyBody?: boolean } | undefined)?.emptyBody) {
+      done(null, undefined);
+      return;
+    }
+    const parsed = parseJsonBody(text, maxDepth);
     if ('refused' in parsed) done(parsed.refused, undefined);
     else done(null, parsed.value);
   });

@@ -49,6 +49,8 @@ function expand(issue: ZodIssue, prefix: PropertyKey[]): ValidationIssue[] {
     );
     const best = ranked[0];
     if (structuralFailures(best) === 0) return best.flatMap((i) => expand(i, path));
+    // A union with its own message (the candidate forms, a data value) says it better than any one branch.
+    if (issue.message !== 'Invalid input') return [{ path, message: issue.message, code: issue.code }];
     const hint = best.find((i) => i.code === 'invalid_type' || i.code === 'unrecognized_keys') ?? best[0];
     const where = hint.path.length ? ` (nearest form: ${hint.path.join('.')}: ${hint.message})` : ` (nearest form: ${hint.message})`;
     return [{ path, message: `${issue.message === 'Invalid input' ? 'matches none of the accepted forms' : issue.message}${where}`, code: issue.code }];

@@ -44,10 +44,10 @@ t.test('common rows: a missing value in any used column drops the row for everyo
 
 t.test('numeric column, intercept and term mapping', async (t) => {
   const d = design(['peakTemp', 'holdMinutes']);
-  t.same(d.labels, ['(intercept)', 'peakTemp', 'holdMinutes']);
+  t.same(d.labels, ['intercept', 'peakTemp', 'holdMinutes']);
   t.same(d.termOfColumn, [-1, 0, 1]);
   t.equal(d.rows, 5);
-  t.same(col(d, '(intercept)'), [1, 1, 1, 1, 1]);
+  t.same(col(d, 'intercept'), [1, 1, 1, 1, 1]);
   t.same(col(d, 'peakTemp'), [1180, 1200, 1220, 1240, 1160]);
   t.same(low(d, 'peakTemp'), [0, 0, 0, 0, 0]);
   const noIntercept = design(['peakTemp'], false);
@@ -57,7 +57,7 @@ t.test('numeric column, intercept and term mapping', async (t) => {
 
 t.test('powers in double-double', async (t) => {
   const d = design([{ kind: 'power', of: 'peakTemp', degree: 2 }, { kind: 'power', of: 'holdMinutes', degree: 3 }]);
-  t.same(d.labels, ['(intercept)', 'peakTemp^2', 'holdMinutes^3']);
+  t.same(d.labels, ['intercept', 'peakTemp^2', 'holdMinutes^3']);
   // 1180² = 1392400, 1200² = 1440000, ... all exact in double, so low = 0.
   t.same(col(d, 'peakTemp^2'), [1392400, 1440000, 1488400, 1537600, 1345600]);
   t.same(low(d, 'peakTemp^2'), [0, 0, 0, 0, 0]);
@@ -78,35 +78,35 @@ t.test('products: numeric×numeric, factor×numeric, factor×factor', async (t) 
   ]);
   // glaze on rows 0,1,2,3,5 = matte, gloss, gloss, matte, matte: levels gloss < matte
   // (satin appears only on dropped row 4); reference gloss; kiln reference east.
-  t.same(d.labels, ['(intercept)', 'peakTemp:holdMinutes', 'peakTemp:kiln[west]', 'kiln[west]:glaze[matte]']);
+  t.same(d.labels, ['intercept', 'peakTemp×holdMinutes', 'peakTemp×kiln=west', 'kiln=west×glaze=matte']);
   t.same(d.termOfColumn, [-1, 0, 1, 2]);
-  t.same(col(d, 'peakTemp:holdMinutes'), [35400, 54000, 73200, 37200, 69600]);
+  t.same(col(d, 'peakTemp×holdMinutes'), [35400, 54000, 73200, 37200, 69600]);
   // kiln = east, west, east, west, west
-  t.same(col(d, 'peakTemp:kiln[west]'), [0, 1200, 0, 1240, 1160]);
-  t.same(col(d, 'kiln[west]:glaze[matte]'), [0, 0, 0, 1, 1]);
+  t.same(col(d, 'peakTemp×kiln=west'), [0, 1200, 0, 1240, 1160]);
+  t.same(col(d, 'kiln=west×glaze=matte'), [0, 0, 0, 1, 1]);
 
-  // With all six rows satin is a level too: kiln[west] × {glaze[matte], glaze[satin]}.
+  // With all six rows satin is a level too: kiln=west × {glaze=matte, glaze=satin}.
   const all = design([{ kind: 'product', of: ['kiln', 'glaze'] }], true, [0, 1, 2, 3, 4, 5]);
-  t.same(all.labels, ['(intercept)', 'kiln[west]:glaze[matte]', 'kiln[west]:glaze[satin]']);
-  t.same(col(all, 'kiln[west]:glaze[matte]'), [0, 0, 0, 1, 0, 1]);
-  t.same(col(all, 'kiln[west]:glaze[satin]'), [0, 0, 0, 0, 0, 0]);
+  t.same(all.labels, ['intercept', 'kiln=west×glaze=matte', 'kiln=west×glaze=satin']);
+  t.same(col(all, 'kiln=west×glaze=matte'), [0, 0, 0, 1, 0, 1]);
+  t.same(col(all, 'kiln=west×glaze=satin'), [0, 0, 0, 0, 0, 0]);
 });
 
 t.test('factors: default reference, override, and its reach into products', async (t) => {
   const d = design(['kiln', 'glaze']);
-  t.same(d.labels, ['(intercept)', 'kiln[west]', 'glaze[matte]']);
-  t.same(col(d, 'kiln[west]'), [0, 1, 0, 1, 1]);
-  t.same(col(d, 'glaze[matte]'), [1, 0, 0, 1, 1]);
+  t.same(d.labels, ['intercept', 'kiln=west', 'glaze=matte']);
+  t.same(col(d, 'kiln=west'), [0, 1, 0, 1, 1]);
+  t.same(col(d, 'glaze=matte'), [1, 0, 0, 1, 1]);
 
   const o = design([{ kind: 'factor', of: 'kiln', reference: 'west' }, { kind: 'product', of: ['peakTemp', 'kiln'] }]);
-  t.same(o.labels, ['(intercept)', 'kiln[east]', 'peakTemp:kiln[east]']);
-  t.same(col(o, 'kiln[east]'), [1, 0, 1, 0, 0]);
-  t.same(col(o, 'peakTemp:kiln[east]'), [1180, 0, 1220, 0, 0]);
+  t.same(o.labels, ['intercept', 'kiln=east', 'peakTemp×kiln=east']);
+  t.same(col(o, 'kiln=east'), [1, 0, 1, 0, 0]);
+  t.same(col(o, 'peakTemp×kiln=east'), [1180, 0, 1220, 0, 0]);
 
   // A numeric column declared a factor: levels by value (30 < 45 < 60), labels as numbers.
   const h = design([{ kind: 'factor', of: 'holdMinutes' }]);
-  t.same(h.labels, ['(intercept)', 'holdMinutes[45]', 'holdMinutes[60]']);
-  t.same(col(h, 'holdMinutes[60]'), [0, 0, 1, 0, 1]);
+  t.same(h.labels, ['intercept', 'holdMinutes=45', 'holdMinutes=60']);
+  t.same(col(h, 'holdMinutes=60'), [0, 0, 1, 0, 1]);
 });
 
 t.test('levels sort by code point, not UTF-16 code unit', async (t) => {
@@ -115,7 +115,7 @@ t.test('levels sort by code point, not UTF-16 code unit', async (t) => {
   const cols: Columns = { k: ['\u{1F600}', '\uFF5E', '\u{1F600}'] };
   const r = buildDesign(cols, ['k'], true, [0, 1, 2]);
   if (!('design' in r)) throw new Error('unexpected issues');
-  t.same(r.design.labels, ['(intercept)', 'k[\u{1F600}]']);
+  t.same(r.design.labels, ['intercept', 'k=\u{1F600}']);
 });
 
 t.test('transforms in double-double, with their labels', async (t) => {
@@ -174,7 +174,7 @@ t.test('terms validated against the data, with paths', async (t) => {
   t.match(issuesOf([{ kind: 'factor', of: 'glaze', reference: 'satin' }]), [{ code: 'factor_level_unknown', levels: ['gloss', 'matte'] }]);
   t.match(issuesOf(['kiln'], [0, 2, 4]), [{ code: 'factor_one_level', column: 'kiln', levels: ['east'] }]);
   t.match(issuesOf(['kiln', { kind: 'factor', of: 'kiln' }]),
-    [{ code: 'duplicate_term', label: 'kiln[west]', first: 0, path: ['candidates', 1, 'terms', 1] }]);
+    [{ code: 'duplicate_term', label: 'kiln=west', first: 0, path: ['candidates', 1, 'terms', 1] }]);
   t.match(issuesOf([{ kind: 'factor', of: 'kiln', reference: 'east' }, { kind: 'factor', of: 'kiln', reference: 'west' }]),
     [{ code: 'factor_reference_conflict', references: ['east', 'west'], path: ['candidates', 1, 'terms', 1, 'reference'] }]);
   t.match(issuesOf([{ kind: 'power', of: 'peakTemp', degree: 200 }]), [{ code: 'design_value_not_finite', label: 'peakTemp^200' }]);
@@ -187,16 +187,16 @@ t.test('terms validated against the data, with paths', async (t) => {
 t.test('termLabel describes terms in the request form', async (t) => {
   t.equal(termLabel('peakTemp'), 'peakTemp');
   t.equal(termLabel({ kind: 'power', of: 'peakTemp', degree: 2 }), 'peakTemp^2');
-  t.equal(termLabel({ kind: 'product', of: ['peakTemp', 'holdMinutes'] }), 'peakTemp:holdMinutes');
+  t.equal(termLabel({ kind: 'product', of: ['peakTemp', 'holdMinutes'] }), 'peakTemp×holdMinutes');
   t.equal(termLabel({ kind: 'transform', of: 'moisture', fn: 'log' }), 'log(moisture)');
   t.equal(termLabel({ kind: 'transform', of: 'x', fn: 'reciprocal' }), '1/x');
-  t.equal(termLabel({ kind: 'factor', of: 'kiln', reference: 'west' }), 'factor(kiln, reference=west)');
+  t.equal(termLabel({ kind: 'factor', of: 'kiln', reference: 'west' }), 'kiln (factor, reference west)');
 });
 
 t.test('column keys: identity from the structured term, never from the label', async (t) => {
   // A data column literally named "peakTemp^2" shares the label of the power
   // term but is a different column; its key says so.
-  const data: Columns = { ...table, 'peakTemp^2': [1, 2, 3, 4, 5, 6], '(intercept)': [1, 1, 1, 1, 1, 1] };
+  const data: Columns = { ...table, 'peakTemp^2': [1, 2, 3, 4, 5, 6], 'intercept': [1, 1, 1, 1, 1, 1] };
   const build = (terms: Term[], intercept = true, rows = [0, 1, 2, 3, 5]) => {
     const r = buildDesign(data, terms, intercept, rows);
     if (!('design' in r)) throw new Error(JSON.stringify(r.issues));
@@ -206,13 +206,13 @@ t.test('column keys: identity from the structured term, never from the label', a
   const power = build([{ kind: 'power', of: 'peakTemp', degree: 2 }]);
   t.same(raw.labels, power.labels);
   t.not(raw.keys![1], power.keys![1]);
-  t.not(build(['(intercept)'], false).keys![0], power.keys![0]);
+  t.not(build(['intercept'], false).keys![0], power.keys![0]);
   // One label, two codings: the dummy's key carries the reference.
   const all = [0, 1, 2, 3, 4, 5]; // row 4 holds the only "satin"
   const east = build([{ kind: 'factor', of: 'glaze', reference: 'gloss' }], true, all);
   const satin = build([{ kind: 'factor', of: 'glaze', reference: 'satin' }], true, all);
-  const eastMatte = east.keys![east.labels.indexOf('glaze[matte]')];
-  const satinMatte = satin.keys![satin.labels.indexOf('glaze[matte]')];
+  const eastMatte = east.keys![east.labels.indexOf('glaze=matte')];
+  const satinMatte = satin.keys![satin.labels.indexOf('glaze=matte')];
   t.not(eastMatte, satinMatte);
   t.same(JSON.parse(eastMatte), ['level', 'glaze', 'matte', 'gloss']);
   // a:b and b:a are one column: same key, so one candidate may not hold both.

@@ -85,8 +85,8 @@ t.test('arrays without a unique identifying key are compared by position', async
 
 t.test('coefficients match by term, cautions by code', async (t) => {
   const { changes } = diffResults(
-    { coefficients: [{ term: '(intercept)', estimate: 1 }, { term: 'x', estimate: 2 }], cautions: [{ code: 'a', message: 'm' }, { code: 'b', message: 'n' }] },
-    { coefficients: [{ term: 'x', estimate: 2 }, { term: '(intercept)', estimate: 1 }], cautions: [{ code: 'b', message: 'n' }, { code: 'a', message: 'm' }] },
+    { coefficients: [{ term: 'intercept', estimate: 1 }, { term: 'x', estimate: 2 }], cautions: [{ code: 'a', message: 'm' }, { code: 'b', message: 'n' }] },
+    { coefficients: [{ term: 'x', estimate: 2 }, { term: 'intercept', estimate: 1 }], cautions: [{ code: 'b', message: 'n' }, { code: 'a', message: 'm' }] },
   );
   t.same(changes, [], 'the same entries in another order are no change');
 });

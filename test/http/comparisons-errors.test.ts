@@ -98,7 +98,7 @@ t.test('well-formed requests that cannot be computed are 422s with facts', async
     ['constant response', { ...valid, data: { columns: { ...columns, shrinkage: columns.shrinkage.map(() => 7) } } }, 'response', 'response_constant'],
     ['log of a non-positive value', { ...valid, data: { columns: { ...columns, peakTemp: [0, ...columns.peakTemp.slice(1)] } }, candidates: [{ name: 'log', terms: [{ kind: 'transform', of: 'peakTemp', fn: 'log' }] }] }, 'candidates/0/terms/0', 'transform_domain'],
     ['more coefficients than rows', { ...valid, candidates: [{ name: 'wiggly', terms: ['peakTemp', ...[2, 3, 4, 5, 6, 7, 8].map((degree) => ({ kind: 'power', of: 'peakTemp', degree }))] }] }, 'candidates/0', 'too_few_rows'],
-    ['weights not positive', { ...valid, data: { columns: { ...columns, w: [1, 1, 0, 1, 1, 1, 1, 1] } }, weights: 'w' }, 'weights', 'weights_not_positive'],
+    ['weights negative', { ...valid, data: { columns: { ...columns, w: [1, 1, -0.5, 1, 1, 1, 1, 1] } }, weights: 'w' }, 'weights', 'weights_not_positive'],
     ['power of a text column', { ...valid, candidates: [{ name: 'p', terms: [{ kind: 'power', of: 'kiln', degree: 2 }] }] }, 'candidates/0/terms/0', 'term_not_numeric'],
     ['unknown reference level', { ...valid, candidates: [{ name: 'f', terms: [{ kind: 'factor', of: 'kiln', reference: 'north' }] }] }, 'candidates/0/terms/0', 'factor_level_unknown'],
   ];

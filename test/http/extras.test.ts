@@ -83,11 +83,17 @@ t.test('predictions at new rows, per model and averaged; new rows are validated 
 
   const unknownLevel = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { ...demoComparison(), options: { predict: { columns: { ...predict.columns, kiln: ['north', 'west'] } } } } });
   t.equal(unknownLevel.statusCode, 422);
-  t.match(unknownLevel.json().errors[0], { path: 'options/predict/columns/kiln/0', code: 'factor_level_unknown' });
+  // An unseen level in the prediction rows is a level the models were not fitted on, not a "reference level".
+  t.match(unknownLevel.json().errors[0], { path: 'options/predict/columns/kiln/0', code: 'prediction_level_unknown', level: 'north', levels: ['east', 'west'] });
+  t.match(unknownLevel.json().errors[0].message, /level "north" of column "kiln", which the rows the models were fitted on do not have/);
+  t.notMatch(unknownLevel.json().errors[0].message, /reference/);
   const { moisture: _dropped, ...withoutMoisture } = predict.columns;
   const missing = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { ...demoComparison(), options: { predict: { columns: withoutMoisture } } } });
   t.equal(missing.statusCode, 422);
-  t.match(missing.json().errors[0], { code: 'unknown_column', column: 'moisture' });
+  // The prediction rows lack the column, not the data.
+  t.match(missing.json().errors[0], { path: 'options/predict/columns', code: 'prediction_column_missing', column: 'moisture' });
+  t.match(missing.json().errors[0].message, /^options\/predict\/columns lacks column "moisture", which a fitted candidate uses/);
+  t.notMatch(missing.json().errors[0].message, /data does not have/);
 });
 
 t.test('a requested pair that is not nested is a 422 at options/tests', async (t) => {

@@ -21,7 +21,7 @@ t.test('a malformed candidate form is reported at the field of the form it resem
   t.same(res.json().errors.map((e: { path: string }) => e.path), ['candidates/0/parameters']);
   const none = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { ...small, candidates: [{ name: 'r' }] } });
   t.equal(none.statusCode, 400);
-  t.match(none.json().errors[0], { path: 'candidates/0', message: /none of the accepted forms/ });
+  t.match(none.json().errors[0], { path: 'candidates/0', message: /^a candidate is one of: \{ name, terms/ });
 });
 
 t.test('the dataset fingerprint is stable, sensitive, and computable in Python from the README recipe', async (t) => {
@@ -46,6 +46,27 @@ t.test('the dataset fingerprint is stable, sensitive, and computable in Python f
   t.equal(err.path, 'datasetFingerprint');
   t.equal(err.expected, wrong);
   t.equal(err.actual, a.dataset.fingerprint, 'both fingerprints named');
+});
+
+t.test('examples/fingerprint.py agrees with the service for summary requests and zero weights', async (t) => {
+  const { app } = await buildTestApp(t);
+  const summary = {
+    rows: 5, columns: ['x', 'y'], means: [3, -0.2],
+    centredCrossProducts: [[10, 7.5], [7.5, 6.8]],
+  };
+  const weighted = { ...summary, weights: { sum: 6.5, sumLog: 0.4 } };
+  for (const s of [summary, weighted]) {
+    const request = { data: { summary: s }, response: 'y', candidates: [{ name: 'line', terms: ['x'] }, { name: 'mean', terms: [] }] };
+    const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: request });
+    t.equal(res.statusCode, 200, res.body.slice(0, 200));
+    const python = execFileSync('python3', ['examples/fingerprint.py'], { input: JSON.stringify(request) }).toString().trim();
+    t.equal(python, res.json().dataset.fingerprint, `summary${s === weighted ? ' (weighted)' : ''}: the script computes the service's fingerprint`);
+  }
+  // A zero weight leaves its row out of the fingerprint as out of the fit.
+  const rows = { ...small, data: { columns: { ...small.data.columns, w: [1, 0, 2, 1, 1, 0, 1, 2] } }, weights: 'w', candidates: [{ name: 'line', terms: ['x'] }] };
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: rows });
+  const python = execFileSync('python3', ['examples/fingerprint.py'], { input: JSON.stringify(rows) }).toString().trim();
+  t.equal(python, res.json().dataset.fingerprint, 'zero weights: the same rows left out');
 });
 
 t.test('every response names its policy and hash; each ranking entry carries its Δ band', async (t) => {

@@ -74,8 +74,12 @@ t.test('malformed lines are 400s naming the line; too long a body is a 413', asy
     t.equal(res.json().line, line);
     t.match(res.json().detail, reason);
   }
-  const weight = await post('text/csv', 'a,b,w\n1,2,0\n', 'columns=a,b&weights=w');
+  const weight = await post('text/csv', 'a,b,w\n1,2,-1\n', 'columns=a,b&weights=w');
   t.equal(weight.json().line, 2);
+  t.match(weight.json().detail, /weights must be positive \(0 leaves a row out\)/);
+  // A zero weight leaves its row out, as in a comparison (counted with the dropped rows).
+  const zero = (await post('text/csv', 'a,b,w\n1,2,0\n2,3,1\n4,1,2\n', 'columns=a,b&weights=w')).json();
+  t.same([zero.rowsRead, zero.rowsDropped, zero.summary.rows, zero.summary.weights.sum], [3, 1, 2, 3]);
   t.equal((await post('text/csv', `a,b\n${'1,2\n'.repeat(2000)}`)).statusCode, 413);
   t.equal((await post('application/json', '{}')).statusCode, 415);
   t.equal((await post('text/csv', 'a,b\n,1\n')).statusCode, 422, 'no complete rows');

@@ -78,7 +78,7 @@ export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss
       r2,
       adjustedR2: 1 - ((1 - r2) * (n - 1)) / (n - p),
       sigma: Math.sqrt(m.rss / (n - p)),
-      coefficients: [{ term: '(intercept)', estimate: -14.2, standardError: 1.9 }, ...terms.map((term, i) => ({ term, estimate: 0.0123 / (i + 1), standardError: 0.0021 }))],
+      coefficients: [{ term: 'intercept', estimate: -14.2, standardError: 1.9 }, ...terms.map((term, i) => ({ term, estimate: 0.0123 / (i + 1), standardError: 0.0021 }))],
       aliased: [],
       cautions: [],
     };
@@ -128,8 +128,8 @@ export function kilnRecord(label = 'kiln trial, March', bands?: FixtureBands): S
     [
       { name: 'linear', rss: 4.1, parameters: 3, terms: ['peakTemp'] },
       { name: 'quadratic', rss: 3.55, parameters: 4, terms: ['peakTemp', 'peakTemp^2'] },
-      { name: 'by-kiln', rss: 3.2, parameters: 6, terms: ['peakTemp', 'kiln[west]', 'peakTemp:kiln[west]', 'holdMinutes'] },
-      { name: 'with-moisture', rss: 3.05, parameters: 8, terms: ['peakTemp', 'moisture', 'holdMinutes', 'kiln[west]', 'peakTemp^2', 'moisture:kiln[west]'] },
+      { name: 'by-kiln', rss: 3.2, parameters: 6, terms: ['peakTemp', 'kiln=west', 'peakTemp×kiln=west', 'holdMinutes'] },
+      { name: 'with-moisture', rss: 3.05, parameters: 8, terms: ['peakTemp', 'moisture', 'holdMinutes', 'kiln=west', 'peakTemp^2', 'moisture×kiln=west'] },
       { name: 'hold-only', rss: 9.8, parameters: 3, terms: ['holdMinutes'] },
     ],
     { label, bands },

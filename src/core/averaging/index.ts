@@ -1,2 +1,3 @@
-export { averageModels, type AveragingInput, type AveragedTerm, type AveragedPrediction, type ModelAverage } from './model-average.ts';
+export { averageModels, type AveragingInput, type AveragedTerm, type ModelAverage } from './model-average.ts';
+export { averagePredictions, type AveragedPrediction, type PredictingModel } from './averaged-predictions.ts';
 export { averageWithUnconditionalSe, ESTIMATOR_DESCRIPTION, type UnconditionalSeEstimator, type WeightedEstimate } from './unconditional-se.ts';

@@ -1,4 +1,4 @@
-// Model-averaged coefficients and predictions over a set of fitted models
+// Model-averaged coefficients over a set of fitted models
 // with criterion weights (Akaike weights for AIC/AICc; the same form over
 // BIC). The caller chooses the set (all candidates or the confidence set);
 // weights are renormalised over the models passed in.
@@ -11,10 +11,10 @@
 //   models only; it answers "how large is the effect, given it is present".
 // importance = summed (normalised) weight of the models containing the term.
 // A "term" here is one design column identity (its key, factor reference
-// included), not a label: kiln[west] against east and kiln[west] against
+// included), not a label: kiln=west against east and kiln=west against
 // north are different coefficients and are never pooled. When models code
 // one label differently, each coding is reported as its own term, labelled
-// "kiln[west] (reference east)", and a note names the models — rather than
+// "kiln=west (reference east)", and a note names the models — rather than
 // dropping the term, since each coding's average is meaningful on its own.
 // A coefficient that a model has but could not estimate (aliased) counts as
 // absent: the fit set it to zero, which is what the full average uses anyway.
@@ -30,8 +30,6 @@ export interface AveragingInput {
    * another column with the same label (e.g. "reference east").
    */
   coefficients: ReadonlyArray<{ term: string; key?: string; qualifier?: string; estimate: number | null; standardError: number | null }>;
-  /** Per prediction row, when predictions were requested. */
-  predictions?: ReadonlyArray<{ estimate: number | null; standardError: number | null }>;
 }
 
 export interface AveragedTerm {
@@ -43,19 +41,12 @@ export interface AveragedTerm {
   overModelsWithTerm: { estimate: number; unconditionalStandardError: number | null };
 }
 
-export interface AveragedPrediction {
-  estimate: number | null;
-  /** Unconditional standard error of the averaged mean response. */
-  standardError: number | null;
-}
-
 export interface ModelAverage {
   models: string[];
   estimator: UnconditionalSeEstimator;
   estimatorDescription: string;
   averages: { estimate: string; overModelsWithTerm: string };
   terms: AveragedTerm[];
-  predictions: AveragedPrediction[];
   issues: StatisticsIssue[];
 }
 
@@ -74,7 +65,6 @@ export function averageModels(
       overModelsWithTerm: 'over the models containing the term only, weights renormalised over them',
     },
     terms: [],
-    predictions: [],
     issues,
   };
   if (!(total > 0) || models.some((m) => !(m.weight >= 0) || !Number.isFinite(m.weight))) {
@@ -123,7 +113,6 @@ export function averageModels(
       overModelsWithTerm: conditional,
     });
   }
-  result.predictions = averagePredictions(models, estimator, issues);
   return result;
 }
 
@@ -165,39 +154,4 @@ function distinctTermNames(
     });
   }
   return names;
-}
-
-function averagePredictions(
-  models: readonly AveragingInput[],
-  estimator: UnconditionalSeEstimator,
-  issues: StatisticsIssue[],
-): AveragedPrediction[] {
-  const rows = models[0]?.predictions?.length ?? 0;
-  if (rows === 0) return [];
-  if (models.some((m) => m.predictions?.length !== rows)) {
-    issues.push({
-      code: 'averaging-predictions-incomplete',
-      message: 'Not every averaged model has a prediction for every row, so predictions were not averaged.',
-      facts: { rows },
-    });
-    return [];
-  }
-  const out: AveragedPrediction[] = [];
-  for (let r = 0; r < rows; r++) {
-    const parts = models.map((m) => ({ weight: m.weight, ...m.predictions![r] }));
-    if (parts.some((p) => p.weight > 0 && p.estimate === null)) {
-      out.push({ estimate: null, standardError: null });
-      continue;
-    }
-    const avg = averageWithUnconditionalSe(parts.map((p) => ({ ...p, estimate: p.estimate ?? 0 })), estimator)!;
-    out.push({ estimate: avg.estimate, standardError: avg.unconditionalStandardError });
-  }
-  if (out.some((p) => p.estimate === null)) {
-    issues.push({
-      code: 'averaging-prediction-missing',
-      message: 'A model with positive weight could not predict some rows, so the averaged prediction there is null.',
-      facts: { rows: out.flatMap((p, r) => (p.estimate === null ? [r] : [])).join(', ') },
-    });
-  }
-  return out;
 }

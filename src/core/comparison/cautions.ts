@@ -29,14 +29,35 @@ export interface ComparisonCautionFacts {
   /** n / k of the largest candidate. */
   ratio: number | null;
   policy: Policy;
+  /** The weights column, and how many rows it left out: null weights (part of dropped) and zero weights. */
+  weights?: string | null;
+  missingWeights?: number;
+  zeroWeights?: number;
 }
 
 export function comparisonCautions(f: ComparisonCautionFacts): Caution[] {
   const out: Caution[] = [STANDING_CAUTION];
-  if (f.dropped > 0) {
+  const zero = f.zeroWeights ?? 0;
+  const missing = f.dropped - zero;
+  if (missing > 0) {
+    const ofWeights = (f.missingWeights ?? 0) > 0 && f.weights
+      ? ` (${f.missingWeights} of them without a weight: null in the weights column ${JSON.stringify(f.weights)})`
+      : '';
     out.push({
       code: 'rows_dropped',
-      message: `${f.dropped} of ${f.n + f.dropped} rows have a missing value in a column some candidate uses and were left out of every candidate, so all models are compared on the same ${f.n} rows.`,
+      message: `${missing} of ${f.n + f.dropped} rows have a missing value in a column some candidate uses${ofWeights} and were left out of every candidate, so all models are compared on the same ${f.n} rows.`,
+    });
+  }
+  if (zero > 0 && f.weights) {
+    out.push({
+      code: 'zero_weights',
+      message: `${zero} row${zero === 1 ? ' has' : 's have'} weight 0 in the weights column ${JSON.stringify(f.weights)} and ${zero === 1 ? 'was' : 'were'} left out of every candidate, as a zero weight says (counted in dataset.rowsDropped); they take no part in the fits, the likelihood or the observation count n.`,
+    });
+  }
+  if (f.models.length === 1) {
+    out.push({
+      code: 'single_candidate',
+      message: 'Only one candidate was sent. Criteria rank models against each other, so a ranking needs two or more: here Δ is 0 and the weight 1 by construction, and neither says anything about how good the model is. Send the alternatives being chosen between (at least a simpler model) to compare.',
     });
   }
   if (!f.hasData) {
@@ -60,4 +81,19 @@ export function comparisonCautions(f: ComparisonCautionFacts): Caution[] {
     });
   }
   return out;
+}
+
+/**
+ * Said once per comparison when any model's assumption checks found
+ * something: a passed or failed check no more validates a model than a
+ * criterion does.
+ */
+export const CHECKS_ARE_NOT_VALIDATION: Caution = {
+  code: 'checks_are_not_validation',
+  message:
+    'The assumption checks, like the criteria, screen and rank models; they do not validate them. A model whose checks pass can still be wrong for its purpose: defer to domain review and local rules before acting on it.',
+};
+
+export function checksCaution(models: readonly { cautions: readonly Caution[] }[]): Caution[] {
+  return models.some((m) => m.cautions.some((c) => c.code === 'assumption_check')) ? [CHECKS_ARE_NOT_VALIDATION] : [];
 }

@@ -2,7 +2,7 @@
 // response and weights, each candidate (fitted here or elsewhere) under the one
 // convention, rankings under every criterion, the verdict. Returns the result,
 // or every issue that prevents it (never throws for input).
-import { columnsUsedBy, commonRows, responseValues, weightValues } from '../design/index.ts';
+import { columnsUsedBy, sampleRows } from '../design/index.ts';
 import type { CriterionName } from '../criteria.ts';
 import { verdict, type Verdict } from '../verdict.ts';
 import { issue, type Issue } from '../issues.ts';
@@ -13,10 +13,12 @@ import type { FittedCandidateInput, FittedModel, ModelResult } from './fitted-mo
 import { scoreExternalCandidate, type ExternalCandidateInput, type ScoringContext } from './external-model.ts';
 import { estimationIssues } from './estimation-rules.ts';
 import { rankAll, type BandedEntry } from './rankings.ts';
-import { comparisonCautions, type Caution } from './cautions.ts';
+import { checksCaution, comparisonCautions, type Caution } from './cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
 import { fitAll } from './fit-all.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
+import { averagingCautions } from './extras/averaging.ts';
+import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 
 export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
 
@@ -29,6 +31,8 @@ export interface ComparisonInput {
   /** The request's own choices; the policy fills what it leaves out. */
   rankBy?: CriterionName;
   confidenceLevel?: number;
+  /** Confidence level of coefficient and prediction intervals (default 0.95). */
+  intervalLevel?: number;
   expectedFingerprint?: string;
   extras?: ExtrasOptions;
   policy: Policy;
@@ -47,7 +51,7 @@ export interface ComparisonOutcome {
   cautions: Caution[];
 }
 
-type Rows = { ctx: ScoringContext; dropped: number; used: string[] };
+type Rows = { ctx: ScoringContext; dropped: number; used: string[]; missingWeights: number; zeroWeights: number };
 
 /** The rows, response and weights every candidate is scored on. */
 function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
@@ -60,27 +64,24 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
     const first = candidates[0];
     const n = first.form === 'residuals' ? first.residuals.length : 'observations' in first ? first.observations : 0;
     const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
-    return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [] };
+    return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [], missingWeights: 0, zeroWeights: 0 };
   }
-  const response = input.response;
   const termColumns = [...new Set(candidates.flatMap((c) => (c.form === 'fit' ? columnsUsedBy(c.terms) : [])))];
-  const used = [response, ...(input.weights ? [input.weights] : []), ...termColumns];
-  const { rows, dropped } = commonRows(columns, used);
-  const y = responseValues(columns, response, rows);
-  if ('issues' in y) issues.push(...y.issues);
-  const w = input.weights ? weightValues(columns, input.weights, rows) : null;
-  if (w && 'issues' in w) issues.push(...w.issues);
-  if (rows.length === 0) issues.push(issue('all_rows_dropped', ['data', 'columns'], { rows: dropped, dropped }));
-  if (issues.length > 0) return null;
+  const sample = sampleRows(columns, input.response, input.weights, termColumns);
+  if ('issues' in sample) {
+    issues.push(...sample.issues);
+    return null;
+  }
+  const { rows, dropped } = sample;
   return {
     ctx: {
-      n: rows.length, rows, dataRows: rows.length + dropped,
-      y: (y as { values: Float64Array }).values,
-      weights: w && 'values' in w ? w : null,
+      n: rows.length, rows, dataRows: rows.length + dropped, y: sample.y, weights: sample.weights,
       nSource: 'the rows this comparison uses number',
     },
     dropped,
     used: termColumns,
+    missingWeights: sample.missingWeights,
+    zeroWeights: sample.zeroWeights,
   };
 }
 
@@ -91,6 +92,7 @@ export function compareModels(
   const scoring = scoringRows(input, issues);
   if (!scoring) return { issues };
   const { ctx, dropped, used } = scoring;
+  const intervalLevel = input.intervalLevel ?? DEFAULT_INTERVAL_LEVEL;
 
   issues.push(...estimationIssues(input.candidates.map((c, index) => ({
     name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
@@ -125,7 +127,7 @@ export function compareModels(
   const rankings = rankAll(models, confidenceLevel, input.policy);
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const extras = comparisonExtras({
-    columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values,
+    columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
     sample: JSON.stringify([input.response, input.weights]), termColumns: used,
     candidates: input.candidates, fitted, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
@@ -134,7 +136,7 @@ export function compareModels(
   return {
     fitted: [...fitted.values()],
     result: {
-      conventions: conventions(choice, confidenceLevel),
+      conventions: conventions(choice, confidenceLevel, intervalLevel),
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
@@ -142,7 +144,14 @@ export function compareModels(
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
       nestedTests: extras.nestedTests,
       averaged: extras.averaged,
-      cautions: comparisonCautions({ dropped, n: ctx.n, hasData: input.columns !== null, models, requestedRankBy: input.rankBy, ratio, policy: input.policy }),
+      cautions: [
+        ...comparisonCautions({
+          dropped, n: ctx.n, hasData: input.columns !== null, models, requestedRankBy: input.rankBy, ratio, policy: input.policy,
+          weights: input.weights, missingWeights: scoring.missingWeights, zeroWeights: scoring.zeroWeights,
+        }),
+        ...checksCaution(models),
+        ...averagingCautions(extras.averaged, rankings[choice.rankBy]),
+      ],
     },
   };
 }

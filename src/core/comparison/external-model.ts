@@ -32,6 +32,9 @@ export interface ScoringContext {
   nSource: string;
 }
 
+/** Rows named in one issue; beyond this, counted. */
+const LISTED_ROWS = 20;
+
 /** Residuals lined up with the used rows: one per used row, or one per data row with null at dropped rows. */
 function alignedResiduals(values: (number | null)[], ctx: ScoringContext, at: IssuePath): Float64Array | Issue {
   const path = [...at, 'residuals'];
@@ -47,6 +50,7 @@ function alignedResiduals(values: (number | null)[], ctx: ScoringContext, at: Is
   if (ctx.rows && ctx.dataRows !== null && values.length === ctx.dataRows) {
     const used = new Set(ctx.rows);
     const out = new Float64Array(ctx.n);
+    const atDropped: number[] = [];
     let k = 0;
     for (let r = 0; r < values.length; r++) {
       const v = values[r];
@@ -54,8 +58,14 @@ function alignedResiduals(values: (number | null)[], ctx: ScoringContext, at: Is
         if (v === null) return issue('residual_missing', [...path, r], { row: r });
         out[k++] = v;
       } else if (v !== null) {
-        return issue('residual_at_dropped_row', [...path, r], { row: r });
+        atDropped.push(r);
       }
+    }
+    // Every such row named (up to a limit), so one answer shows the whole mismatch.
+    if (atDropped.length > 0) {
+      return issue('residual_at_dropped_row', [...path, atDropped[0]], {
+        row: atDropped[0], rows: atDropped.slice(0, LISTED_ROWS), count: atDropped.length,
+      });
     }
     return out;
   }
@@ -132,6 +142,7 @@ export function scoreExternalCandidate(
       looRmse: null,
       diagnostics: null,
       predictions: null,
+      predictionScale: null,
       cautions,
     },
   };

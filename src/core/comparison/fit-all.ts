@@ -47,7 +47,7 @@ export function fitAll(
       scales.set(key, cached);
       response = cached;
     }
-    fitted.set(i, fitCandidate(c, design, response, ctx.weights));
+    fitted.set(i, fitCandidate(c, design, response, ctx.weights, input.intervalLevel));
   }
   return fitted;
 }

@@ -6,6 +6,9 @@ import type { ModelDiagnostics } from '../diagnostics/index.ts';
 import type { Caution } from './cautions.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
 import { leastSquaresModelResult } from './least-squares-result.ts';
+import { DEFAULT_INTERVAL_LEVEL, type CoefficientTest } from '../inference/coefficient-tests.ts';
+import type { PredictionWithIntervals } from '../inference/prediction-intervals.ts';
+import type { PredictionScale } from './extras/model-predictions.ts';
 
 export interface FittedCandidateInput {
   name: string;
@@ -13,6 +16,9 @@ export interface FittedCandidateInput {
   intercept: boolean;
   response?: ResponseTransformSpec;
 }
+
+/** A coefficient with its t test and confidence interval (null where they do not exist). */
+export type CoefficientResult = { term: string; estimate: number | null; standardError: number | null } & CoefficientTest;
 
 export interface ModelResult {
   name: string;
@@ -33,7 +39,7 @@ export interface ModelResult {
   r2Basis: 'centred' | 'uncentred' | null;
   sigma: number | null;
   responseTransform: (ResponseTransformSpec & { jacobian: number }) | null;
-  coefficients: { term: string; estimate: number | null; standardError: number | null }[];
+  coefficients: CoefficientResult[];
   aliased: string[];
   conditionNumber: number | null;
   /** Exact leave-one-out: Σ w (e/(1−h))² from the hat matrix, and sqrt(press/Σw); null fitted elsewhere. */
@@ -41,8 +47,10 @@ export interface ModelResult {
   looRmse: number | null;
   /** Assumption checks; null for a model fitted elsewhere (no rows to check). */
   diagnostics: ModelDiagnostics | null;
-  /** Mean-response predictions for options.predict rows; null when none were asked for. */
-  predictions: { estimate: number | null; standardError: number | null }[] | null;
+  /** Predictions at the options.predict rows on the response's original scale, with intervals; null when none were asked for. */
+  predictions: PredictionWithIntervals[] | null;
+  /** How the predictions relate to the response as sent (back-transformed for a transformed response); null without predictions. */
+  predictionScale: PredictionScale | null;
   cautions: Caution[];
 }
 
@@ -63,6 +71,7 @@ export function fitCandidate(
   design: DesignMatrix,
   response: { values: Float64Array; jacobian: number },
   weights: { values: Float64Array; sumLogWeights: number } | null,
+  intervalLevel: number = DEFAULT_INTERVAL_LEVEL,
 ): FittedModel {
   const fit = fitLeastSquares(design, response.values, weights?.values);
   const result = leastSquaresModelResult({
@@ -82,6 +91,7 @@ export function fitCandidate(
     standardErrors: fit.standardErrors,
     aliased: fit.aliased,
     conditionNumber: fit.conditionNumber,
+    intervalLevel,
   });
   return { result, fit, design };
 }

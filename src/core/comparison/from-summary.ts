@@ -25,6 +25,10 @@ import { scoreExternalCandidate, type ScoringContext } from './external-model.ts
 import type { ModelResult } from './fitted-model.ts';
 import { rankAll } from './rankings.ts';
 import { rankByLeaveOneOut } from '../loo.ts';
+import { summaryExtras, type SummaryFitted } from './summary-extras.ts';
+import { averagingCautions } from './extras/averaging.ts';
+import type { ExtrasOptions } from './extras/index.ts';
+import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 
 export interface SummaryComparisonInput {
   summary: DataSummary;
@@ -32,7 +36,9 @@ export interface SummaryComparisonInput {
   candidates: CandidateInput[];
   rankBy?: CriterionName;
   confidenceLevel?: number;
+  intervalLevel?: number;
   expectedFingerprint?: string;
+  extras?: ExtrasOptions;
   policy: Policy;
   policyHash: string;
 }
@@ -40,21 +46,24 @@ export interface SummaryComparisonInput {
 export const SUMMARY_INPUT_CAUTION: Caution = {
   code: 'summary_input',
   message:
-    'The data came as a summary (rows, means, centred cross products), so no rows were dropped or checked here; numbers that need the rows (residual diagnostics, leave-one-out, nested tests and model averaging, which this service computes from the fitted rows) are unavailable, and the dataset fingerprint is that of the summary.',
+    'The data came as a summary (rows, means, centred cross products), so no rows were dropped or checked here; numbers that need the rows (residual diagnostics, leave-one-out and nested tests, which this service computes from the fitted rows) are unavailable, and the dataset fingerprint is that of the summary.',
 };
 
-function fittedFromSummary(input: SummaryComparisonInput, c: CandidateInput & { form: 'fit' }, i: number): { result: ModelResult } | { issues: Issue[] } {
+function fittedFromSummary(input: SummaryComparisonInput, c: CandidateInput & { form: 'fit' }, i: number): SummaryFitted | { issues: Issue[] } {
   if (c.response) {
     return { issues: [issue('summary_rows_needed', ['candidates', i, 'response'], { form: 'a response transform', reason: 'its Jacobian sums ln g\'(y) over the rows' })] };
   }
-  const terms = summaryPredictors(input.summary, c.terms, ['candidates', i, 'terms']);
+  const terms = summaryPredictors(input.summary, c.terms, ['candidates', i, 'terms'], c.intercept);
   if ('issues' in terms) return terms;
   if (terms.predictors.length + (c.intercept ? 1 : 0) > input.summary.rows) {
     return { issues: [issue('too_few_rows', ['candidates', i], { rows: input.summary.rows, parameters: terms.predictors.length + (c.intercept ? 1 : 0) })] };
   }
   const fit = fitFromSummary(input.summary, input.response, terms.predictors, c.intercept);
   if (!fit.ok) return { issues: summaryIssues(fit.issues) };
-  return { result: summaryModelResult(c.name, fit.fit, input.summary, input.response, c.intercept) };
+  return {
+    result: summaryModelResult(c.name, fit.fit, input.summary, input.response, c.intercept, input.intervalLevel ?? DEFAULT_INTERVAL_LEVEL),
+    fit: fit.fit, predictors: terms.predictors, intercept: c.intercept,
+  };
 }
 
 export function compareFromSummary(input: SummaryComparisonInput): { result: ComparisonOutcome } | { issues: Issue[] } {
@@ -75,10 +84,18 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
     nSource: 'the summary states rows',
   };
   const models: ModelResult[] = [];
+  const fitted: SummaryFitted[] = [];
   input.candidates.forEach((c, i) => {
-    const scored = c.form === 'fit'
-      ? fittedFromSummary(input, c, i)
-      : c.form === 'residuals'
+    if (c.form === 'fit') {
+      const made = fittedFromSummary(input, c, i);
+      if ('issues' in made) issues.push(...made.issues);
+      else {
+        models.push(made.result);
+        fitted.push(made);
+      }
+      return;
+    }
+    const scored = c.form === 'residuals'
         ? { issues: [issue('summary_rows_needed', ['candidates', i, 'residuals'], { form: 'a residuals candidate', reason: 'residuals line up with rows, which a summary does not have; send its rss instead' })] }
         : scoreExternalCandidate(c, ['candidates', i], ctx);
     if ('issues' in scored) issues.push(...scored.issues);
@@ -95,12 +112,19 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
   const rankings = rankAll(models, confidenceLevel, input.policy);
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
+  const intervalLevel = input.intervalLevel ?? DEFAULT_INTERVAL_LEVEL;
+  const extras = summaryExtras({
+    fitted, models, ranking: rankings[choice.rankBy], criterion: choice.rankBy, over: input.extras?.average ?? 'all',
+    predict: input.extras?.predict?.columns, intervalLevel,
+  });
+  if ('issues' in extras) return extras;
   const cautions = comparisonCautions({ dropped: 0, n: summary.rows, hasData: true, models, requestedRankBy: input.rankBy, ratio, policy: input.policy });
   cautions.splice(1, 0, SUMMARY_INPUT_CAUTION);
+  cautions.push(...averagingCautions(extras.averaged, rankings[choice.rankBy]));
   return {
     result: {
       // Every fitted candidate here was solved by sweeping the summary's cross products.
-      conventions: conventions(choice, confidenceLevel, SWEEP_RANK_RULE),
+      conventions: conventions(choice, confidenceLevel, intervalLevel, SWEEP_RANK_RULE),
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: summary.rows, rowsDropped: 0, response: input.response, weights: summary.weights ? '(summary)' : null },
       models,
@@ -108,7 +132,7 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
       rankings: { ...rankings, loo: rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: null }))).map((e) => ({ ...e, band: null })) },
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: summary.rows }),
       nestedTests: [],
-      averaged: null,
+      averaged: extras.averaged,
       cautions,
     },
   };

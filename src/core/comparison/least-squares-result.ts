@@ -8,6 +8,7 @@ import type { Caution } from './cautions.ts';
 import type { ModelResult } from './fitted-model.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
 import { criteriaFields, finiteOrNull, transformCaution } from './model-fields.ts';
+import { coefficientTest, twoSidedCritical } from '../inference/coefficient-tests.ts';
 
 export interface LeastSquaresFacts {
   name: string;
@@ -28,6 +29,8 @@ export interface LeastSquaresFacts {
   standardErrors: readonly (number | null)[];
   aliased: string[];
   conditionNumber: number | null;
+  /** Confidence level of the coefficients' intervals. */
+  intervalLevel: number;
   /** Cautions that come first, e.g. that the model was solved from a summary. */
   leadingCautions?: Caution[];
 }
@@ -35,6 +38,9 @@ export interface LeastSquaresFacts {
 export function leastSquaresModelResult(f: LeastSquaresFacts): ModelResult {
   const n = f.observations;
   const k = f.rank + 1;
+  // t on n − p degrees of freedom, p the rank (the estimable coefficients).
+  const residualDf = n - f.rank;
+  const critical = twoSidedCritical(f.intervalLevel, residualDf);
   const cautions: Caution[] = [...(f.leadingCautions ?? [])];
   const logLikelihood = f.exactFit
     ? null
@@ -85,17 +91,18 @@ export function leastSquaresModelResult(f: LeastSquaresFacts): ModelResult {
     r2Basis: criteria.r2Basis,
     sigma: finiteOrNull(f.sigma),
     responseTransform: f.transform ? { ...f.transform, jacobian: f.jacobian } : null,
-    coefficients: f.labels.map((term, j) => ({
-      term,
-      estimate: finiteOrNull(f.coefficients[j]),
-      standardError: finiteOrNull(f.standardErrors[j]),
-    })),
+    coefficients: f.labels.map((term, j) => {
+      const estimate = finiteOrNull(f.coefficients[j]);
+      const standardError = finiteOrNull(f.standardErrors[j]);
+      return { term, estimate, standardError, ...coefficientTest(estimate, standardError, residualDf, critical) };
+    }),
     aliased: f.aliased,
     conditionNumber: finiteOrNull(f.conditionNumber),
     press: null,
     looRmse: null,
     diagnostics: null,
     predictions: null,
+    predictionScale: null,
     cautions,
   };
 }

@@ -6,8 +6,9 @@
 import type { Columns, DesignMatrix, Term } from '../types.ts';
 import { issue, type Issue, type IssuePath } from '../issues.ts';
 import { ddLog, ddMul, ddPowInt, ddReciprocal, ddSqrt } from '../numeric/double-double.ts';
-import { columnKind } from './columns.ts';
+import { columnKind, unknownColumn } from './columns.ts';
 import { factorCoding } from './factor-coding.ts';
+import { numbersWrittenAsText } from './text-values.ts';
 import { INTERCEPT_LABEL, powerLabel, productLabel, transformLabel } from './labels.ts';
 import { columnKey, INTERCEPT_IDENTITY, productIdentity, type ColumnIdentity } from './column-identity.ts';
 
@@ -74,15 +75,29 @@ function factorPieces(ctx: Context, name: string, path: IssuePath): Pieces {
   return { pieces: result.coding.dummies.map((d) => exactPiece(d.label, ['level', name, d.level, reference], d.values)) };
 }
 
+/**
+ * A text column used as it stands (not declared a factor) whose values all
+ * read as numbers: JSON made from CSV. Coded as a factor it would get a level
+ * per value and win on fit with a parameter per row, so it is refused.
+ */
+function textNumbersIssue(ctx: Context, name: string, path: IssuePath): Issue | null {
+  if (ctx.factors.has(name)) return null;
+  const text = numbersWrittenAsText(ctx.columns[name]);
+  return text ? issue('numbers_as_text', path, { column: name, example: text.example, missingMarkers: text.markers }) : null;
+}
+
 function columnPieces(ctx: Context, name: string, path: IssuePath): Pieces {
-  if (!hasColumn(ctx.columns, name)) return { issue: issue('unknown_column', path, { column: String(name) }) };
-  if (columnKind(ctx.columns[name]) === 'categorical') return factorPieces(ctx, name, path);
+  if (!hasColumn(ctx.columns, name)) return { issue: unknownColumn(path, name, ctx.columns) };
+  if (columnKind(ctx.columns[name]) === 'categorical') {
+    const refused = textNumbersIssue(ctx, name, path);
+    return refused ? { issue: refused } : factorPieces(ctx, name, path);
+  }
   const r = numericValues(ctx, name, path, null);
   return 'issue' in r ? r : { pieces: [exactPiece(name, ['column', name], r.values)] };
 }
 
 function powerPieces(ctx: Context, of: string, degree: number, path: IssuePath): Pieces {
-  if (!hasColumn(ctx.columns, of)) return { issue: issue('unknown_column', [...path, 'of'], { column: String(of) }) };
+  if (!hasColumn(ctx.columns, of)) return { issue: unknownColumn([...path, 'of'], of, ctx.columns) };
   if (!Number.isInteger(degree) || degree < 2) {
     return { issue: issue('power_degree_invalid', [...path, 'degree'], { column: of, degree }) };
   }
@@ -95,7 +110,7 @@ function powerPieces(ctx: Context, of: string, degree: number, path: IssuePath):
 }
 
 function transformPieces(ctx: Context, of: string, fn: keyof typeof TRANSFORMS, path: IssuePath): Pieces {
-  if (!hasColumn(ctx.columns, of)) return { issue: issue('unknown_column', [...path, 'of'], { column: String(of) }) };
+  if (!hasColumn(ctx.columns, of)) return { issue: unknownColumn([...path, 'of'], of, ctx.columns) };
   const rule = TRANSFORMS[fn];
   if (!rule) return { issue: issue('term_form_unknown', [...path, 'fn'], {}) };
   const r = numericValues(ctx, of, path, 'transform');
@@ -115,7 +130,7 @@ function transformPieces(ctx: Context, of: string, fn: keyof typeof TRANSFORMS, 
 /**
  * A product of columns: numeric members enter as themselves, factor members
  * as their dummies, and the product has one column per combination (the
- * first member varying slowest), e.g. peakTemp:kiln[west].
+ * first member varying slowest), e.g. peakTemp×kiln=west.
  */
 function productPieces(ctx: Context, of: unknown, path: IssuePath): Pieces {
   const members = Array.isArray(of) ? of : [];
@@ -131,8 +146,10 @@ function productPieces(ctx: Context, of: unknown, path: IssuePath): Pieces {
   for (let k = 0; k < members.length; k++) {
     const name = members[k];
     const at = [...path, 'of', k];
-    if (!hasColumn(ctx.columns, name)) return { issue: issue('unknown_column', at, { column: String(name) }) };
+    if (!hasColumn(ctx.columns, name)) return { issue: unknownColumn(at, name, ctx.columns) };
     const factor = ctx.factors.has(name) || columnKind(ctx.columns[name]) === 'categorical';
+    const refused = factor ? textNumbersIssue(ctx, name, at) : null;
+    if (refused) return { issue: refused };
     let parts: Pieces;
     if (factor) parts = factorPieces(ctx, name, at);
     else {
@@ -170,7 +187,7 @@ function termPieces(ctx: Context, term: Term, path: IssuePath): Pieces {
       return transformPieces(ctx, term.of, term.fn, path);
     case 'factor':
       if (!hasColumn(ctx.columns, term.of)) {
-        return { issue: issue('unknown_column', [...path, 'of'], { column: String(term.of) }) };
+        return { issue: unknownColumn([...path, 'of'], term.of, ctx.columns) };
       }
       return factorPieces(ctx, term.of, path);
     default:
@@ -219,7 +236,7 @@ export function buildDesign(
   const low: Float64Array[] = [];
   const termOfColumn: number[] = [];
   // Two columns are one when they share a label (the response could not tell
-  // their coefficients apart) or a key (a:b and b:a are the same column).
+  // their coefficients apart) or a key (a×b and b×a are the same column).
   const firstTermOf = new Map<string, number>();
   const firstTermOfKey = new Map<string, number>();
   if (intercept) {

@@ -1,6 +1,6 @@
 // What a design column is, as opposed to what it is called. A label is for
 // people and a data column's name can imitate one ("x^2" holding sin x, a
-// column named "(intercept)"); a key is built from the structured term, so
+// column named "intercept"); a key is built from the structured term, so
 // two columns of one comparison share a key exactly when the design builder
 // formed them the same way from the same data: nested tests and model
 // averaging compare keys, never labels.
@@ -14,7 +14,7 @@
 //                                            reference its coefficient is
 //                                            measured against
 //   ["product", member, member, ...]        members in code-point order of
-//                                            their keys, since a:b and b:a
+//                                            their keys, since a×b and b×a
 //                                            are the same column
 import { compareCodePoints } from './code-point-order.ts';
 
@@ -47,6 +47,11 @@ function parseKey(key: string): ColumnIdentity | null {
   } catch {
     return null;
   }
+}
+
+/** What kind of column a key identifies ("power", "product", …), or null for a key that is not one. */
+export function keyKind(key: string): ColumnIdentity[0] | null {
+  return parseKey(key)?.[0] ?? null;
 }
 
 /** The factor codings a column involves: column and reference per dummy, in key order. */

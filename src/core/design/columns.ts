@@ -4,6 +4,7 @@
 
 import type { ColumnValues, Columns, Term } from '../types.ts';
 import { issue, type Issue, type IssuePath } from '../issues.ts';
+import { nearestName } from './text-values.ts';
 
 /** numeric: numbers (and nulls); categorical: strings (and nulls); empty: only nulls. */
 export type ColumnKind = 'numeric' | 'categorical' | 'empty' | 'mixed';
@@ -91,4 +92,19 @@ export function commonRows(columns: Columns, usedColumnNames: readonly string[])
     if (used.every((values) => i < values.length && values[i] !== null && values[i] !== undefined)) rows.push(i);
   }
   return { rows, dropped: total - rows.length };
+}
+
+/** Listed by name in an unknown-column issue; beyond this, counted. */
+const LISTED_COLUMNS = 20;
+
+/** The issue for a name the data does not have: the data's columns and the nearest name, if one is near. */
+export function unknownColumn(path: IssuePath, name: unknown, columns: Columns): Issue {
+  const names = Object.keys(columns);
+  const column = String(name);
+  return issue('unknown_column', path, {
+    column,
+    available: names.slice(0, LISTED_COLUMNS),
+    columns: names.length,
+    suggestion: nearestName(column, names),
+  });
 }

@@ -36,7 +36,7 @@ export function factorLevels(values: ColumnValues, rows: readonly number[]): str
 
 /**
  * Dummies for `column` on `rows`, against `reference` (default: the first level).
- * Labels read "kiln[west]". A reference that is not among the levels, or a column
+ * Labels read "kiln=west". A reference that is not among the levels, or a column
  * with fewer than two levels on the rows used, is an issue at `path`.
  */
 export function factorCoding(

@@ -6,6 +6,7 @@
 import type { Columns } from '../types.ts';
 import { issue, type Issue, type IssuePath } from '../issues.ts';
 import { sumOfLogs } from '../likelihood.ts';
+import { unknownColumn } from './columns.ts';
 
 export function responseValues(
   columns: Columns,
@@ -14,7 +15,7 @@ export function responseValues(
   at: IssuePath = ['response'],
 ): { values: Float64Array } | { issues: Issue[] } {
   if (!Object.prototype.hasOwnProperty.call(columns, name)) {
-    return { issues: [issue('unknown_column', at, { column: String(name) })] };
+    return { issues: [unknownColumn(at, name, columns)] };
   }
   const column = columns[name];
   const values = new Float64Array(rows.length);
@@ -44,7 +45,7 @@ export function weightValues(
   at: IssuePath = ['weights'],
 ): { values: Float64Array; sumLogWeights: number } | { issues: Issue[] } {
   if (!Object.prototype.hasOwnProperty.call(columns, name)) {
-    return { issues: [issue('unknown_column', at, { column: String(name) })] };
+    return { issues: [unknownColumn(at, name, columns)] };
   }
   const column = columns[name];
   const values = new Float64Array(rows.length);

@@ -2,12 +2,11 @@
 // the nested tests all rest on the Gaussian likelihood of independent,
 // identically distributed normal errors; each caution says what breaking
 // that assumption does to them and what to look at next.
+// The closing reminder that checks do not validate a model is said once per
+// comparison (comparison/cautions.ts), not once per model.
 import type { ModelDiagnostics } from './types.ts';
 
-const CLOSING =
-  'These checks and the criteria rank and screen models; they do not validate them. Defer to domain review and local rules before acting on a model.';
-
-export function diagnosticCautions(d: Omit<ModelDiagnostics, 'cautions'>): string[] {
+export function diagnosticCautions(d: ModelDiagnostics): string[] {
   const out: string[] = [];
   const n = d.residualNormality;
   if (n.passed === false) {
@@ -33,8 +32,9 @@ export function diagnosticCautions(d: Omit<ModelDiagnostics, 'cautions'>): strin
   const m = d.multicollinearity;
   if (m.passed === false) {
     out.push(
-      `Some regressors are nearly linear combinations of others (largest variance inflation factor ${fmt(m.maxVarianceInflation)}, condition number ${fmt(m.conditionNumber)}). ` +
-        'The criteria are not affected, but the individual coefficients and their standard errors are unstable and hard to interpret, and so is term importance in model averaging; consider centring, dropping or combining related terms.',
+      `Some regressors are nearly linear combinations of others (largest variance inflation factor ${fmt(m.maxVarianceInflation)}, condition number of the centred, scaled regressors ${fmt(m.conditionNumber)}). ` +
+        'The criteria are not affected, but the individual coefficients and their standard errors are unstable and hard to interpret, and so is term importance in model averaging; consider centring, dropping or combining related terms.' +
+        (m.note ? ` ${m.note}` : ''),
     );
   }
   const f = d.influence;
@@ -48,7 +48,6 @@ export function diagnosticCautions(d: Omit<ModelDiagnostics, 'cautions'>): strin
       `A few rows carry much of the fit (${parts.join('; ')}). The ranking may change if they are removed or corrected; check those rows for recording errors and compare the ranking without them.`,
     );
   }
-  if (out.length > 0) out.push(CLOSING);
   return out;
 }
 

@@ -7,9 +7,9 @@ import { cooksDistances } from './influence.ts';
 import { designColumn, multicollinearityCheck } from './multicollinearity.ts';
 import { breuschPaganFromAuxiliary, breuschPaganKoenker, durbinWatson, jarqueBera } from './residual-tests.ts';
 import { DIAGNOSTIC_THRESHOLDS as T } from './thresholds.ts';
-import type { ModelDiagnostics } from './types.ts';
+import type { DiagnosedFit } from './types.ts';
 
-export type { ModelDiagnostics } from './types.ts';
+export type { DiagnosedFit, ModelDiagnostics } from './types.ts';
 export { DIAGNOSTIC_THRESHOLDS } from './thresholds.ts';
 export { diagnosticCautions } from './cautions.ts';
 export { jarqueBera, breuschPaganKoenker, breuschPaganFromAuxiliary, durbinWatson } from './residual-tests.ts';
@@ -29,7 +29,7 @@ export function diagnoseFit(
   design: DesignMatrix,
   weights?: ArrayLike<number>,
   geometry: ModelGeometry = modelGeometry(fit, design, weights),
-): ModelDiagnostics {
+): DiagnosedFit {
   const n = fit.observations;
   const p = fit.rank;
   const leverageThreshold = (T.leverageMultiple * p) / n;

@@ -49,6 +49,25 @@ export function conditionFromFactor(r: Float64Array, p: number, rows: number): n
 }
 
 /**
+ * The factor of the centred regressors, each rescaled to unit length: the
+ * block of R (of [constant, regressors], constant first) from row and column
+ * 1 on, columns normalised. Null when some centred regressor is constant
+ * (zero length); [] when there are no regressors.
+ */
+function centredUnitBlock(r: Float64Array, p: number): number[][] | null {
+  const block = trailingBlock(r, p, 1);
+  const m = block.length;
+  for (let b = 0; b < m; b++) {
+    let s = 0;
+    for (let a = 0; a <= b; a++) s += block[a][b] * block[a][b];
+    const norm = Math.sqrt(s);
+    if (!(norm > 0)) return null;
+    for (let a = 0; a <= b; a++) block[a][b] /= norm;
+  }
+  return block;
+}
+
+/**
  * Variance inflation factors from the factor R of [constant, regressors]
  * (constant first, so the block of R from row and column 1 on is the factor
  * of the centred regressors). Each centred column is rescaled to unit length
@@ -57,16 +76,10 @@ export function conditionFromFactor(r: Float64Array, p: number, rows: number): n
  * when the centred regressors are exactly collinear (a constant one included).
  */
 export function inflationFromFactor(r: Float64Array, p: number, rows: number): (number | null)[] {
-  const block = trailingBlock(r, p, 1);
+  const block = centredUnitBlock(r, p);
+  if (block === null) return trailingBlock(r, p, 1).map(() => null);
   const m = block.length;
   if (m === 0) return [];
-  for (let b = 0; b < m; b++) {
-    let s = 0;
-    for (let a = 0; a <= b; a++) s += block[a][b] * block[a][b];
-    const norm = Math.sqrt(s);
-    if (!(norm > 0)) return block.map(() => null);
-    for (let a = 0; a <= b; a++) block[a][b] /= norm;
-  }
   const svd = svdOf(block, rows);
   if (svd.rank < m) return block.map(() => null);
   return block.map((_, j) => {
@@ -74,6 +87,22 @@ export function inflationFromFactor(r: Float64Array, p: number, rows: number): (
     for (let k = 0; k < m; k++) s += (svd.v[j][k] * svd.v[j][k]) / (svd.singularValues[k] * svd.singularValues[k]);
     return s;
   });
+}
+
+/**
+ * The condition number of the centred regressors scaled to unit length,
+ * from the same factor: s_max / s_min, the square root of the condition
+ * number of their correlation matrix. Unlike the uncentred number it does not
+ * grow with the distance of the data from zero (a kiln at 1200 °C), only with
+ * near-dependence among the regressors themselves. 1 for one regressor; null
+ * for none, or when they are exactly dependent.
+ */
+export function centredConditionFromFactor(r: Float64Array, p: number, rows: number): number | null {
+  const block = centredUnitBlock(r, p);
+  if (block === null || block.length === 0) return null;
+  const svd = svdOf(block, rows);
+  if (svd.rank < block.length) return null;
+  return svd.singularValues[0] / svd.singularValues[block.length - 1];
 }
 
 /** A column of ones as long as the given ones. */

@@ -7,7 +7,12 @@ export const DIAGNOSTIC_THRESHOLDS = {
   durbinWatsonRange: [1.5, 2.5] as [number, number],
   /** VIF above this marks a badly inflated coefficient variance (rule of thumb, common practice). */
   varianceInflation: 10,
-  /** Scaled condition number above this: strong near-dependencies (Belsley, Kuh & Welsch 1980). */
+  /**
+   * Condition number above this: strong near-dependencies. Belsley, Kuh &
+   * Welsch (1980) drew the line at 30 for the scaled design; it is applied
+   * here to the centred, scaled regressors (common practice), whose number
+   * reflects dependence among regressors and not their distance from zero.
+   */
   conditionNumber: 30,
   /** Cook's distance above this: a row that moves the whole fit (Cook & Weisberg 1982, rule of thumb). */
   cooksDistance: 1,

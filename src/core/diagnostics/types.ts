@@ -36,8 +36,11 @@ export interface MulticollinearityCheck {
   varianceInflationFactors: { term: string; vif: number | null }[];
   maxVarianceInflation: number | null;
   varianceInflationThreshold: number;
+  /** Condition number of the centred regressors scaled to unit length (what the check uses). */
   conditionNumber: number | null;
   conditionNumberThreshold: number;
+  /** Belsley–Kuh–Welsch scaled condition number of the uncentred design, intercept included: information only. */
+  uncentredConditionNumber: number | null;
   passed: boolean | null;
   note: string | null;
 }
@@ -62,5 +65,7 @@ export interface ModelDiagnostics {
   autocorrelation: AutocorrelationCheck;
   multicollinearity: MulticollinearityCheck;
   influence: InfluenceCheck;
-  cautions: string[];
 }
+
+/** The checks and what failed, in plain words (a model's result carries the words among its cautions, once). */
+export type DiagnosedFit = ModelDiagnostics & { cautions: string[] };

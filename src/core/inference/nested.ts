@@ -3,8 +3,8 @@
 // column of the smaller one is also a column of the larger one, and both were
 // fitted to the same sample (same response on the same scale, same weights,
 // same rows). Columns are compared by their keys (design/column-identity.ts),
-// never by labels: a data column may be named "x^2" or "(intercept)", and
-// kiln[west] against east is not kiln[west] against north. Equal keys are
+// never by labels: a data column may be named "x^2" or "intercept", and
+// kiln=west against east is not kiln=west against north. Equal keys are
 // equal columns, so a subset of keys means the smaller column space lies
 // inside the larger one.
 //

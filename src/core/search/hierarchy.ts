@@ -3,8 +3,8 @@
 // polynomials): a model that holds a power or a product also holds every
 // lower-order term it is built from.
 //   power x^d       needs x and x^2 .. x^(d-1)
-//   product a:b:c   needs every proper sub-product: a, b, c, a:b, a:c, b:c
-// A factor counts as its column (kiln and factor(kiln, reference=west)
+//   product a×b×c   needs every proper sub-product: a, b, c, a×b, a×c, b×c
+// A factor counts as its column (kiln and the factor term of kiln, reference west,
 // satisfy the same need). Transforms (log x, 1/x) are new variables and need
 // nothing. Products of powers are not a term form of the contract (a product
 // may not repeat a column), so no rule is needed for them; the monomial

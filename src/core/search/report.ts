@@ -15,6 +15,7 @@ import { subsetName, type PreparedSearch } from './request-problem.ts';
 import type { SearchOutcome } from './result.ts';
 import type { SearchCriterion } from './types.ts';
 import { searchCautions } from './search-cautions.ts';
+import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 
 export type SearchModel = ModelResult & { terms: Term[]; delta: number; weight: number };
 
@@ -104,7 +105,7 @@ export function searchReport(
   const observations = problem.observations;
   const source = prepared.source;
   return {
-    conventions: conventions(choice, policy.policy.confidenceLevel, searchRankRule(prepared)),
+    conventions: conventions(choice, policy.policy.confidenceLevel, DEFAULT_INTERVAL_LEVEL, searchRankRule(prepared)),
     policy: { name: policy.policy.name, hash: policy.hash },
     dataset: {
       fingerprint: prepared.fingerprint,

@@ -1,7 +1,7 @@
 // A search request (rows or a data summary) reduced to the kernel's problem,
 // with everything needed afterwards to refit the best subsets exactly as a
 // comparison would. Problems with the request come back as issues.
-import { buildDesign, columnsUsedBy, commonRows, responseValues, weightValues } from '../design/index.ts';
+import { buildDesign, columnsUsedBy, sampleRows } from '../design/index.ts';
 import { termLabel } from '../design/labels.ts';
 import { datasetFingerprint } from '../fingerprint.ts';
 import { issue, type Issue, type IssueFacts, type IssuePath } from '../issues.ts';
@@ -25,7 +25,11 @@ export interface SearchRequestInput {
 }
 
 export type SearchSource =
-  | { kind: 'rows'; columns: Columns; rows: number[]; y: Float64Array; weights: { values: Float64Array; sumLogWeights: number } | null; dropped: number }
+  | {
+      kind: 'rows'; columns: Columns; rows: number[]; y: Float64Array; weights: { values: Float64Array; sumLogWeights: number } | null;
+      /** Rows left out, for a missing value or a zero weight; zeroWeights counts the latter. */
+      dropped: number; zeroWeights: number;
+    }
   | { kind: 'summary'; summary: DataSummary; pool: string[]; always: string[] };
 
 export interface PreparedSearch {
@@ -50,25 +54,20 @@ function intoRequest(found: Issue, poolSize: number): Issue {
 function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
   const terms = [...input.pool, ...input.always];
   const used = columnsUsedBy(terms);
-  const { rows, dropped } = commonRows(columns, [input.response, ...(input.weights ? [input.weights] : []), ...used]);
-  const issues: Issue[] = [];
-  const y = responseValues(columns, input.response, rows);
-  if ('issues' in y) issues.push(...y.issues);
-  const w = input.weights ? weightValues(columns, input.weights, rows) : null;
-  if (w && 'issues' in w) issues.push(...w.issues);
-  if (rows.length === 0) issues.push(issue('all_rows_dropped', ['data', 'columns'], { rows: dropped, dropped }));
-  if (issues.length > 0) return { issues };
+  const sample = sampleRows(columns, input.response, input.weights, used);
+  if ('issues' in sample) return sample;
+  const { rows, dropped, zeroWeights } = sample;
   const built = buildDesign(columns, terms, input.intercept, rows);
   if ('issues' in built) return { issues: built.issues.map((i) => intoRequest(i, input.pool.length)) };
   const varying = codingIssues(input, columns, rows, built.design);
   if (varying.length > 0) return { issues: varying };
-  const weights = w && 'values' in w ? w : null;
-  const values = (y as { values: Float64Array }).values;
+  const weights = sample.weights;
+  const values = sample.y;
   return {
     input,
     rules,
     problem: subsetProblemFromDesign(built.design, values, weights?.values ?? null, input.pool.length, rules),
-    source: { kind: 'rows', columns, rows, y: values, weights, dropped },
+    source: { kind: 'rows', columns, rows, y: values, weights, dropped, zeroWeights },
     fingerprint: datasetFingerprint({ columns, response: input.response, weights: input.weights, used, rows }),
   };
 }
@@ -163,7 +162,7 @@ export function prepareSearch(input: SearchRequestInput): PreparedSearch | { iss
       issues: rules.alwaysUnmet.map((u) =>
         issue('hierarchy_always_incomplete', ['always', u.term], {
           label: termLabel(input.always[u.term]),
-          needs: u.poolTerm !== null ? termLabel(input.pool[u.poolTerm]) : u.needs.join(':'),
+          needs: u.poolTerm !== null ? termLabel(input.pool[u.poolTerm]) : u.needs.join('×'),
           inPool: u.poolTerm !== null,
         }),
       ),

@@ -21,16 +21,22 @@ export function searchCautions(prepared: PreparedSearch, outcome: SearchOutcome,
     },
   ];
   const { source, rules, input } = prepared;
-  if (source.kind === 'rows' && source.dropped > 0) {
+  if (source.kind === 'rows' && source.dropped > source.zeroWeights) {
     const n = prepared.problem.observations;
     out.push({
       code: 'rows_dropped',
-      message: `${source.dropped} of ${n + source.dropped} rows have a missing value in the response, the weights or a column some pool or always term uses, and were left out of every subset, so all subsets are scored on the same ${n} rows.`,
+      message: `${source.dropped - source.zeroWeights} of ${n + source.dropped} rows have a missing value in the response, the weights or a column some pool or always term uses, and were left out of every subset, so all subsets are scored on the same ${n} rows.`,
+    });
+  }
+  if (source.kind === 'rows' && source.zeroWeights > 0) {
+    out.push({
+      code: 'zero_weights',
+      message: `${source.zeroWeights} row${source.zeroWeights === 1 ? ' has' : 's have'} weight 0 in the weights column ${JSON.stringify(input.weights)} and ${source.zeroWeights === 1 ? 'was' : 'were'} left out of every subset, as a zero weight says (counted in dataset.rowsDropped).`,
     });
   }
   if (source.kind === 'summary') out.push(SUMMARY_INPUT_CAUTION);
   if (rules.unreachable.length > 0) {
-    const list = rules.unreachable.map((u) => `${subsetName([input.pool[u.term]], true)} (missing ${u.missing.map((m) => m.join(':')).join(', ')})`);
+    const list = rules.unreachable.map((u) => `${subsetName([input.pool[u.term]], true)} (missing ${u.missing.map((m) => m.join('×')).join(', ')})`);
     out.push({
       code: 'hierarchy_unreachable',
       message: `Under the hierarchy rule these pool terms can never enter, because a term they are built from is in neither the pool nor always: ${list.join('; ')}.`,

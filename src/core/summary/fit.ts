@@ -11,6 +11,7 @@
 // still, and said so by `uncentred: true`.
 
 import { EXACT_FIT_FACTOR } from '../fit/exact-fit.ts';
+import { INTERCEPT_LABEL } from '../design/labels.ts';
 import { PIVOT_TOLERANCE, sweepPivot } from '../search/sweep.ts';
 import type { DataSummary, SummaryIssue } from './types.ts';
 
@@ -31,7 +32,7 @@ export function exactFitFloor(responseSquares: number): number {
 export interface SummaryFit {
   observations: number;
   rank: number;
-  /** Labels in design order: "(intercept)" first when there is one, then the predictors. */
+  /** Labels in design order: the intercept label first when there is one, then the predictors. */
   labels: string[];
   coefficients: (number | null)[];
   standardErrors: (number | null)[];
@@ -44,6 +45,14 @@ export interface SummaryFit {
   exactFit: boolean;
   /** True when raw sums had to be rebuilt from means (no intercept). */
   uncentred: boolean;
+  /**
+   * What a prediction at new values of the predictors needs: the positions
+   * (in the predictor list) of the estimable predictors, M = the inverse of
+   * their cross products (centred with an intercept, raw without), their
+   * means and W (rows, or the weight sum). var(μ̂) = σ̂² (1/W + (x − x̄)'M(x − x̄))
+   * with an intercept, σ̂² x'Mx without.
+   */
+  predictionFactor: { estimable: number[]; inverse: number[][]; means: number[]; weightSum: number };
 }
 
 export type SummaryFitOutcome = { ok: true; fit: SummaryFit } | { ok: false; issues: SummaryIssue[] };
@@ -90,7 +99,7 @@ export function fitFromSummary(summary: DataSummary, response: string, predictor
   const s2 = sigma === null ? null : sigma * sigma;
   const slopes = predictors.map((_, k) => (swept[k] ? a[k * d + p] : null));
   const slopeSe = predictors.map((_, k) => (swept[k] && s2 !== null && s2 > 0 ? Math.sqrt(s2 * -a[k * d + k]) : null));
-  const labels = [...(intercept ? ['(intercept)'] : []), ...predictors];
+  const labels = [...(intercept ? [INTERCEPT_LABEL] : []), ...predictors];
   const coefficients: (number | null)[] = [];
   const standardErrors: (number | null)[] = [];
   if (intercept) {
@@ -121,6 +130,13 @@ export function fitFromSummary(summary: DataSummary, response: string, predictor
       sigma,
       exactFit: rss <= exactFitFloor(tss),
       uncentred: !intercept,
+      predictionFactor: {
+        estimable: predictors.flatMap((_, k) => (swept[k] ? [k] : [])),
+        // The swept block holds −M (the sweep's sign convention).
+        inverse: predictors.flatMap((_, k) => (swept[k] ? [predictors.flatMap((__, l) => (swept[l] ? [-a[k * d + l]] : []))] : [])),
+        means: cols.slice(0, p).map((c) => summary.means[c]),
+        weightSum: W,
+      },
     },
   };
 }

@@ -8,6 +8,7 @@ import type { ModelResult } from '../comparison/fitted-model.ts';
 import { leastSquaresModelResult } from '../comparison/least-squares-result.ts';
 import type { SummaryFit } from './fit.ts';
 import type { DataSummary } from './types.ts';
+import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 
 /** Stated on every model computed from a summary. */
 export const ROWS_UNAVAILABLE_CAUTION: Caution = {
@@ -16,7 +17,9 @@ export const ROWS_UNAVAILABLE_CAUTION: Caution = {
     'Computed from a data summary, not from rows: residuals, residual diagnostics, leave-one-out (PRESS) and the condition number need the rows and are unavailable. Coefficients come from the normal equations, which lose digits on an ill-conditioned design; the criteria agree with a fit on the rows to about 1e-9 on well-conditioned data.',
 };
 
-export function summaryModelResult(name: string, fit: SummaryFit, summary: DataSummary, response: string, intercept: boolean): ModelResult {
+export function summaryModelResult(
+  name: string, fit: SummaryFit, summary: DataSummary, response: string, intercept: boolean, intervalLevel: number = DEFAULT_INTERVAL_LEVEL,
+): ModelResult {
   return leastSquaresModelResult({
     name,
     intercept,
@@ -34,6 +37,7 @@ export function summaryModelResult(name: string, fit: SummaryFit, summary: DataS
     standardErrors: fit.standardErrors,
     aliased: fit.aliased,
     conditionNumber: null,
+    intervalLevel,
     leadingCautions: [ROWS_UNAVAILABLE_CAUTION],
   });
 }

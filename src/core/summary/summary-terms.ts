@@ -2,12 +2,12 @@
 // listed columns only, so a term is usable when it is one of them by name;
 // a power, product, transform or factor needs its column formed from the
 // rows (unless the caller summarised that column too, under its own name).
-import { termLabel } from '../design/labels.ts';
+import { INTERCEPT_LABEL, termLabel } from '../design/labels.ts';
 import { issue, type Issue, type IssuePath } from '../issues.ts';
 import type { Term } from '../types.ts';
 import type { DataSummary } from './types.ts';
 
-export function summaryPredictors(summary: DataSummary, terms: readonly Term[], at: IssuePath): { predictors: string[] } | { issues: Issue[] } {
+export function summaryPredictors(summary: DataSummary, terms: readonly Term[], at: IssuePath, intercept = false): { predictors: string[] } | { issues: Issue[] } {
   const listed = new Set(summary.columns);
   const issues: Issue[] = [];
   const predictors: string[] = [];
@@ -20,6 +20,8 @@ export function summaryPredictors(summary: DataSummary, terms: readonly Term[], 
       }));
     } else if (!listed.has(term)) {
       issues.push(issue('summary_column_unknown', [...at, j], { column: term }));
+    } else if (intercept && term === INTERCEPT_LABEL) {
+      issues.push(issue('duplicate_term', [...at, j], { label: term, first: -1 }));
     } else if (first.has(term)) {
       // As on the rows (buildDesign): a term repeated is a request error, not an aliased column.
       issues.push(issue('duplicate_term', [...at, j], { label: term, first: first.get(term) as number }));

@@ -54,11 +54,13 @@ function summarise(changes: ValueChange[], compared: number, stored: JsonValue, 
 
 export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; policy: ActivePolicy; compute: ComputeService }> = async (app, { store, policy, compute }) => {
   app.post('/v1/comparisons/:id/replay', {
+    // Clients that always send a JSON content type may send it with no body at all.
+    config: { emptyBody: true },
     schema: {
       tags: ['audit'],
       summary: 'Re-run a stored comparison with today\'s code and report which values changed and by how much',
       description: [
-        'Send no body. The stored request is validated again under today\'s schema and computed again under the team policy in force today; every number, string, boolean and null of the result is compared with the stored one. `policy` says whether that policy is the one recorded (same hash).',
+        'Send no body (an empty body with a JSON content type is accepted too). The stored request is validated again under today\'s schema and computed again under the team policy in force today; every number, string, boolean and null of the result is compared with the stored one. `policy` says whether that policy is the one recorded (same hash).',
         'Models, ranking entries, coefficients and cautions are matched by name, term or code, so a model that moved in a ranking shows as a change of its rank, not of every entry.',
         'A replay appends no audit record and returns no new result id: it checks a record against today\'s code. To put today\'s answer on the record, POST the stored request to /v1/comparisons.',
         '409 when the record kept only the request digest, or the stored request is no longer valid or computable today (the problem lists why); 422 when it is over today\'s limits (priced like a new comparison) or runs past COMPUTE_DEADLINE_MS.',

@@ -19,9 +19,19 @@ export const NestedTest = z
   })
   .meta({ id: 'NestedTest', description: 'A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows).' });
 
-const Estimate = z.strictObject({ estimate: n, standardError: n });
+const predictionFields = {
+  estimate: n.meta({ description: 'The predicted (median = mean, for a model of y itself) response at the row, on the response\'s original scale.' }),
+  standardError: n.meta({ description: 'Standard error of the estimate (delta method after a back-transform).' }),
+  lower: n.meta({ description: 'Confidence interval for the mean (median) response at options.intervalLevel.' }),
+  upper: n,
+  predictionLower: n.meta({ description: 'Prediction interval for a new observation at options.intervalLevel (weight 1, or the weights column\'s value in the prediction rows).' }),
+  predictionUpper: n,
+};
 
-export const Prediction = Estimate.meta({ id: 'Prediction', description: 'Estimated mean response at a new row, with its standard error (not a prediction interval for a new observation). On the model\'s response scale.' });
+export const Prediction = z.strictObject(predictionFields).meta({
+  id: 'Prediction',
+  description: 'A prediction at a new row of options.predict.columns, on the response\'s original scale (conventions.predictions): the estimate, its standard error, an interval for the mean response and one for a new observation.',
+});
 
 export const AveragedTerm = z
   .strictObject({
@@ -39,13 +49,24 @@ export const Averaged = z
   .strictObject({
     criterion: Criterion,
     over: z.enum(['all', 'confidenceSet']),
-    models: z.array(z.string()),
-    excluded: z.array(z.strictObject({ name: z.string(), reason: z.string() })),
+    models: z.array(z.string()).meta({ description: 'The models whose coefficients were averaged: all on one response scale.' }),
+    weightCovered: z.number().meta({ description: 'Their summed weight under the criterion; a caution says when it is below 1.' }),
+    responseTransform: z
+      .strictObject({ fn: z.enum(['log', 'sqrt', 'boxcox']), lambda: z.number().optional() })
+      .nullable()
+      .meta({ description: 'The scale of the averaged coefficients (the scale holding the most weight): null for the response as sent.' }),
+    excluded: z.array(z.strictObject({ name: z.string(), reason: z.string() })).meta({ description: 'Models whose coefficients were not averaged, and why.' }),
     estimator: z.enum(['eq6.12', 'eq4.9']),
     estimatorDescription: z.string(),
     averages: z.strictObject({ estimate: z.string(), overModelsWithTerm: z.string() }),
     terms: z.array(AveragedTerm),
-    predictions: z.array(Estimate).meta({ description: 'Averaged mean-response predictions with the unconditional standard error.' }),
+    predictions: z.array(Prediction).meta({
+      description: 'Averaged predictions on the response\'s original scale over every model that can predict (predictionsOver): Σ w ŷ, the unconditional standard error, and model-averaged tail-area intervals (conventions.predictions).',
+    }),
+    predictionsOver: z
+      .strictObject({ models: z.array(z.string()), weightCovered: z.number() })
+      .nullable()
+      .meta({ description: 'The models whose predictions were averaged and their summed weight; null when no prediction rows were sent.' }),
     notes: z.array(z.string()),
   })
   .meta({ id: 'Averaged', description: 'Model-averaged coefficients (Burnham & Anderson 2002) over the ranking criterion\'s weights.' });
@@ -70,8 +91,9 @@ export const Diagnostics = z
       varianceInflationFactors: z.array(z.strictObject({ term: z.string(), vif: n })),
       maxVarianceInflation: n,
       varianceInflationThreshold: z.number(),
-      conditionNumber: n,
+      conditionNumber: n.meta({ description: 'Condition number of the centred regressors scaled to unit length (the square root of that of their correlation matrix): what the check uses, with the VIFs.' }),
       conditionNumberThreshold: z.number(),
+      uncentredConditionNumber: n.meta({ description: 'Belsley–Kuh–Welsch scaled condition number of the uncentred design, intercept included: information only, large for any data far from zero.' }),
       ...Check,
       note: z.string().nullable(),
     }),
@@ -84,8 +106,7 @@ export const Diagnostics = z
       highLeverageRowIndices: z.array(z.number().int()).meta({ description: 'Data rows (0-based, as sent) above the leverage threshold.' }),
       ...Check,
     }),
-    cautions: z.array(z.string()),
   })
-  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors.' });
+  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model\'s cautions (code assumption_check).' });
 
 export const PairToTest = z.strictObject({ smaller: z.string().min(1), larger: z.string().min(1) });

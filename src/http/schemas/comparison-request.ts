@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
+import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
 
@@ -21,7 +22,8 @@ const ColumnValuesSchema = z
   .max(5_000_000)
   .superRefine((values, ctx) => {
     // One column is one kind of measurement: numbers and text in one column is a
-    // data-entry mistake, not a factor.
+    // data-entry mistake, not a factor. The usual mistakes are named: a
+    // missing-value marker ("NA", "") or a number written as text.
     let sawNumber = -1;
     let sawText = -1;
     for (let i = 0; i < values.length; i++) {
@@ -29,11 +31,18 @@ const ColumnValuesSchema = z
       if (typeof v === 'number' && sawNumber < 0) sawNumber = i;
       else if (typeof v === 'string' && sawText < 0) sawText = i;
       if (sawNumber >= 0 && sawText >= 0) {
-        ctx.addIssue({
-          code: 'custom',
-          path: [Math.max(sawNumber, sawText)],
-          message: `a column holds numbers or text, not both (row ${sawNumber} is a number, row ${sawText} is text)`,
-        });
+        const text = values[sawText] as string;
+        // A marker or a number written as text is the value at fault, so the path points at it.
+        if (isMissingMarker(text)) {
+          ctx.addIssue({ code: 'custom', path: [sawText], message: `row ${sawText} holds ${JSON.stringify(text)} in a column of numbers: use null for a missing value` });
+        } else if (readsAsNumber(text)) {
+          ctx.addIssue({ code: 'custom', path: [sawText], message: `row ${sawText} holds ${JSON.stringify(text)}, a number written as text, in a column of numbers: send it as a JSON number` });
+        } else {
+          ctx.addIssue({
+            code: 'custom', path: [Math.max(sawNumber, sawText)],
+            message: `a column holds numbers or text, not both (row ${sawNumber} is a number, row ${sawText} is text)`,
+          });
+        }
         return;
       }
     }
@@ -87,6 +96,20 @@ export const ResponseTransform = z
       'The model was fitted to g(y); the service adds the log-Jacobian from the data\'s response column so its likelihood is on the scale of y (log: −Σ ln y; sqrt: −Σ ln(2√y); boxcox: (λ−1) Σ ln y).',
   });
 
+/** The weights column's name; an array here is the commonest slip, so the message says what the field is. */
+export const WeightsColumn = z
+  .string({
+    error: (issue) =>
+      Array.isArray(issue.input)
+        ? 'weights names a column of data.columns that holds the relative weights (e.g. "weights": "w"), not the weights themselves: put the array in data.columns and name it here'
+        : 'weights names a column of data.columns (a string), or is null',
+  })
+  .min(1, 'a column name cannot be empty')
+  .max(200, 'a column name has at most 200 characters')
+  .nullable()
+  .optional()
+  .meta({ description: 'The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out).' });
+
 export const FittedCandidate = z
   .strictObject({
     name: CandidateName,
@@ -132,20 +155,38 @@ export const LikelihoodCandidate = z
   })
   .meta({ id: 'LikelihoodCandidate', description: 'A model fitted elsewhere with any likelihood.' });
 
+/** Keys a caller may send in place of the likelihood: criteria, which a referee recomputes rather than takes. */
+const CRITERION_KEYS = ['aic', 'aicc', 'bic', 'hqc', 'AIC', 'AICc', 'BIC', 'HQC'];
+
+/**
+ * Said when a candidate matches none of the forms: the forms themselves, and
+ * for a candidate sent by a criterion value, the likelihood to send instead.
+ */
+function candidateFormsMessage(input: unknown): string {
+  const forms = 'a candidate is one of: { name, terms, intercept?, response? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }';
+  if (input === null || typeof input !== 'object' || Array.isArray(input)) return `${forms}.`;
+  const sent = CRITERION_KEYS.find((k) => Object.prototype.hasOwnProperty.call(input, k));
+  if (sent) {
+    return `${forms}. A criterion value ("${sent}") is not a candidate form: the service computes every criterion itself under one convention, so send the model's maximised logLikelihood (constants included; from AIC, logLikelihood = k − AIC/2) with parameters (k) and observations (n).`;
+  }
+  return `${forms}.`;
+}
+
 export const Candidate = z
-  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate])
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
   .meta({ id: 'Candidate', description: 'One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood.' });
 
 export const ComparisonOptions = z
   .strictObject({
-    rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise).' }),
+    rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values.' }),
     confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
+    intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
     tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
     predict: z
       .strictObject({ columns: z.record(ColumnName, z.array(z.union([FiniteNumber, z.string().max(200), z.null()])).max(100_000)) })
       .optional()
-      .meta({ description: 'New rows (same columns as the data) at which every fitted model and the average predict the mean response.' }),
+      .meta({ description: 'New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1).' }),
   })
   .meta({ id: 'ComparisonOptions' });
 
@@ -155,7 +196,8 @@ export const ComparisonRequest = z
       description: 'Rows as columns, or a summary of them (data.summary) for data too large to send; required unless every candidate is sent by rss or logLikelihood.',
     }),
     response: ColumnName.optional().meta({ description: 'The numeric response column (required with data).' }),
-    weights: ColumnName.nullable().optional(),
+    weights: WeightsColumn,
+    rankBy: Criterion.optional().meta({ description: 'The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused.' }),
     candidates: z.array(Candidate).min(1, 'at least one candidate is needed').max(200),
     datasetFingerprint: z.string().regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits').optional().meta({
       description: 'The fingerprint the caller expects (README: dataset fingerprint); a mismatch is a 422.',
@@ -177,6 +219,13 @@ export const ComparisonRequest = z
     });
     if (request.data && request.response === undefined) {
       ctx.addIssue({ code: 'custom', path: ['response'], message: 'with data, name the response column' });
+    }
+    if (request.rankBy !== undefined && request.options.rankBy !== undefined && request.rankBy !== request.options.rankBy) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['rankBy'],
+        message: `rankBy is given twice with different values ("${request.rankBy}" here, "${request.options.rankBy}" in options); give it once`,
+      });
     }
   })
   .meta({ id: 'ComparisonRequest' });

@@ -15,11 +15,15 @@ export const Caution = z
 
 export const Coefficient = z
   .strictObject({
-    term: z.string().meta({ description: 'Readable label of the design column, e.g. "(intercept)", "peakTemp^2", "kiln[west]".' }),
+    term: z.string().meta({ description: 'Readable label of the design column, e.g. "intercept", "peakTemp^2", "log(moisture)", "kiln=west", "peakTemp×kiln=west".' }),
     estimate: nullableNumber,
     standardError: nullableNumber,
+    tStatistic: nullableNumber.meta({ description: 'estimate / standardError; null when either is missing or the standard error is 0.' }),
+    pValue: nullableNumber.meta({ description: 'Two-sided p-value of tStatistic from Student\'s t with n − p degrees of freedom (conventions.inference).' }),
+    lower: nullableNumber.meta({ description: 'Lower end of the confidence interval at options.intervalLevel: estimate − t · standardError.' }),
+    upper: nullableNumber.meta({ description: 'Upper end of the confidence interval at options.intervalLevel.' }),
   })
-  .meta({ id: 'Coefficient' });
+  .meta({ id: 'Coefficient', description: 'One design column\'s coefficient. The test and interval exist for models fitted here (from rows or a summary); null where the standard error does not.' });
 
 export const ModelResult = z
   .strictObject({
@@ -54,6 +58,13 @@ export const ModelResult = z
     looRmse: nullableNumber.meta({ description: 'sqrt(press / Σw): the weighted root-mean-square leave-one-out error, in units of the response; sqrt(press / n) without weights.' }),
     diagnostics: Diagnostics.nullable(),
     predictions: z.array(Prediction).nullable(),
+    predictionScale: z
+      .strictObject({
+        backTransform: z.enum(['none', 'median']).meta({ description: 'none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.' }),
+        description: z.string(),
+      })
+      .nullable()
+      .meta({ description: 'How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response\'s original scale.' }),
     cautions: z.array(Caution),
   })
   .meta({ id: 'ModelResult' });
@@ -110,6 +121,9 @@ export const Conventions = z
     responseTransforms: z.string(),
     rankByReason: z.string(),
     confidenceLevel: z.number(),
+    inference: z.string().meta({ description: 'How coefficients are tested and their intervals built.' }),
+    predictions: z.string().meta({ description: 'How predictions, their intervals, back-transforms and averages are made.' }),
+    intervalLevel: z.number().meta({ description: 'Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95).' }),
   })
   .meta({ id: 'Conventions' });
 

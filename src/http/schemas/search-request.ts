@@ -2,7 +2,7 @@
 // of terms every subset of which is a candidate, and how to rank them.
 import { z } from 'zod';
 import { ColumnName, Term } from './common.ts';
-import { DataSchema } from './comparison-request.ts';
+import { DataSchema, WeightsColumn } from './comparison-request.ts';
 import { SummaryData } from './summary.ts';
 
 export const MAX_POOL_TERMS = 60;
@@ -20,10 +20,10 @@ export const SearchRequest = z
   .strictObject({
     data: z.union([DataSchema, SummaryData]).meta({ description: 'The rows (data.columns) or a data summary (data.summary); with a summary every term is a summarised column name.' }),
     response: ColumnName,
-    weights: ColumnName.nullable().optional().meta({ description: 'A weights column of data.columns; a weighted summary carries its weights itself.' }),
+    weights: WeightsColumn.meta({ description: 'A weights column of data.columns (0 leaves a row out); a weighted summary carries its weights itself.' }),
     pool: z.array(Term).min(1, 'the pool needs at least one term').max(MAX_POOL_TERMS).meta({ description: 'Every subset of the pool (with the always terms) is a candidate.' }),
     always: z.array(Term).max(200).default([]).meta({ description: 'Terms in every candidate.' }),
-    hierarchy: z.boolean().default(false).meta({ description: 'Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a:b needs a and b).' }),
+    hierarchy: z.boolean().default(false).meta({ description: 'Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a×b needs a and b).' }),
     intercept: z.boolean().default(true),
     rankBy: SearchCriterionSchema.optional().meta({ description: 'Default from the team policy (aicc when the policy ranks by adjustedR2).' }),
     top: z.number().int().min(1).max(100).default(20).meta({ description: 'How many of the best subsets to return, refitted.' }),

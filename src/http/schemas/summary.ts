@@ -48,9 +48,10 @@ export const SummaryUploadQuery = z.strictObject({
 
 export const SummaryUploadResult = z
   .strictObject({
-    summary: DataSummary,
+    data: SummaryData.meta({ description: 'Paste-ready: send this object as the "data" of POST /v1/comparisons or POST /v1/searches (it is { "summary": … }).' }),
+    summary: DataSummary.meta({ description: 'The same summary, as data.summary takes it.' }),
     rowsRead: z.number().int().meta({ description: 'Data rows in the body (header excluded).' }),
-    rowsDropped: z.number().int().meta({ description: 'Rows left out because a listed column (or the weight) was null or empty in them (common rows).' }),
+    rowsDropped: z.number().int().meta({ description: 'Rows left out because a listed column (or the weight) was null or empty in them (common rows), or their weight was 0.' }),
     bytes: z.number().int(),
   })
   .meta({ id: 'SummaryUploadResult' });

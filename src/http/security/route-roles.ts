@@ -15,6 +15,7 @@ const PUBLIC: Access = { kind: 'public' };
 const role = (r: Role): Access => ({ kind: 'role', role: r });
 
 export const routeRoles: Readonly<Record<string, Access>> = Object.freeze({
+  'GET /': PUBLIC,
   'GET /healthz': PUBLIC,
   'GET /readyz': PUBLIC,
   'GET /openapi.json': PUBLIC,

@@ -54,7 +54,12 @@ export async function foldRows(body: AsyncIterable<Buffer | string>, options: Fo
       return;
     }
     if (options.weights !== undefined && !(values[p] > 0)) {
-      throw new RowError(lineNumber, `the weight ${JSON.stringify(options.weights)} is ${values[p]}; weights must be positive`);
+      // A zero weight leaves the row out, as in a comparison; a negative one has no meaning.
+      if (values[p] === 0) {
+        rowsDropped++;
+        return;
+      }
+      throw new RowError(lineNumber, `the weight ${JSON.stringify(options.weights)} is ${values[p]}; weights must be positive (0 leaves a row out)`);
     }
     folder.add(values);
   });

@@ -1,7 +1,8 @@
 // POST /v1/summaries: a body of NDJSON (application/x-ndjson) or CSV
 // (text/csv, header row) rows, folded into a data summary as it arrives, in
-// constant memory (see summary-folder.ts). The answer's `summary` is the
-// fixed data.summary form, to be sent to /v1/comparisons or /v1/searches.
+// constant memory (see summary-folder.ts). The answer's `data` pastes as the
+// `data` of /v1/comparisons or /v1/searches; its `summary` is the same fixed
+// data.summary form, kept for callers who already read it there.
 // Nothing is recorded: a summary is an input, not a result. At most
 // SUMMARY_UPLOADS_PER_CALLER uploads run at once per caller (uploads-in-flight.ts).
 import type { Readable } from 'node:stream';
@@ -71,7 +72,7 @@ export const summaryRoutes: FastifyPluginAsyncZod<{ bodyLimitBytes?: number; upl
           `the sums of column ${JSON.stringify(overflow)} overflow 64-bit floating point; rescale that column and send again`,
           { errors: [{ path: `columns/${overflow}`, message: 'sums beyond double precision', code: 'summary_not_representable' }] }));
       }
-      return reply.code(200).send({ summary: folded.summary, rowsRead: folded.rowsRead, rowsDropped: folded.rowsDropped, bytes: folded.bytes });
+      return reply.code(200).send({ data: { summary: folded.summary }, summary: folded.summary, rowsRead: folded.rowsRead, rowsDropped: folded.rowsDropped, bytes: folded.bytes });
     } catch (error) {
       if (error instanceof RowError) {
         return reply.code(400).header('connection', 'close').type(PROBLEM_CONTENT_TYPE).send(problem(400, problemTypes.invalidRequest, 'A row of the body is malformed', error.message,

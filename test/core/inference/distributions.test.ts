@@ -1,6 +1,6 @@
 import t from 'tap';
 import tables from '../../reference/tables/distribution-critical-values.json' with { type: 'json' };
-import { chiSquareQuantile, chiSquareUpperTail, fQuantile, fUpperTail } from '../../../src/core/inference/distributions.ts';
+import { chiSquareQuantile, chiSquareUpperTail, fQuantile, fUpperTail, tQuantile, tTwoSidedPValue } from '../../../src/core/inference/distributions.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
@@ -49,4 +49,22 @@ t.test('edge values', async (t) => {
   t.equal(fUpperTail(0, 3, 4), 1);
   t.equal(chiSquareUpperTail(Infinity, 3), 0);
   t.ok(Number.isNaN(fUpperTail(1, 0, 4)));
+});
+
+t.test('two-sided t p-values invert the t quantiles; tiny ones keep their digits', async (t) => {
+  // t(0.975; 10) = 2.228138851986274 (stack notes, agreeing with closed forms):
+  // its two-sided p-value is 0.05.
+  t.ok(Math.abs(tTwoSidedPValue(2.228138851986274, 10) - 0.05) < 1e-14);
+  t.ok(Math.abs(tTwoSidedPValue(-2.228138851986274, 10) - 0.05) < 1e-14, 'symmetric');
+  for (const df of [1, 3, 28, 400]) {
+    const q = tQuantile(0.995, df);
+    t.ok(Math.abs(tTwoSidedPValue(q, df) - 0.01) < 1e-12, `df ${df}`);
+  }
+  // df = 1 is the Cauchy distribution: P(|T| > t) = 1 − (2/π) atan t (closed form).
+  t.ok(Math.abs(tTwoSidedPValue(40, 1) - (1 - (2 / Math.PI) * Math.atan(40))) < 1e-15);
+  // Far tail, evaluated directly rather than as 1 − cdf: scipy 1.10 gives
+  // 2·stats.t.sf(30, 110) = 8.785077238856337e-55.
+  const tiny = tTwoSidedPValue(30, 110);
+  t.ok(Math.abs(tiny - 8.785077238856337e-55) < 1e-12 * 8.785077238856337e-55, `${tiny}`);
+  t.equal(tTwoSidedPValue(0, 5), 1);
 });

@@ -14,7 +14,7 @@ function candidate(name: string, design: DesignMatrix, y: number[], weights?: nu
 }
 
 function interceptOnly(n: number): DesignMatrix {
-  return makeDesign(['(intercept)'], [new Array(n).fill(1)], true);
+  return makeDesign(['intercept'], [new Array(n).fill(1)], true);
 }
 
 /** Gaussian log-likelihood of the contract (api.md, Conventions). */
@@ -117,10 +117,10 @@ t.test('an exact larger fit gives null statistics with a reason', async (t) => {
 
 t.test('nesting follows column keys from buildDesign, not labels a data column can imitate', async (t) => {
   // The reviewer's cases: a data column named "x^2" holding sin(x) is not the
-  // power x^2, and a data column named "(intercept)" is not the intercept.
+  // power x^2, and a data column named "intercept" is not the intercept.
   const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
   const y = x.map((v, i) => 1 + 0.5 * v + 0.2 * v * v + [0.3, -0.2, 0.1, 0.4, -0.5, 0.2, -0.1, 0, 0.3, -0.4, 0.2, -0.1][i]);
-  const columns = { y, x, 'x^2': x.map(Math.sin), '(intercept)': x.map(Math.cos) };
+  const columns = { y, x, 'x^2': x.map(Math.sin), 'intercept': x.map(Math.cos) };
   const rows = x.map((_, i) => i);
   const built = (name: string, terms: Term[], intercept: boolean): NestedCandidate => {
     const r = buildDesign(columns, terms, intercept, rows);
@@ -130,7 +130,7 @@ t.test('nesting follows column keys from buildDesign, not labels a data column c
   const rawColumn = built('raw', ['x^2'], true);
   const poly = built('poly', ['x', { kind: 'power', of: 'x', degree: 2 }], true);
   const line = built('line', ['x'], true);
-  const fakeIntercept = built('fake', ['(intercept)'], false);
+  const fakeIntercept = built('fake', ['intercept'], false);
   t.equal(nestingOrder(rawColumn, poly), null);
   t.equal(nestingOrder(fakeIntercept, line), null);
   // Positive control: the same builder's x is inside x + x^2.

@@ -23,7 +23,7 @@ export function makeDesign(labels: string[], columns: number[][], intercept: boo
 export function designWithIntercept(named: Record<string, number[]>): DesignMatrix {
   const names = Object.keys(named);
   const n = named[names[0]].length;
-  return makeDesign(['(intercept)', ...names], [new Array(n).fill(1), ...names.map((k) => named[k])], true);
+  return makeDesign(['intercept', ...names], [new Array(n).fill(1), ...names.map((k) => named[k])], true);
 }
 
 function rankOf(cols: number[][]): number {

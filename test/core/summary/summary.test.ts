@@ -49,7 +49,7 @@ t.test('a fit from the summary gives the criteria of QR on the rows to 1e-9', (t
       const high = [...(intercept ? [new Float64Array(n).fill(1)] : []), ...idx.map((j) => cols[j])];
       const design = {
         rows: n,
-        labels: [...(intercept ? ['(intercept)'] : []), ...predictors],
+        labels: [...(intercept ? ['intercept'] : []), ...predictors],
         high,
         low: high.map(() => new Float64Array(n)),
         intercept,

@@ -46,7 +46,7 @@ export function strdDesign(ds: StrdDataset): { design: DesignMatrix; y: Float64A
   const low: Float64Array[] = [];
   const termOfColumn: number[] = [];
   if (ds.intercept) {
-    labels.push('(intercept)');
+    labels.push('intercept');
     high.push(new Float64Array(n).fill(1));
     low.push(new Float64Array(n));
     termOfColumn.push(-1);

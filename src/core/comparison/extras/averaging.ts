@@ -1,59 +1,163 @@
 // Model averaging over the fitted candidates by the ranking criterion's weights
-// (Burnham & Anderson 2002). Only models whose coefficients share one scale and
-// meaning can be averaged: models fitted elsewhere have no coefficients here,
-// and a model of a transformed response has coefficients on another scale, so
-// both are left out, by name, and the weights renormalised over the rest.
+// (Burnham & Anderson 2002), in two parts with different reach:
+//
+// - Coefficients are averaged only over models on one response scale: a
+//   coefficient of a model of log y and one of a model of y measure different
+//   things. The scale holding the most weight is the one averaged (the
+//   response as sent on a tie); `models` names the models averaged and
+//   `weightCovered` their summed weight, and a caution says when it is below 1.
+// - Predictions are averaged over every model that can predict, each taken
+//   to the response's original scale first (the median; see
+//   inference/back-transform.ts), so the winner is never left out for being a
+//   model of log y.
+//
+// Models fitted elsewhere have neither coefficients nor predictions here.
 // Coefficients are matched by design column key, not label (see
 // design/column-identity.ts), so differently coded dummies are never pooled.
-import { averageModels, type ModelAverage } from '../../averaging/index.ts';
+import { averageModels, averagePredictions, type AveragedPrediction, type ModelAverage } from '../../averaging/index.ts';
 import { columnQualifier, keyReferences } from '../../design/index.ts';
 import type { CriterionName } from '../../criteria.ts';
+import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 import type { BandedEntry } from '../rankings.ts';
 import type { ModelResult } from '../fitted-model.ts';
+import type { ResponseTransformSpec } from '../response-transform.ts';
+import type { Caution } from '../cautions.ts';
+import { transformLabel } from '../response-transform.ts';
 
 export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
   criterion: CriterionName;
   over: 'all' | 'confidenceSet';
+  /** The scale of the averaged coefficients: null for the response as sent. */
+  responseTransform: ResponseTransformSpec | null;
+  /** Summed criterion weight of the models whose coefficients were averaged. */
+  weightCovered: number;
   excluded: { name: string; reason: string }[];
+  predictions: AveragedPrediction[];
+  /** The models whose predictions were averaged and their summed weight; null without prediction rows. */
+  predictionsOver: { models: string[]; weightCovered: number } | null;
   notes: string[];
 }
 
-export function averagedModels(
-  models: readonly ModelResult[],
-  ranking: readonly BandedEntry[],
-  criterion: CriterionName,
-  over: 'all' | 'confidenceSet',
-  predictions: ReadonlyMap<string, { estimate: number | null; standardError: number | null }[]>,
+export interface AveragingInput {
+  models: readonly ModelResult[];
+  ranking: readonly BandedEntry[];
+  criterion: CriterionName;
+  over: 'all' | 'confidenceSet';
+  /** Each predicting model's predictions on its own scale, by name. */
+  predictions: ReadonlyMap<string, readonly ScaledPrediction[]>;
   /** Design column keys per model name, in coefficient order. */
-  keys: ReadonlyMap<string, readonly string[]>,
-): AveragedResult | null {
+  keys: ReadonlyMap<string, readonly string[]>;
+  intervalLevel: number;
+}
+
+const scaleKey = (m: ModelResult) => (m.responseTransform ? JSON.stringify({ fn: m.responseTransform.fn, lambda: m.responseTransform.lambda }) : 'response');
+
+function scaleWords(spec: ResponseTransformSpec | null): string {
+  return spec ? `${transformLabel(spec)}(response)` : 'the response as sent';
+}
+
+/** The transform spec without the Jacobian a model result carries. */
+function specOf(m: ModelResult): ResponseTransformSpec | null {
+  if (!m.responseTransform) return null;
+  const { fn, lambda } = m.responseTransform;
+  return lambda === undefined ? { fn } : { fn, lambda };
+}
+
+export function averagedModels(input: AveragingInput): AveragedResult | null {
+  const { models, ranking, criterion, over } = input;
   const byName = new Map(ranking.map((e) => [e.name, e]));
+  const weightOf = (m: ModelResult) => byName.get(m.name)?.weight ?? null;
   const excluded: { name: string; reason: string }[] = [];
-  const chosen: ModelResult[] = [];
+  // Models that take part at all: fitted here, weighted, inside the set asked for.
+  const eligible: ModelResult[] = [];
   for (const m of models) {
     const entry = byName.get(m.name);
-    if (m.source !== 'fit') excluded.push({ name: m.name, reason: 'fitted elsewhere: no coefficients to average' });
-    else if (m.responseTransform) excluded.push({ name: m.name, reason: 'describes a transformed response: its coefficients are on another scale' });
+    if (m.source !== 'fit') excluded.push({ name: m.name, reason: 'fitted elsewhere: no coefficients or predictions to average' });
     else if (!entry || entry.weight === null) excluded.push({ name: m.name, reason: `no ${criterion} weight` });
     else if (over === 'confidenceSet' && !entry.inConfidenceSet) excluded.push({ name: m.name, reason: 'outside the confidence set' });
-    else if (keys.get(m.name)?.length !== m.coefficients.length) excluded.push({ name: m.name, reason: 'its design columns carry no identity to match coefficients by' });
-    else chosen.push(m);
+    else eligible.push(m);
   }
-  if (chosen.length === 0) return null;
+  if (eligible.length === 0) return null;
+
+  // The scale holding the most weight; the response as sent wins a tie.
+  const byScale = new Map<string, ModelResult[]>();
+  for (const m of eligible) byScale.set(scaleKey(m), [...(byScale.get(scaleKey(m)) ?? []), m]);
+  const sum = (ms: readonly ModelResult[]) => ms.reduce((s, m) => s + (weightOf(m) ?? 0), 0);
+  let chosenKey = byScale.has('response') ? 'response' : [...byScale.keys()][0];
+  for (const [key, ms] of byScale) if (sum(ms) > sum(byScale.get(chosenKey)!)) chosenKey = key;
+  const chosen: ModelResult[] = [];
+  for (const m of byScale.get(chosenKey)!) {
+    if (input.keys.get(m.name)?.length !== m.coefficients.length) {
+      excluded.push({ name: m.name, reason: 'its design columns carry no identity to match coefficients by' });
+    } else chosen.push(m);
+  }
+  const scale = specOf(byScale.get(chosenKey)![0]);
+  for (const m of eligible) {
+    if (scaleKey(m) !== chosenKey) {
+      excluded.push({
+        name: m.name,
+        reason: `describes ${scaleWords(specOf(m))}, while the averaged coefficients are of ${scaleWords(scale)} (the scale holding the most weight); its coefficients measure something else${input.predictions.has(m.name) ? ', but its predictions are averaged on the original scale' : ''}`,
+      });
+    }
+  }
+
   const average = averageModels(chosen.map((m) => {
-    const k = keys.get(m.name)!;
+    const k = input.keys.get(m.name)!;
     return {
       name: m.name,
-      weight: byName.get(m.name)!.weight!,
-      coefficients: m.coefficients.map((c, j) => ({ ...c, key: k[j], qualifier: columnQualifier(k[j]) })),
-      predictions: predictions.get(m.name),
+      weight: weightOf(m)!,
+      coefficients: m.coefficients.map((c, j) => ({ term: c.term, estimate: c.estimate, standardError: c.standardError, key: k[j], qualifier: columnQualifier(k[j]) })),
     };
   }));
   const { issues, ...rest } = average;
   const notes = issues.map((i) => i.message);
-  const mixed = mixedReferences(chosen.map((m) => ({ name: m.name, keys: keys.get(m.name)! })));
+  const mixed = mixedReferences(chosen.map((m) => ({ name: m.name, keys: input.keys.get(m.name)! })));
   if (mixed) notes.push(mixed);
-  return { ...rest, criterion, over, excluded, notes };
+
+  const predicting = eligible.filter((m) => input.predictions.has(m.name));
+  const predicted = predicting.length > 0
+    ? averagePredictions(predicting.map((m) => ({ name: m.name, weight: weightOf(m)!, predictions: input.predictions.get(m.name)! })), input.intervalLevel)
+    : null;
+  if (predicted) notes.push(...predicted.issues.map((i) => i.message));
+  return {
+    ...rest,
+    criterion,
+    over,
+    responseTransform: scale,
+    weightCovered: sum(chosen),
+    excluded,
+    predictions: predicted?.predictions ?? [],
+    predictionsOver: predicted ? { models: predicting.map((m) => m.name), weightCovered: sum(predicting) } : null,
+    notes,
+  };
+}
+
+/**
+ * Said when the average leaves out weight: the averaged coefficients (or
+ * predictions) then speak only for part of the evidence.
+ */
+export function averagingCautions(averaged: AveragedResult | null, ranking: readonly BandedEntry[]): Caution[] {
+  if (!averaged) return [];
+  const out: Caution[] = [];
+  const weighted = ranking.filter((e) => e.weight !== null && e.weight > 0);
+  const share = (w: number) => (w >= 0.9995 && w < 1 ? 'just under 1' : w.toPrecision(3));
+  const leftOut = (names: readonly string[]) => weighted.filter((e) => !names.includes(e.name)).map((e) => JSON.stringify(e.name));
+  const coefficientsMiss = leftOut(averaged.models);
+  if (coefficientsMiss.length > 0) {
+    out.push({
+      code: 'averaged_coefficients_partial',
+      message: `The averaged coefficients cover models holding ${share(averaged.weightCovered)} of the ${averaged.criterion} weight; ${coefficientsMiss.join(', ')} ${coefficientsMiss.length === 1 ? 'is' : 'are'} left out (averaged.excluded says why), so the averaged coefficients speak only for ${averaged.models.map((n) => JSON.stringify(n)).join(', ') || 'no model'}.`,
+    });
+  }
+  const p = averaged.predictionsOver;
+  const predictionsMiss = p ? leftOut(p.models) : [];
+  if (p && predictionsMiss.length > 0) {
+    out.push({
+      code: 'averaged_predictions_partial',
+      message: `The averaged predictions cover models holding ${share(p.weightCovered)} of the ${averaged.criterion} weight; ${predictionsMiss.join(', ')} cannot predict here (fitted elsewhere, or outside the averaged set).`,
+    });
+  }
+  return out;
 }
 
 /**

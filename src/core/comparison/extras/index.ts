@@ -3,7 +3,6 @@
 // practitioner needs once the criteria have spoken.
 import { nestedTests as findNestedTests, type NestedTest } from '../../inference/nested.ts';
 import { rankByLeaveOneOut } from '../../loo.ts';
-import { predictMeanResponse } from '../../predict.ts';
 import { modelGeometry } from '../../inference/model-geometry.ts';
 import { issue, type Issue } from '../../issues.ts';
 import type { CriterionName } from '../../criteria.ts';
@@ -15,6 +14,8 @@ import type { BandedEntry } from '../rankings.ts';
 import { modelChecks } from './model-checks.ts';
 import { checkPredictionRows, predictionDesign, type PredictionColumns } from './prediction-rows.ts';
 import { averagedModels, type AveragedResult } from './averaging.ts';
+import { modelPredictions } from './model-predictions.ts';
+import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 
 export interface ExtrasOptions {
   tests?: { smaller: string; larger: string }[];
@@ -32,6 +33,9 @@ export interface ExtrasInput {
   columns: Columns | null;
   rows: readonly number[] | null;
   weights: Float64Array | undefined;
+  /** The weights column's name, which prediction rows may carry for new observations. */
+  weightsColumn: string | null;
+  intervalLevel: number;
   /** Identity of the response, its weights and rows, shared by every candidate. */
   sample: string;
   termColumns: readonly string[];
@@ -47,13 +51,15 @@ export interface ExtrasInput {
 export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[] } {
   const { fitted, models, options } = input;
   const byName = new Map(models.map((m) => [m.name, m]));
-  const predictions = new Map<string, { estimate: number | null; standardError: number | null }[]>();
+  const predictions = new Map<string, ScaledPrediction[]>();
   let predictCount: number | null = null;
+  let newWeights: readonly number[] = [];
   if (options.predict) {
     if (!input.columns || !input.rows) return { issues: [issue('data_required', ['options', 'predict'], { form: 'predictions' })] };
-    const checked = checkPredictionRows(input.columns, input.rows, input.termColumns, options.predict.columns);
+    const checked = checkPredictionRows(input.columns, input.rows, input.termColumns, options.predict.columns, input.weightsColumn);
     if ('issues' in checked) return checked;
     predictCount = checked.count;
+    newWeights = checked.newWeights;
   }
   const issues: Issue[] = [];
   for (const [index, model] of fitted) {
@@ -74,10 +80,11 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
         issues.push(...built.issues);
         continue;
       }
-      const p = predictMeanResponse(model.fit, model.design, built.design, input.weights, geometry);
-      result.predictions = p.predictions;
-      predictions.set(result.name, p.predictions);
-      for (const note of p.issues) result.cautions.push({ code: note.code, message: note.message });
+      const p = modelPredictions(model, built.design, input.weights, newWeights, input.intervalLevel, geometry);
+      result.predictions = p.results;
+      result.predictionScale = p.scale;
+      predictions.set(result.name, p.scaled);
+      result.cautions.push(...p.cautions);
     }
   }
   if (issues.length > 0) return { issues };
@@ -100,7 +107,9 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   const loo = rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: m.looRmse ?? null })));
   const ranking = input.rankings[input.rankBy];
   const averaged = ranking.some((e) => e.weight !== null)
-    ? averagedModels(models, ranking, input.rankBy, options.average ?? 'all', predictions, designKeys(fitted))
+    ? averagedModels({
+      models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: designKeys(fitted), intervalLevel: input.intervalLevel,
+    })
     : null;
   return { nestedTests: nested.tests, averaged, loo };
 }

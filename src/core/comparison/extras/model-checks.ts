@@ -23,7 +23,7 @@ export function modelChecks(
   geometry: ModelGeometry = modelGeometry(model.fit, model.design, weights),
 ): ModelChecks {
   const loo = leaveOneOutError(model.fit, model.design, weights, geometry);
-  const d = diagnoseFit(model.fit, model.design, weights, geometry);
+  const { cautions, ...d } = diagnoseFit(model.fit, model.design, weights, geometry);
   const dataRow = (i: number | null) => (i === null ? null : rows[i]);
   const diagnostics: ModelDiagnostics = {
     ...d,
@@ -38,6 +38,7 @@ export function modelChecks(
     looRmse: loo.looRmse,
     looNote: loo.reason,
     diagnostics,
-    cautions: d.cautions.map((message) => ({ code: 'assumption_check', message })),
+    // Each finding once, among the model's cautions (the diagnostics hold the numbers).
+    cautions: cautions.map((message) => ({ code: 'assumption_check', message })),
   };
 }

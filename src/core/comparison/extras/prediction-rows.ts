@@ -11,34 +11,53 @@ export type PredictionColumns = Readonly<Record<string, ReadonlyArray<number | s
 
 const at = (column: string, row?: number) => ['options', 'predict', 'columns', column, ...(row === undefined ? [] : [row])];
 
+/**
+ * The prediction rows checked, their count, and the weight each new
+ * observation is taken to have: 1, or its value in the weights column when
+ * the prediction rows carry that column.
+ */
 export function checkPredictionRows(
   data: Columns,
   rows: readonly number[],
   used: readonly string[],
   predict: PredictionColumns,
-): { count: number } | { issues: Issue[] } {
+  weightsColumn: string | null = null,
+): { count: number; newWeights: number[] } | { issues: Issue[] } {
   const issues: Issue[] = [];
   let count: number | null = null;
+  const sent = Object.keys(predict);
+  const lengthOf = (name: string, values: ReadonlyArray<unknown>) => {
+    if (count === null) count = values.length;
+    else if (values.length !== count) issues.push(issue('column_length_mismatch', at(name), { column: name, length: values.length, expected: count }));
+  };
   for (const name of used) {
     if (!Object.prototype.hasOwnProperty.call(predict, name)) {
-      issues.push(issue('unknown_column', ['options', 'predict', 'columns'], { column: name }));
+      issues.push(issue('prediction_column_missing', ['options', 'predict', 'columns'], { column: name, sent: sent.slice(0, 20) }));
       continue;
     }
     const values = predict[name];
-    if (count === null) count = values.length;
-    else if (values.length !== count) issues.push(issue('column_length_mismatch', at(name), { column: name, length: values.length, expected: count }));
+    lengthOf(name, values);
     const numeric = typeof data[name].find((v) => v !== null) === 'number';
     const levels = numeric ? null : new Set(factorLevels(data[name], rows));
     values.forEach((v, r) => {
       if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r }));
       else if (numeric && typeof v !== 'number') issues.push(issue('column_mixed_types', at(name, r), { column: name, row: r }));
       else if (!numeric && (typeof v !== 'string' || !levels!.has(v))) {
-        issues.push(issue('factor_level_unknown', at(name, r), { column: name, level: String(v), levels: [...levels!] }));
+        issues.push(issue('prediction_level_unknown', at(name, r), { column: name, level: String(v), levels: [...levels!] }));
       }
     });
   }
+  let weights: ReadonlyArray<number | string | null> | null = null;
+  if (weightsColumn !== null && Object.prototype.hasOwnProperty.call(predict, weightsColumn) && !used.includes(weightsColumn)) {
+    weights = predict[weightsColumn];
+    lengthOf(weightsColumn, weights);
+    weights.forEach((v, r) => {
+      if (typeof v !== 'number' || !(v > 0)) issues.push(issue('prediction_weight_invalid', at(weightsColumn, r), { column: weightsColumn, row: r, value: v }));
+    });
+  }
   if (issues.length > 0) return { issues: issues.slice(0, 50) };
-  return { count: count ?? 0 };
+  const n = count ?? 0;
+  return { count: n, newWeights: Array.from({ length: n }, (_, r) => (weights ? (weights[r] as number) : 1)) };
 }
 
 /** The design of the prediction rows for one candidate, coded as the data are. */

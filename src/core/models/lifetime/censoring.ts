@@ -9,6 +9,7 @@
 // decide the common rows and includes the status column.
 import type { Columns } from '../../types.ts';
 import { issue, type Issue, type IssuePath } from '../../issues.ts';
+import { unknownColumn } from '../../design/columns.ts';
 
 export const CENSORING_STATUSES = ['exact', 'right', 'left', 'interval'] as const;
 export type CensoringStatus = (typeof CENSORING_STATUSES)[number];
@@ -46,7 +47,7 @@ function has(columns: Columns, name: unknown): name is string {
 
 /** The response times on the used rows: numbers, present and finite, or the first problem. */
 function readTimes(columns: Columns, name: string, rows: readonly number[], at: IssuePath): Float64Array | Issue {
-  if (!has(columns, name)) return issue('unknown_column', at, { column: String(name) });
+  if (!has(columns, name)) return unknownColumn(at, name, columns);
   const out = new Float64Array(rows.length);
   for (let i = 0; i < rows.length; i++) {
     const v = columns[name][rows[i]];
@@ -84,9 +85,9 @@ export function censoredResponse(
   const issues: Issue[] = [];
   const statusAt = [...at.censoring, 'status'];
   const upperAt = [...at.censoring, 'upper'];
-  if (!has(columns, censoring.status)) issues.push(issue('unknown_column', statusAt, { column: String(censoring.status) }));
+  if (!has(columns, censoring.status)) issues.push(unknownColumn(statusAt, censoring.status, columns));
   const upperName = censoring.upper ?? null;
-  if (upperName !== null && !has(columns, upperName)) issues.push(issue('unknown_column', upperAt, { column: String(upperName) }));
+  if (upperName !== null && !has(columns, upperName)) issues.push(unknownColumn(upperAt, upperName, columns));
   if (issues.length > 0) return { issues };
   const status = new Uint8Array(rows.length);
   const upper = new Float64Array(rows.length).fill(Number.NaN);

@@ -141,7 +141,7 @@ for (const truth of TRUTHS) {
   });
 
   t.test(`${truth.distribution}: estimates recover the truth within their standard errors over 100 seeds`, async (t) => {
-    const names = ['(intercept)', 'x', 'extra'];
+    const names = ['intercept', 'x', 'extra'];
     const truthValues = [truth.intercept, truth.slope, truth.extra];
     const covered = [0, 0, 0];
     const meanZ = [0, 0, 0];
