@@ -128,18 +128,26 @@ export function equilibrate(
     const ch = new Float64Array(n);
     const cl = new Float64Array(n);
     centreAndScaleRows(hi, lo, mh[j], ml[j], sh, sl, ch, cl);
-    let maxAbs = 0;
-    for (let i = 0; i < n; i++) maxAbs = Math.max(maxAbs, Math.abs(ch[i]));
     // Two power-of-two steps: by the largest entry (so squares cannot overflow),
     // then by the norm; the product is still an exact power of two.
-    const d0 = powerOfTwoScale(maxAbs);
-    let ss = 0;
-    let ssRaw = 0;
-    for (let i = 0; i < n; i++) {
-      const v = ch[i] * d0;
-      ss += v * v;
-      const raw = (sh ? hi[i] * sh[i] : w[i] === 0 ? 0 : hi[i]) * d0;
-      ssRaw += raw * raw;
+    const sums = unscaledSums(ch, hi, sh, weights ? w : null);
+    const d0 = powerOfTwoScale(sums.maxAbs);
+    let ss: number;
+    let ssRaw: number;
+    if (sums.normalRange) {
+      // Every square, scaled or not, is a normal number, so scaling by the power
+      // of two d0 commutes with each rounding: the same sums as below, exactly.
+      ss = sums.ss * d0 * d0;
+      ssRaw = sums.ssRaw * d0 * d0;
+    } else {
+      ss = 0;
+      ssRaw = 0;
+      for (let i = 0; i < n; i++) {
+        const v = ch[i] * d0;
+        ss += v * v;
+        const raw = (sh ? hi[i] * sh[i] : w[i] === 0 ? 0 : hi[i]) * d0;
+        ssRaw += raw * raw;
+      }
     }
     const d1 = powerOfTwoScale(Math.sqrt(ss));
     const d = d0 * d1;
@@ -174,4 +182,34 @@ export function equilibrate(
     rows: n, cols: p, ah, al, bh, bl, sh, sl, interceptColumn, mh, ml, responseScale, scale, norm,
     aliasedByIntercept, weightTotal, positiveRows,
   };
+}
+
+/** |x| within [2^-250, 2^250] (or 0): its square, and its square times any such power of two squared, are normal. */
+const SAFE_LOW = 2 ** -250;
+const SAFE_HIGH = 2 ** 250;
+
+/**
+ * One pass: the largest |c_i|, and sum c_i^2 and sum raw_i^2 without scaling
+ * (raw_i = hi_i s_i, or hi_i when unweighted, 0 where the weight is 0), and
+ * whether every nonzero c_i and raw_i lies in the safe range.
+ */
+function unscaledSums(
+  c: Float64Array, hi: Float64Array, sh: Float64Array | null, w: Float64Array | null,
+): { maxAbs: number; ss: number; ssRaw: number; normalRange: boolean } {
+  let maxAbs = 0;
+  let ss = 0;
+  let ssRaw = 0;
+  let inRange = true;
+  const n = c.length;
+  for (let i = 0; i < n; i++) {
+    const v = c[i];
+    const a = Math.abs(v);
+    maxAbs = Math.max(maxAbs, a);
+    ss += v * v;
+    const raw = sh ? hi[i] * sh[i] : w !== null && w[i] === 0 ? 0 : hi[i];
+    ssRaw += raw * raw;
+    const r = Math.abs(raw);
+    if ((a !== 0 && (a < SAFE_LOW || a > SAFE_HIGH)) || (r !== 0 && (r < SAFE_LOW || r > SAFE_HIGH))) inRange = false;
+  }
+  return { maxAbs, ss, ssRaw, normalRange: inRange && maxAbs > 0 };
 }
