@@ -22,6 +22,7 @@ import { MAX_REFINEMENT_STEPS, refineLeastSquares } from './refinement.ts';
 import { equilibratedCovariance, type CovarianceRoute } from './covariance.ts';
 import { mapCoefficients, mapCovariance } from './basis-map.ts';
 import { conditionFromR } from './condition.ts';
+import { totalSumOfSquares } from './total-sum-of-squares.ts';
 import { isExactFit } from './exact-fit.ts';
 
 /**
@@ -150,40 +151,4 @@ export function fitLeastSquares(
     conditionNumber,
     refinement: { steps: sol.steps, lastCorrection: sol.lastCorrection },
   };
-}
-
-/** sum w (y - ybar_w)^2 with an intercept, sum w y^2 without; double-double. */
-function totalSumOfSquares(
-  intercept: boolean,
-  y: Float64Array,
-  weights: Float64Array | undefined,
-  weightTotal: number,
-): number {
-  const n = y.length;
-  const w = (i: number) => {
-    if (!weights) return 1;
-    const v = weights[i];
-    return v > 0 && Number.isFinite(v) ? v : 0;
-  };
-  let mean: DD = [0, 0];
-  if (intercept && weightTotal > 0) {
-    let s: DD = [0, 0];
-    let total: DD = [0, 0];
-    for (let i = 0; i < n; i++) {
-      const [ph, pl] = ddMulDouble(y[i], 0, w(i));
-      s = ddAdd(s[0], s[1], ph, pl);
-      total = ddAdd(total[0], total[1], w(i), 0);
-    }
-    mean = ddDiv(s[0], s[1], total[0], total[1]);
-  }
-  let t: DD = [0, 0];
-  for (let i = 0; i < n; i++) {
-    const wi = w(i);
-    if (wi === 0) continue;
-    const [dh, dl] = ddSub(y[i], 0, mean[0], mean[1]);
-    const [qh, ql] = ddMul(dh, dl, dh, dl);
-    const [ph, pl] = ddMulDouble(qh, ql, wi);
-    t = ddAdd(t[0], t[1], ph, pl);
-  }
-  return t[0];
 }
