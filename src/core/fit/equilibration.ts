@@ -10,7 +10,7 @@
 // algebra carried out in double-double.
 
 import type { DesignMatrix } from '../types.ts';
-import { ddDiv, ddMulDouble, ddSqrt } from '../numeric/double-double.ts';
+import { ddDiv, splitHigh } from '../numeric/double-double.ts';
 import { centreAndScaleRows, weightedSumDD } from '../numeric/dd-vector.ts';
 
 export interface EquilibratedProblem {
@@ -93,7 +93,22 @@ export function equilibrate(
       const wi = weights[i];
       if (wi > 0 && Number.isFinite(wi)) {
         w[i] = wi;
-        [sh[i], sl[i]] = ddSqrt(wi);
+        // ddSqrt(wi) written out (no tuple per row): s + (wi - s^2) / (2 s), with
+        // wi - s^2 exact as (wi - p) - e. sqrt of a double is far below split's limit.
+        const s = Math.sqrt(wi);
+        if (!(s > 0) || !Number.isFinite(s)) {
+          sh[i] = s;
+          sl[i] = 0;
+        } else {
+          const p = s * s;
+          const s1 = splitHigh(s);
+          const s2 = s - s1;
+          const e = s1 * s1 - p + s1 * s2 + s2 * s1 + s2 * s2;
+          const c = (wi - p - e) / (2 * s);
+          const h = s + c;
+          sh[i] = h;
+          sl[i] = c - (h - s);
+        }
         weightTotal += wi;
         positiveRows++;
       }
@@ -168,8 +183,20 @@ export function equilibrate(
   const bl = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     if (w[i] === 0) continue;
-    if (sh) [bh[i], bl[i]] = ddMulDouble(sh[i], sl![i], y[i]);
-    else bh[i] = y[i];
+    if (sh) {
+      // ddMulDouble(sh, sl, y) written out.
+      const a = sh[i];
+      const b = y[i];
+      const p = a * b;
+      const a1 = splitHigh(a);
+      const a2 = a - a1;
+      const b1 = splitHigh(b);
+      const b2 = b - b1;
+      const e = a1 * b1 - p + a1 * b2 + a2 * b1 + a2 * b2 + sl![i] * b;
+      const h = p + e;
+      bh[i] = h;
+      bl[i] = e - (h - p);
+    } else bh[i] = y[i];
   }
   let bMax = 0;
   for (let i = 0; i < n; i++) bMax = Math.max(bMax, Math.abs(bh[i]));

@@ -14,7 +14,7 @@
 // wherever the caller put it.
 
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
-import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, twoProduct, type DD } from '../numeric/double-double.ts';
+import { ddMul, ddSub, splitHigh, type DD } from '../numeric/double-double.ts';
 import { sumSquaresDD } from '../numeric/dd-vector.ts';
 import { equilibrate } from './equilibration.ts';
 import { householderQR } from './householder-qr.ts';
@@ -89,7 +89,12 @@ export function fitLeastSquares(
       // with rh - q sh exact via twoProduct.
       const sh = eq.sh![i];
       const q = sol.rh[i] / sh;
-      const [ph, pl] = twoProduct(q, sh);
+      const ph = q * sh;
+      const q1 = splitHigh(q);
+      const q2 = q - q1;
+      const s1 = splitHigh(sh);
+      const s2 = sh - s1;
+      const pl = q1 * s1 - ph + q1 * s2 + q2 * s1 + q2 * s2; // twoProduct(q, sh) without the tuple
       residuals[i] = (q + (sol.rh[i] - ph - pl + sol.rl[i] - q * eq.sl![i]) / sh) / c;
     } else {
       let e: DD = [y[i], 0];

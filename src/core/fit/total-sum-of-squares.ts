@@ -4,18 +4,7 @@
 // loop, operation for operation, because the tuple-returning calls cost more than
 // the arithmetic at 10^5 rows; the result is bit-identical to composing them.
 
-import { ddDiv, split } from '../numeric/double-double.ts';
-
-const SPLITTER = 134217729;
-/** Beyond this magnitude SPLITTER * a overflows: take split()'s scaled route. */
-const SPLIT_THRESHOLD = 6.69692879491417e299;
-
-/** High part of Dekker's split of a (the low part is a - high). */
-function splitHigh(a: number): number {
-  if (a > SPLIT_THRESHOLD || a < -SPLIT_THRESHOLD) return split(a)[0];
-  const t = SPLITTER * a;
-  return t - (t - a);
-}
+import { ddDiv, splitHigh } from '../numeric/double-double.ts';
 
 /** Weight of row i: a weight that is not a positive finite number counts as 0. */
 function rowWeight(weights: Float64Array | undefined, i: number): number {
