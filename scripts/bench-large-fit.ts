@@ -15,21 +15,13 @@ import { buildDesign } from '../src/core/design/index.ts';
 import { fitLeastSquares } from '../src/core/fit/index.ts';
 import { fitPlainHouseholder } from '../src/core/fit/plain-householder.ts';
 import type { Columns } from '../src/core/types.ts';
+import { largeFitData } from './large-fit-data.ts';
 
 const rows = Number(process.argv[2] ?? 100_000);
 const m = Number(process.argv[3] ?? 30);
 const repeats = Number(process.argv[4] ?? 5);
 
-let seed = 20240607;
-const uniform = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 4294967296);
-const names = Array.from({ length: m }, (_, j) => `x${j}`);
-const columns: Record<string, number[]> = {};
-for (const name of names) columns[name] = Array.from({ length: rows }, () => uniform() - 0.5);
-const y = Float64Array.from({ length: rows }, (_, i) => {
-  let s = 1;
-  names.forEach((name, j) => { s += ((j % 5) - 2) * 0.3 * columns[name][i]; });
-  return s + 0.5 * (uniform() - 0.5);
-});
+const { names, columns, y } = largeFitData(rows, m);
 const built = buildDesign(columns as Columns, names, true, Array.from({ length: rows }, (_, i) => i));
 if ('issues' in built) throw new Error(JSON.stringify(built.issues.slice(0, 3)));
 const design = built.design;
