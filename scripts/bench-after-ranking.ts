@@ -10,21 +10,13 @@ import { diagnoseFit } from '../src/core/diagnostics/index.ts';
 import { predictMeanResponse } from '../src/core/predict.ts';
 import { modelGeometry } from '../src/core/inference/model-geometry.ts';
 import type { Columns } from '../src/core/types.ts';
+import { largeFitData } from './large-fit-data.ts';
 
 const rows = Number(process.argv[2] ?? 100_000);
 const m = Number(process.argv[3] ?? 30);
 const weighted = process.argv[4] === '1';
 
-let seed = 20240607;
-const uniform = () => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) / 4294967296);
-const names = Array.from({ length: m }, (_, j) => `x${j}`);
-const columns: Record<string, number[]> = {};
-for (const name of names) columns[name] = Array.from({ length: rows }, () => uniform() - 0.5);
-const y = Float64Array.from({ length: rows }, (_, i) => {
-  let s = 1;
-  names.forEach((name, j) => { s += ((j % 5) - 2) * 0.3 * columns[name][i]; });
-  return s + 0.5 * (uniform() - 0.5);
-});
+const { names, columns, y, uniform } = largeFitData(rows, m);
 const weights = weighted ? Float64Array.from({ length: rows }, () => 0.5 + uniform()) : undefined;
 const allRows = Array.from({ length: rows }, (_, i) => i);
 

@@ -10,7 +10,7 @@
 // algebra carried out in double-double.
 
 import type { DesignMatrix } from '../types.ts';
-import { ddDiv, ddMulDouble, ddSqrt } from '../numeric/double-double.ts';
+import { ddDiv, splitHigh } from '../numeric/double-double.ts';
 import { centreAndScaleRows, weightedSumDD } from '../numeric/dd-vector.ts';
 
 export interface EquilibratedProblem {
@@ -93,7 +93,22 @@ export function equilibrate(
       const wi = weights[i];
       if (wi > 0 && Number.isFinite(wi)) {
         w[i] = wi;
-        [sh[i], sl[i]] = ddSqrt(wi);
+        // ddSqrt(wi) written out (no tuple per row): s + (wi - s^2) / (2 s), with
+        // wi - s^2 exact as (wi - p) - e. sqrt of a double is far below split's limit.
+        const s = Math.sqrt(wi);
+        if (!(s > 0) || !Number.isFinite(s)) {
+          sh[i] = s;
+          sl[i] = 0;
+        } else {
+          const p = s * s;
+          const s1 = splitHigh(s);
+          const s2 = s - s1;
+          const e = s1 * s1 - p + s1 * s2 + s2 * s1 + s2 * s2;
+          const c = (wi - p - e) / (2 * s);
+          const h = s + c;
+          sh[i] = h;
+          sl[i] = c - (h - s);
+        }
         weightTotal += wi;
         positiveRows++;
       }
@@ -128,18 +143,26 @@ export function equilibrate(
     const ch = new Float64Array(n);
     const cl = new Float64Array(n);
     centreAndScaleRows(hi, lo, mh[j], ml[j], sh, sl, ch, cl);
-    let maxAbs = 0;
-    for (let i = 0; i < n; i++) maxAbs = Math.max(maxAbs, Math.abs(ch[i]));
     // Two power-of-two steps: by the largest entry (so squares cannot overflow),
     // then by the norm; the product is still an exact power of two.
-    const d0 = powerOfTwoScale(maxAbs);
-    let ss = 0;
-    let ssRaw = 0;
-    for (let i = 0; i < n; i++) {
-      const v = ch[i] * d0;
-      ss += v * v;
-      const raw = (sh ? hi[i] * sh[i] : w[i] === 0 ? 0 : hi[i]) * d0;
-      ssRaw += raw * raw;
+    const sums = unscaledSums(ch, hi, sh, weights ? w : null);
+    const d0 = powerOfTwoScale(sums.maxAbs);
+    let ss: number;
+    let ssRaw: number;
+    if (sums.normalRange) {
+      // Every square, scaled or not, is a normal number, so scaling by the power
+      // of two d0 commutes with each rounding: the same sums as below, exactly.
+      ss = sums.ss * d0 * d0;
+      ssRaw = sums.ssRaw * d0 * d0;
+    } else {
+      ss = 0;
+      ssRaw = 0;
+      for (let i = 0; i < n; i++) {
+        const v = ch[i] * d0;
+        ss += v * v;
+        const raw = (sh ? hi[i] * sh[i] : w[i] === 0 ? 0 : hi[i]) * d0;
+        ssRaw += raw * raw;
+      }
     }
     const d1 = powerOfTwoScale(Math.sqrt(ss));
     const d = d0 * d1;
@@ -160,8 +183,20 @@ export function equilibrate(
   const bl = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     if (w[i] === 0) continue;
-    if (sh) [bh[i], bl[i]] = ddMulDouble(sh[i], sl![i], y[i]);
-    else bh[i] = y[i];
+    if (sh) {
+      // ddMulDouble(sh, sl, y) written out.
+      const a = sh[i];
+      const b = y[i];
+      const p = a * b;
+      const a1 = splitHigh(a);
+      const a2 = a - a1;
+      const b1 = splitHigh(b);
+      const b2 = b - b1;
+      const e = a1 * b1 - p + a1 * b2 + a2 * b1 + a2 * b2 + sl![i] * b;
+      const h = p + e;
+      bh[i] = h;
+      bl[i] = e - (h - p);
+    } else bh[i] = y[i];
   }
   let bMax = 0;
   for (let i = 0; i < n; i++) bMax = Math.max(bMax, Math.abs(bh[i]));
@@ -174,4 +209,34 @@ export function equilibrate(
     rows: n, cols: p, ah, al, bh, bl, sh, sl, interceptColumn, mh, ml, responseScale, scale, norm,
     aliasedByIntercept, weightTotal, positiveRows,
   };
+}
+
+/** |x| within [2^-250, 2^250] (or 0): its square, and its square times any such power of two squared, are normal. */
+const SAFE_LOW = 2 ** -250;
+const SAFE_HIGH = 2 ** 250;
+
+/**
+ * One pass: the largest |c_i|, and sum c_i^2 and sum raw_i^2 without scaling
+ * (raw_i = hi_i s_i, or hi_i when unweighted, 0 where the weight is 0), and
+ * whether every nonzero c_i and raw_i lies in the safe range.
+ */
+function unscaledSums(
+  c: Float64Array, hi: Float64Array, sh: Float64Array | null, w: Float64Array | null,
+): { maxAbs: number; ss: number; ssRaw: number; normalRange: boolean } {
+  let maxAbs = 0;
+  let ss = 0;
+  let ssRaw = 0;
+  let inRange = true;
+  const n = c.length;
+  for (let i = 0; i < n; i++) {
+    const v = c[i];
+    const a = Math.abs(v);
+    maxAbs = Math.max(maxAbs, a);
+    ss += v * v;
+    const raw = sh ? hi[i] * sh[i] : w !== null && w[i] === 0 ? 0 : hi[i];
+    ssRaw += raw * raw;
+    const r = Math.abs(raw);
+    if ((a !== 0 && (a < SAFE_LOW || a > SAFE_HIGH)) || (r !== 0 && (r < SAFE_LOW || r > SAFE_HIGH))) inRange = false;
+  }
+  return { maxAbs, ss, ssRaw, normalRange: inRange && maxAbs > 0 };
 }

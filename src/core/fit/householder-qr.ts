@@ -51,39 +51,64 @@ export function householderQR(
   const rdiag = new Float64Array(q);
   const beta = new Float64Array(q);
   const remainingNorm = new Float64Array(q);
-  const pending: number[] = [];
-  for (let c = 0; c < q; c++) pending.push(c);
+  // dots[d]: v_k^T (column d) for the latest reflector k, taken during the pass
+  // that applied reflector k-1 to column d (see applyAndDot).
+  const dots = new Float64Array(q);
 
-  while (pending.length > 0) {
-    const c = pending.shift()!;
-    const k = accepted.length;
+  /** Decide candidate c at position k; when accepted, form its reflector in place. */
+  const decide = (c: number, k: number): boolean => {
     const off = c * n;
     let ss = 0;
     for (let i = k; i < n; i++) ss += work[off + i] * work[off + i];
     const nrm = Math.sqrt(ss);
     const ref = referenceNorm[candidates[c]];
     remainingNorm[c] = ref > 0 ? nrm / ref : 0;
-    if (k >= n || !(nrm > tolerance * ref) || !Number.isFinite(nrm)) {
-      aliased.push(c);
-      continue;
-    }
+    if (k >= n || !(nrm > tolerance * ref) || !Number.isFinite(nrm)) return false;
     // Reflector mapping x = work[k.., c] to alpha e_1 with alpha = -sign(x_k) ||x||,
     // so that v_k = x_k - alpha never cancels.
     const x0 = work[off + k];
     const alpha = x0 >= 0 ? -nrm : nrm;
     const v0 = x0 - alpha;
     work[off + k] = v0;
-    const b = -alpha * v0; // = v^T v / 2
     rdiag[k] = alpha;
-    beta[k] = b;
-    for (const d of pending) {
-      const offd = d * n;
-      let s = 0;
-      for (let i = k; i < n; i++) s += work[off + i] * work[offd + i];
-      const f = s / b;
-      for (let i = k; i < n; i++) work[offd + i] -= f * work[off + i];
+    beta[k] = -alpha * v0; // = v^T v / 2
+    return true;
+  };
+
+  // Columns are taken in order. Each pending column is brought up to date with the
+  // latest reflector just before it is decided; once the next reflector is formed,
+  // one pass per remaining column applies the previous reflector and accumulates
+  // the dot product with the new one. These are the operations of the textbook
+  // loop (dot, then update, per reflector) in the same order, so the result is
+  // bit-identical to it, with one pass over each column per reflector instead of two.
+  let current = -1; // working column of the latest reflector, -1 before the first
+  let next = 0; // index into candidates order of the next column to decide
+  while (next < q) {
+    const k = accepted.length;
+    let chosen = -1;
+    while (next < q) {
+      const c = next++;
+      if (current >= 0) applyReflector(work, n, current * n, k - 1, beta[k - 1], c * n, dots[c]);
+      if (decide(c, k)) {
+        chosen = c;
+        break;
+      }
+      aliased.push(c);
     }
-    accepted.push(c);
+    if (chosen < 0) break;
+    accepted.push(chosen);
+    const offV = chosen * n;
+    for (let d = next; d < q; d++) {
+      const offD = d * n;
+      if (current < 0) {
+        let s = 0;
+        for (let i = k; i < n; i++) s += work[offV + i] * work[offD + i];
+        dots[d] = s;
+      } else {
+        dots[d] = applyAndDot(work, n, current * n, k - 1, beta[k - 1], offD, dots[d], offV);
+      }
+    }
+    current = chosen;
   }
   // Reflectors and R entries sit in the accepted columns' slots; order maps positions to slots.
   return {
@@ -97,27 +122,85 @@ export function householderQR(
   };
 }
 
+/** Column at offD -= (s / b) v, with v the reflector of position k at offV. */
+function applyReflector(work: Float64Array, n: number, offV: number, k: number, b: number, offD: number, s: number): void {
+  const f = s / b;
+  for (let i = k; i < n; i++) work[offD + i] -= f * work[offV + i];
+}
+
+/**
+ * applyReflector for the reflector of position k, and in the same pass the dot
+ * product (from row k + 1) of the updated column with the next reflector at offW.
+ */
+function applyAndDot(
+  work: Float64Array, n: number, offV: number, k: number, b: number, offD: number, s: number, offW: number,
+): number {
+  const f = s / b;
+  if (k < n) work[offD + k] -= f * work[offV + k];
+  let t = 0;
+  for (let i = k + 1; i < n; i++) {
+    const x = work[offD + i] - f * work[offV + i];
+    work[offD + i] = x;
+    t += work[offW + i] * x;
+  }
+  return t;
+}
+
+// applyQt and applyQ fuse the update by one reflector with the dot product for
+// the next, in the textbook order of operations (bit-identical to dot-then-update
+// per reflector), so that z and the reflectors are read once per reflector.
+
 /** z <- Q^T z (z has n entries). */
 export function applyQt(qr: HouseholderQR, z: Float64Array): void {
-  const { rows: n, work, beta } = qr;
-  for (let k = 0; k < qr.rank; k++) {
-    const off = qr.order[k] * n;
-    let s = 0;
-    for (let i = k; i < n; i++) s += work[off + i] * z[i];
+  const { rows: n, work, beta, rank } = qr;
+  if (rank === 0) return;
+  let off = qr.order[0] * n;
+  let s = 0;
+  for (let i = 0; i < n; i++) s += work[off + i] * z[i];
+  for (let k = 0; k < rank; k++) {
     const f = s / beta[k];
-    for (let i = k; i < n; i++) z[i] -= f * work[off + i];
+    if (k + 1 === rank) {
+      for (let i = k; i < n; i++) z[i] -= f * work[off + i];
+      return;
+    }
+    const offW = qr.order[k + 1] * n;
+    z[k] -= f * work[off + k];
+    let t = 0;
+    for (let i = k + 1; i < n; i++) {
+      const x = z[i] - f * work[off + i];
+      z[i] = x;
+      t += work[offW + i] * x;
+    }
+    s = t;
+    off = offW;
   }
 }
 
 /** z <- Q z. */
 export function applyQ(qr: HouseholderQR, z: Float64Array): void {
-  const { rows: n, work, beta } = qr;
-  for (let k = qr.rank - 1; k >= 0; k--) {
-    const off = qr.order[k] * n;
-    let s = 0;
-    for (let i = k; i < n; i++) s += work[off + i] * z[i];
+  const { rows: n, work, beta, rank } = qr;
+  if (rank === 0) return;
+  let k = rank - 1;
+  let off = qr.order[k] * n;
+  let s = 0;
+  for (let i = k; i < n; i++) s += work[off + i] * z[i];
+  for (; k >= 0; k--) {
     const f = s / beta[k];
-    for (let i = k; i < n; i++) z[i] -= f * work[off + i];
+    if (k === 0) {
+      for (let i = 0; i < n; i++) z[i] -= f * work[off + i];
+      return;
+    }
+    // The next reflector (k - 1) starts one row earlier, where z is not changed by this one.
+    const offW = qr.order[k - 1] * n;
+    let t = 0;
+    t += work[offW + k - 1] * z[k - 1];
+    for (let i = k; i < n; i++) {
+      const x = z[i] - f * work[off + i];
+      z[i] = x;
+      t += work[offW + i] * x;
+    }
+    s = t;
+    off = offW;
   }
 }
 

@@ -14,7 +14,7 @@
 // wherever the caller put it.
 
 import type { DesignMatrix, LeastSquaresFit } from '../types.ts';
-import { ddAdd, ddDiv, ddMul, ddMulDouble, ddSub, twoProduct, type DD } from '../numeric/double-double.ts';
+import { ddMul, ddSub, splitHigh, type DD } from '../numeric/double-double.ts';
 import { sumSquaresDD } from '../numeric/dd-vector.ts';
 import { equilibrate } from './equilibration.ts';
 import { householderQR } from './householder-qr.ts';
@@ -22,6 +22,7 @@ import { MAX_REFINEMENT_STEPS, refineLeastSquares } from './refinement.ts';
 import { equilibratedCovariance, type CovarianceRoute } from './covariance.ts';
 import { mapCoefficients, mapCovariance } from './basis-map.ts';
 import { conditionFromR } from './condition.ts';
+import { totalSumOfSquares } from './total-sum-of-squares.ts';
 import { isExactFit } from './exact-fit.ts';
 
 /**
@@ -88,7 +89,12 @@ export function fitLeastSquares(
       // with rh - q sh exact via twoProduct.
       const sh = eq.sh![i];
       const q = sol.rh[i] / sh;
-      const [ph, pl] = twoProduct(q, sh);
+      const ph = q * sh;
+      const q1 = splitHigh(q);
+      const q2 = q - q1;
+      const s1 = splitHigh(sh);
+      const s2 = sh - s1;
+      const pl = q1 * s1 - ph + q1 * s2 + q2 * s1 + q2 * s2; // twoProduct(q, sh) without the tuple
       residuals[i] = (q + (sol.rh[i] - ph - pl + sol.rl[i] - q * eq.sl![i]) / sh) / c;
     } else {
       let e: DD = [y[i], 0];
@@ -150,40 +156,4 @@ export function fitLeastSquares(
     conditionNumber,
     refinement: { steps: sol.steps, lastCorrection: sol.lastCorrection },
   };
-}
-
-/** sum w (y - ybar_w)^2 with an intercept, sum w y^2 without; double-double. */
-function totalSumOfSquares(
-  intercept: boolean,
-  y: Float64Array,
-  weights: Float64Array | undefined,
-  weightTotal: number,
-): number {
-  const n = y.length;
-  const w = (i: number) => {
-    if (!weights) return 1;
-    const v = weights[i];
-    return v > 0 && Number.isFinite(v) ? v : 0;
-  };
-  let mean: DD = [0, 0];
-  if (intercept && weightTotal > 0) {
-    let s: DD = [0, 0];
-    let total: DD = [0, 0];
-    for (let i = 0; i < n; i++) {
-      const [ph, pl] = ddMulDouble(y[i], 0, w(i));
-      s = ddAdd(s[0], s[1], ph, pl);
-      total = ddAdd(total[0], total[1], w(i), 0);
-    }
-    mean = ddDiv(s[0], s[1], total[0], total[1]);
-  }
-  let t: DD = [0, 0];
-  for (let i = 0; i < n; i++) {
-    const wi = w(i);
-    if (wi === 0) continue;
-    const [dh, dl] = ddSub(y[i], 0, mean[0], mean[1]);
-    const [qh, ql] = ddMul(dh, dl, dh, dl);
-    const [ph, pl] = ddMulDouble(qh, ql, wi);
-    t = ddAdd(t[0], t[1], ph, pl);
-  }
-  return t[0];
 }

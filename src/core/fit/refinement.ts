@@ -14,7 +14,7 @@
 //   R^T h = g,   R dx = f1 - h,   dr = Q [h; f2].
 
 import { applyQ, applyQt, solveUpper, solveUpperTransposed, type HouseholderQR } from './householder-qr.ts';
-import { addCorrection, differenceDD, dotDD, subtractScaledColumn } from '../numeric/dd-vector.ts';
+import { addCorrection, refinementResiduals } from '../numeric/dd-vector.ts';
 
 /** Correction size below which refinement stops: well under double-double's reach for x. */
 export const REFINEMENT_TARGET = 1e-20;
@@ -59,6 +59,8 @@ export function refineLeastSquares(
   const fh = new Float64Array(n);
   const fl = new Float64Array(n);
   const g = new Float64Array(k);
+  const acceptedH = columns.map((c) => ah[c]);
+  const acceptedL = columns.map((c) => al[c]);
   let bNorm = 0;
   for (let i = 0; i < n; i++) bNorm += bh[i] * bh[i];
   bNorm = Math.sqrt(bNorm);
@@ -74,9 +76,7 @@ export function refineLeastSquares(
   let previous = Infinity;
   while (steps < maxSteps) {
     // f = b - r - A x and g = -A^T r, both in double-double.
-    differenceDD(bh, bl, rh, rl, fh, fl);
-    for (let c = 0; c < k; c++) subtractScaledColumn(fh, fl, ah[columns[c]], al[columns[c]], xh[c], xl[c]);
-    for (let c = 0; c < k; c++) g[c] = -dotDD(ah[columns[c]], al[columns[c]], rh, rl)[0];
+    refinementResiduals(acceptedH, acceptedL, xh, xl, bh, bl, rh, rl, fh, fl, g);
     ({ dr, dx } = solveCorrection(qr, fh, g));
     const correction = relativeSize(dx, xh, dr, bNorm);
     // A correction that does not shrink is rounding noise (or divergence when the

@@ -183,3 +183,77 @@ export function centreAndScaleRows(
     outL[i] = cl;
   }
 }
+
+/** Rows per tile of refinementResiduals: four n-vectors' tiles (128 KiB) stay in cache. */
+const RESIDUAL_TILE = 4096;
+
+/**
+ * Refinement residuals of the augmented least-squares system, in double-double:
+ *   (fh + fl) = (bh + bl) - (rh + rl) - sum_c (ah_c + al_c)(xh_c + xl_c),
+ *   g_c = -hi(sum_i (ah_c,i + al_c,i)(rh_i + rl_i)).
+ * The same arithmetic as differenceDD, then subtractScaledColumn and dotDD per
+ * column, in the same order per entry and per column (bit-identical), but swept
+ * over row tiles with f and g formed in one pass, so the design is read once and
+ * f and r stay in cache. Entries of ah and rh must be below 6.7e299 in magnitude.
+ */
+export function refinementResiduals(
+  ah: Float64Array[], al: Float64Array[],
+  xh: Float64Array, xl: Float64Array,
+  bh: Float64Array, bl: Float64Array,
+  rh: Float64Array, rl: Float64Array,
+  fh: Float64Array, fl: Float64Array,
+  g: Float64Array,
+): void {
+  const n = fh.length;
+  const k = ah.length;
+  differenceDD(bh, bl, rh, rl, fh, fl);
+  const x1 = new Float64Array(k);
+  const x2 = new Float64Array(k);
+  for (let c = 0; c < k; c++) [x1[c], x2[c]] = split(xh[c]);
+  const gh = new Float64Array(k);
+  const gl = new Float64Array(k);
+  for (let start = 0; start < n; start += RESIDUAL_TILE) {
+    const end = Math.min(n, start + RESIDUAL_TILE);
+    for (let c = 0; c < k; c++) {
+      const a_ = ah[c];
+      const al_ = al[c];
+      const xc = xh[c];
+      const xlc = xl[c];
+      const xc1 = x1[c];
+      const xc2 = x2[c];
+      let sh = gh[c];
+      let sl = gl[c];
+      for (let i = start; i < end; i++) {
+        const a = a_[i];
+        const alo = al_[i];
+        const t = SPLITTER * a;
+        const a1 = t - (t - a);
+        const a2 = a - a1;
+        // f_i -= a x (subtractScaledColumn).
+        const p = a * xc;
+        const e = a1 * xc1 - p + a1 * xc2 + a2 * xc1 + a2 * xc2 + (a * xlc + alo * xc);
+        const h = fh[i];
+        const s = h - p;
+        const bb = s - h;
+        const lo = fl[i] + (h - (s - bb) + (-p - bb)) - e;
+        const hi = s + lo;
+        fl[i] = lo - (hi - s);
+        fh[i] = hi;
+        // g_c += a r (dotDD).
+        const r = rh[i];
+        const q = a * r;
+        const u = SPLITTER * r;
+        const r1 = u - (u - r);
+        const r2 = r - r1;
+        const eq = a1 * r1 - q + a1 * r2 + a2 * r1 + a2 * r2 + (a * rl[i] + alo * r);
+        const sq = sh + q;
+        const bq = sq - sh;
+        sl += sh - (sq - bq) + (q - bq) + eq;
+        sh = sq;
+      }
+      gh[c] = sh;
+      gl[c] = sl;
+    }
+  }
+  for (let c = 0; c < k; c++) g[c] = -(gh[c] + gl[c]);
+}

@@ -42,6 +42,13 @@ export function split(a: number): DD {
   return [hi, a - hi];
 }
 
+/** split(a)[0] without the tuple, for row loops (the low part is a - high). */
+export function splitHigh(a: number): number {
+  if (a > SPLIT_THRESHOLD || a < -SPLIT_THRESHOLD) return split(a)[0];
+  const t = SPLITTER * a;
+  return t - (t - a);
+}
+
 /** p + e = a * b exactly, p = fl(a * b) (Dekker), barring under/overflow. */
 export function twoProduct(a: number, b: number): DD {
   const p = a * b;

@@ -214,3 +214,19 @@ t.test('degenerate inputs return a fit, never throw', async (t) => {
   t.ok(Math.abs(f4.coefficients[0]! - 2.5) < 1e-15 && Math.abs(f4.coefficients[1]!) < 1e-15);
   t.equal(f4.tss, 0);
 });
+
+t.test('a column scaled by a power of two far from 1 gives the coefficient scaled exactly', async (t) => {
+  // Equilibration's column scales are exact powers of two, so scaling a column by
+  // 2^300 (beyond the range where the column sums are taken unscaled, 2^±250)
+  // must leave every other number unchanged and divide its coefficient by 2^300.
+  const { design, y } = strdDesign(loadStrd('longley'));
+  const base = fitLeastSquares(design, y);
+  for (const e of [300, -300]) {
+    const high = design.high.map((c, j) => (j === 2 ? c.map((v) => v * 2 ** e) : c));
+    const low = design.low.map((c, j) => (j === 2 ? c.map((v) => v * 2 ** e) : c));
+    const fit = fitLeastSquares({ ...design, high, low }, y);
+    t.equal(fit.coefficients[2], base.coefficients[2]! * 2 ** -e, `2^${e}: scaled coefficient`);
+    t.same(fit.coefficients.filter((_, j) => j !== 2), base.coefficients.filter((_, j) => j !== 2), `2^${e}: others`);
+    t.equal(fit.rss, base.rss, `2^${e}: rss`);
+  }
+});

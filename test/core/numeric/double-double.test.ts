@@ -1,7 +1,7 @@
 import t from 'tap';
 import {
   twoSum, twoProduct, split, ddAdd, ddSub, ddMul, ddMulDouble, ddDiv, ddPowInt,
-  ddLog, ddSqrt, ddReciprocal, ddExp, ddSum, ddDot, type DD,
+  ddLog, ddSqrt, ddReciprocal, ddExp, ddSum, ddDot, splitHigh, type DD,
 } from '../../../src/core/numeric/double-double.ts';
 
 /** Relative difference of two double-doubles, computed in double-double. */
@@ -127,4 +127,12 @@ t.test('identities: sqrt squared, reciprocal times x, exp of log', async (t) => 
   t.ok(Number.isNaN(ddLog(-1)[0]));
   t.same(ddSqrt(0), [0, 0]);
   t.ok(Number.isNaN(ddPowInt(2, 1.5)[0]), 'non-integer exponent is NaN, not a throw');
+});
+
+t.test('splitHigh is the high part of split, including beyond the overflow threshold', async (t) => {
+  for (const a of [0, 1, -1 / 3, Math.PI * 1e10, 2 ** -1000, 1.7e308, -9e299, 6.7e299]) {
+    const [hi, lo] = split(a);
+    t.ok(Object.is(splitHigh(a), hi), `${a}: high part`);
+    t.equal(a - splitHigh(a), lo, `${a}: low part is a - high`);
+  }
 });
