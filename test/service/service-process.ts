@@ -1,11 +1,13 @@
-// The service as an operator runs it: `node --import tsx src/server.ts` as a
-// child process on a loopback port it picks itself (PORT=0), and a load driver
-// that fires comparisons at it with a bounded number in flight.
+// The service as an operator runs it: a child process on a loopback port it
+// picks itself (PORT=0) — from sources (`node --import tsx src/server.ts`) or,
+// with `compiled`, the production build (`node dist/server.js`, no TypeScript
+// loader anywhere) — and a load driver that fires comparisons at it with a
+// bounded number in flight.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 
 const REPO = fileURLToPath(new URL('../../', import.meta.url));
-const EXIT_WITH_PARENT = new URL('./exit-with-parent.ts', import.meta.url).href;
+const EXIT_WITH_PARENT = new URL('./exit-with-parent.mjs', import.meta.url).href;
 
 export interface ServiceProcess {
   child: ChildProcess;
@@ -15,9 +17,10 @@ export interface ServiceProcess {
 }
 
 /** Starts the service and resolves once it listens (fastify logs "Server listening at <url>" as JSON). */
-export function startService(env: Record<string, string>, startupMs = 30_000): Promise<ServiceProcess> {
+export function startService(env: Record<string, string>, startupMs = 30_000, compiled = false): Promise<ServiceProcess> {
   // exit-with-parent: a test that dies half-way must not leave a service listening.
-  const child = spawn(process.execPath, ['--import', 'tsx', '--import', EXIT_WITH_PARENT, 'src/server.ts'], {
+  const entry = compiled ? ['--import', EXIT_WITH_PARENT, 'dist/server.js'] : ['--import', 'tsx', '--import', EXIT_WITH_PARENT, 'src/server.ts'];
+  const child = spawn(process.execPath, entry, {
     cwd: REPO,
     env: {
       ...process.env,

@@ -1,7 +1,0 @@
-// Preloaded into service processes the tests start (node --import): when the
-// test process goes away by any means (a timeout, a crash, a signal), the pipe
-// on the child's stdin closes and the service goes too, so no test leaves a
-// service listening. Test-only; the service itself never loads this.
-process.stdin.on('end', () => process.kill(process.pid, 'SIGKILL'));
-process.stdin.on('error', () => process.kill(process.pid, 'SIGKILL'));
-process.stdin.resume();
