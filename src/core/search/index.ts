@@ -14,4 +14,3 @@ export { searchSubsets } from './search.ts';
 export { subsetScorer, type SubsetScorer } from './scorer.ts';
 export { sweepPivot, PIVOT_TOLERANCE } from './sweep.ts';
 export { keptThreshold } from './top-models.ts';
-export { priceSearch, type SearchPrice, type SearchShape } from './price.ts';
