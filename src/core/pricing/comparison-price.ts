@@ -2,6 +2,7 @@
 // price (candidate-prices.ts), the predictions of every model at the new
 // rows, and what the whole comparison adds (rankings under every criterion,
 // nested tests between fitted pairs, model averaging).
+import { averagedBoundsCost } from '../comparison/extras/prediction-cost.ts';
 import type { ComparisonInput } from '../comparison/compare.ts';
 import type { DataSummary } from '../summary/types.ts';
 import { NO_DATA, shapeOfColumns, shapeOfSummary, type DataShape } from './data-shape.ts';
@@ -69,8 +70,9 @@ export function priceComparison(input: ComparisonInput, summary: DataSummary | n
       what: `predictions at ${m} new rows from ${fitted} fitted models and their average`,
       path: ['options', 'predict', 'columns'],
       ...prediction,
-      // The average's predictions: one more row object per new row, over every model.
-      work: prediction.work + m * (FIXED_WORK.predictionRow + fitted),
+      // The average's predictions: one more row object per new row, over every model, and its
+      // tail-area bounds (Newton on the mixture's distribution function: the dominant cost).
+      work: prediction.work + m * (FIXED_WORK.predictionRow + fitted) + averagedBoundsCost(m, fitted),
       resultBytes: prediction.resultBytes + m * ANSWER_BYTES.prediction,
       designColumns: null,
       remedy: 'Predict at fewer new rows (options.predict.columns), or from fewer candidates',

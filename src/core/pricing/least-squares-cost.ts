@@ -34,7 +34,8 @@ export const ANSWER_BYTES = {
   base: 6144,
   model: 4096,
   coefficient: 200,
-  prediction: 128,
+  // estimate, standard error and the four interval bounds, with their keys
+  prediction: 256,
   rankingEntry: 256,
   nestedTest: 256,
   averagedTerm: 320,

@@ -36,7 +36,10 @@ export function predictionCost({ rows, columnsPerModel }: PredictionShape): numb
   if (rows <= 0 || columnsPerModel.length === 0) return 0;
   let perRow = 0;
   for (const p of columnsPerModel) perRow += p + p * p;
-  const models = columnsPerModel.length;
-  if (models >= 2) perRow += 4 * TAIL_AREA_STEPS * models * T_CDF_CELLS;
-  return rows * perRow;
+  return rows * perRow + averagedBoundsCost(rows, columnsPerModel.length);
+}
+
+/** The model-averaged tail-area bounds alone: four roots per row, each Newton step one t distribution function per model. */
+export function averagedBoundsCost(rows: number, models: number): number {
+  return rows > 0 && models >= 2 ? rows * 4 * TAIL_AREA_STEPS * models * T_CDF_CELLS : 0;
 }
