@@ -20,6 +20,7 @@ export const rootRoutes: FastifyPluginAsyncZod = async (app) => {
     schema: {
       tags: ['operations'],
       summary: 'Where to start: the documentation (a browser is redirected to /docs)',
+      description: 'A browser (Accept: text/html) is redirected to the interactive documentation at /docs; any other client gets the service\'s version and links to the documentation, the OpenAPI document, the comparisons and the health check, with a Link header naming the first two.',
       security: [],
       response: { 200: Start, 302: z.null().meta({ description: 'Redirect to /docs for a client that accepts text/html.' }) },
     },
