@@ -4,7 +4,7 @@
 // why not, the best model reads "best", the strip counts the verdict's
 // criteria, and a record that failed its integrity check is marked.
 import t from 'tap';
-import { DEFAULT_POLICY } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../src/core/scoring/policy.ts';
 import { parseChartOptions, sizePresets } from '../../src/render/chart-options.ts';
 import { renderChartSvg } from '../../src/render/chart-svg.ts';
 import { modelKeyAt, modelKeys } from '../../src/render/model-keys.ts';

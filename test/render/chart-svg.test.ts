@@ -2,7 +2,7 @@ import t from 'tap';
 import { parseChartOptions } from '../../src/render/chart-options.ts';
 import { renderChartSvg } from '../../src/render/chart-svg.ts';
 import type { StoredComparisonView } from '../../src/render/types.ts';
-import { DEFAULT_POLICY } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../src/core/scoring/policy.ts';
 import { defaultPolicyBands, fixtureRecord, kilnRecord, type FixtureModel } from './fixture-record.ts';
 import { summariseSvg, type SvgSummary } from './parse-with-python.ts';
 

@@ -3,7 +3,7 @@
 // criteria are derived from each model's RSS and parameter count with the
 // formulas of the public contract (api.md, "Conventions"), so a record is
 // internally consistent, but no test here checks statistics.
-import { DEFAULT_POLICY, deltaBand, type Policy } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY, deltaBand, type Policy } from '../../src/core/scoring/policy.ts';
 import type { CriterionName, ModelView, RankingEntry, StoredComparisonView } from '../../src/render/types.ts';
 
 /** Words for each entry's Δ, as a stored result carries them (entry.band); absent for records older than bands. */

@@ -3,17 +3,17 @@
 // convention, rankings under every criterion, the verdict. Returns the result,
 // or every issue that prevents it (never throws for input).
 import { columnsUsedBy, sampleRows } from '../design/index.ts';
-import type { CriterionName } from '../criteria.ts';
-import { verdict, type Verdict } from '../verdict.ts';
+import type { CriterionName } from '../scoring/criteria.ts';
+import { verdict, type Verdict } from '../scoring/verdict.ts';
 import { issue, type Issue } from '../issues.ts';
 import { datasetFingerprint } from '../fingerprint.ts';
-import { chooseRankBy, type Policy } from '../policy.ts';
+import { chooseRankBy, type Policy } from '../scoring/policy.ts';
 import type { Columns } from '../types.ts';
 import type { FittedCandidateInput, FittedModel, ModelResult } from './fitted-model.ts';
 import { scoreExternalCandidate, type ExternalCandidateInput, type ScoringContext } from './external-model.ts';
 import { estimationIssues } from './estimation-rules.ts';
-import { rankAll, type BandedEntry } from './rankings.ts';
-import { checksCaution, comparisonCautions, type Caution } from './cautions.ts';
+import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
+import { checksCaution, comparisonCautions, type Caution } from '../scoring/cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
 import { fitAll } from './fit-all.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';

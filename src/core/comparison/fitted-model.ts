@@ -3,7 +3,7 @@
 import { fitLeastSquares } from '../fit/index.ts';
 import type { DesignMatrix, LeastSquaresFit, Term } from '../types.ts';
 import type { ModelDiagnostics } from '../diagnostics/index.ts';
-import type { Caution } from './cautions.ts';
+import type { Caution } from '../scoring/cautions.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
 import { leastSquaresModelResult } from './least-squares-result.ts';
 import { DEFAULT_INTERVAL_LEVEL, type CoefficientTest } from '../inference/coefficient-tests.ts';

@@ -3,8 +3,8 @@
 // likelihood by the one convention, every criterion, and the cautions a reader
 // needs — so both paths say the same things in the same words.
 import { gaussianLogLikelihood } from '../likelihood.ts';
-import { computeCriteria } from '../criteria.ts';
-import type { Caution } from './cautions.ts';
+import { computeCriteria } from '../scoring/criteria.ts';
+import type { Caution } from '../scoring/cautions.ts';
 import type { ModelResult } from './fitted-model.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
 import { criteriaFields, finiteOrNull, transformCaution } from './model-fields.ts';

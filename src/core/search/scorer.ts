@@ -10,7 +10,7 @@
 // summary (which cost 60% of the kernel's time). test/core/search/scorer
 // checks the two agree.
 
-import { criterionDefinition, type FitSummary } from '../criteria.ts';
+import { criterionDefinition, type FitSummary } from '../scoring/criteria.ts';
 import { gaussianLogLikelihood } from '../likelihood.ts';
 import type { SearchCriterion } from './types.ts';
 

@@ -3,7 +3,7 @@
 // likelihood, criteria and cautions. What needs the rows is reported as
 // unavailable, with the reason: residuals and every residual diagnostic,
 // leave-one-out (PRESS), the design's condition number.
-import type { Caution } from '../comparison/cautions.ts';
+import type { Caution } from '../scoring/cautions.ts';
 import type { ModelResult } from '../comparison/fitted-model.ts';
 import { leastSquaresModelResult } from '../comparison/least-squares-result.ts';
 import type { SummaryFit } from './fit.ts';

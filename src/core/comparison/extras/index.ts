@@ -5,12 +5,12 @@ import { nestedTests as findNestedTests, type NestedTest } from '../../inference
 import { rankByLeaveOneOut } from '../../loo.ts';
 import { modelGeometry } from '../../inference/model-geometry.ts';
 import { issue, type Issue } from '../../issues.ts';
-import type { CriterionName } from '../../criteria.ts';
-import type { RankingEntry } from '../../ranking.ts';
+import type { CriterionName } from '../../scoring/criteria.ts';
+import type { RankingEntry } from '../../scoring/ranking.ts';
 import type { Columns } from '../../types.ts';
 import type { FittedModel, ModelResult } from '../fitted-model.ts';
 import type { CandidateInput } from '../compare.ts';
-import type { BandedEntry } from '../rankings.ts';
+import type { BandedEntry } from '../../scoring/rankings.ts';
 import { modelChecks } from './model-checks.ts';
 import { checkPredictionRows, predictionDesign, type PredictionColumns } from './prediction-rows.ts';
 import { averagedModels, type AveragedResult } from './averaging.ts';

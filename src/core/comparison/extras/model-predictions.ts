@@ -13,7 +13,7 @@ import {
   type ScaledPrediction,
 } from '../../inference/prediction-intervals.ts';
 import type { DesignMatrix } from '../../types.ts';
-import type { Caution } from '../cautions.ts';
+import type { Caution } from '../../scoring/cautions.ts';
 import type { FittedModel } from '../fitted-model.ts';
 
 /** How a model's predictions relate to the response as sent. */

@@ -1,8 +1,8 @@
 // Every criterion's ranking over the models, each entry with its Δ band.
-import { CRITERIA, type CriterionName } from '../criteria.ts';
-import { rankModels, type RankingEntry } from '../ranking.ts';
-import { deltaBand, type Policy } from '../policy.ts';
-import type { ModelResult } from './fitted-model.ts';
+import { CRITERIA, type CriterionName } from './criteria.ts';
+import { rankModels, type RankingEntry } from './ranking.ts';
+import { deltaBand, type Policy } from './policy.ts';
+import type { ModelResult } from '../comparison/fitted-model.ts';
 
 export type BandedEntry = RankingEntry & { band: string | null };
 
