@@ -90,7 +90,7 @@ t.test('the best model reads "best", never a band against itself', async (t) => 
   t.match(best.text, /best/);
   t.notMatch(best.text, /barely worth a mention/);
   t.match(parsed.desc, /quadratic: Δ 0\.00 \(best\)/);
-  // The policy's band for Δ 0 is still the first BIC band (src/core/policy.ts); the picture words the best model apart.
+  // The policy's band for Δ 0 is still the first BIC band (src/core/scoring/policy.ts); the picture words the best model apart.
   t.equal(kilnRecord('x', defaultPolicyBands).result.rankings.bic![0].band, DEFAULT_POLICY.bicBands[0].wording);
 });
 

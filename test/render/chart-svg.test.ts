@@ -60,7 +60,7 @@ t.test('band lines at 2, 4, 7 and 10 with their wording; none for adjusted R²',
   t.match(marked(adjusted, 'band-legend')[0].text, /No weights are defined/);
 });
 
-// The default team policy (src/core/policy.ts DEFAULT_POLICY): Burnham & Anderson's
+// The default team policy (src/core/scoring/policy.ts DEFAULT_POLICY): Burnham & Anderson's
 // rule of thumb for AIC-type Δ, Kass & Raftery's scale for ΔBIC. A record whose
 // entries carry its words shows those words, beside the bars and in the legend.
 t.test('a record carrying the default policy\'s bands: the bars and legend use its words', async (t) => {

@@ -51,7 +51,7 @@ function rank(models: ModelView[], criterion: CriterionName, value: (m: ModelVie
 
 /**
  * bands: label each entry with the policy's words for its Δ, by the policy's own
- * function (src/core/policy.ts deltaBand), as the service does since results
+ * function (src/core/scoring/policy.ts deltaBand), as the service does since results
  * carry bands; adjusted R² gets null, as in the contract.
  */
 export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss?: number; label?: string; id?: string; bands?: FixtureBands } = {}): StoredComparisonView {

@@ -10,7 +10,7 @@ import { responseScale } from '../inference/back-transform.ts';
 import type { CriterionName } from '../scoring/criteria.ts';
 import type { SummaryFit } from '../summary/index.ts';
 import { predictFromSummary } from '../summary/summary-predict.ts';
-import type { ModelResult } from './fitted-model.ts';
+import type { ModelResult } from '../models/model-result.ts';
 import type { BandedEntry } from '../scoring/rankings.ts';
 import type { PredictionColumns } from './extras/prediction-rows.ts';
 import { averagedModels, type AveragedResult } from './extras/averaging.ts';

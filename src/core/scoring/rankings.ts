@@ -2,7 +2,7 @@
 import { CRITERIA, type CriterionName } from './criteria.ts';
 import { rankModels, type RankingEntry } from './ranking.ts';
 import { deltaBand, type Policy } from './policy.ts';
-import type { ModelResult } from '../comparison/fitted-model.ts';
+import type { ModelResult } from '../models/model-result.ts';
 
 export type BandedEntry = RankingEntry & { band: string | null };
 

@@ -1,6 +1,6 @@
 // Criterion of a subset from its residual sum of squares, under the
 // service's one convention: the log-likelihood of src/core/likelihood.ts and
-// the criterion of src/core/criteria.ts, k = rank + 1, so a search and a
+// the criterion of src/core/scoring/criteria.ts, k = rank + 1, so a search and a
 // comparison cannot disagree on a formula.
 //
 // Speed: under the convention -2 logL = n ln RSS + (terms free of RSS), so

@@ -19,10 +19,10 @@ import { columnQualifier, keyReferences } from '../../design/index.ts';
 import type { CriterionName } from '../../scoring/criteria.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 import type { BandedEntry } from '../../scoring/rankings.ts';
-import type { ModelResult } from '../fitted-model.ts';
-import type { ResponseTransformSpec } from '../response-transform.ts';
+import type { ModelResult } from '../../models/model-result.ts';
+import type { ResponseTransformSpec } from '../../models/response-transform.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { transformLabel } from '../response-transform.ts';
+import { transformLabel } from '../../models/response-transform.ts';
 
 export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
   criterion: CriterionName;

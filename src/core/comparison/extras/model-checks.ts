@@ -5,7 +5,7 @@
 import { leaveOneOutError } from '../../loo.ts';
 import { modelGeometry, type ModelGeometry } from '../../inference/model-geometry.ts';
 import { diagnoseFit, type ModelDiagnostics } from '../../diagnostics/index.ts';
-import type { FittedModel } from '../fitted-model.ts';
+import type { FittedModel } from '../../models/linear/fitted-model.ts';
 import type { Caution } from '../../scoring/cautions.ts';
 
 export interface ModelChecks {

@@ -14,13 +14,8 @@ import {
 } from '../../inference/prediction-intervals.ts';
 import type { DesignMatrix } from '../../types.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import type { FittedModel } from '../fitted-model.ts';
-
-/** How a model's predictions relate to the response as sent. */
-export interface PredictionScale {
-  backTransform: 'none' | 'median';
-  description: string;
-}
+import type { FittedModel } from '../../models/linear/fitted-model.ts';
+import type { PredictionScale } from '../../models/model-result.ts';
 
 export interface ModelPredictions {
   results: PredictionWithIntervals[];

@@ -2,14 +2,14 @@
 // RSS become the full Gaussian log-likelihood computed here; a stated
 // log-likelihood is taken as it is (the caller vouches for its constants). A
 // stated response transform adds the Jacobian from the data's response column.
-import { gaussianLogLikelihood, residualSumOfSquares } from '../likelihood.ts';
-import { computeCriteria } from '../scoring/criteria.ts';
-import { centredTotalSumOfSquares } from '../sums-of-squares.ts';
-import { issue, type Issue, type IssuePath } from '../issues.ts';
-import type { ModelResult } from './fitted-model.ts';
-import { transformResponse, type ResponseTransformSpec } from './response-transform.ts';
-import type { Caution } from '../scoring/cautions.ts';
-import { criteriaFields, transformCaution } from './model-fields.ts';
+import { gaussianLogLikelihood, residualSumOfSquares } from '../../likelihood.ts';
+import { computeCriteria } from '../../scoring/criteria.ts';
+import { centredTotalSumOfSquares } from '../../sums-of-squares.ts';
+import { issue, type Issue, type IssuePath } from '../../issues.ts';
+import type { ModelResult } from '../model-result.ts';
+import { transformResponse, type ResponseTransformSpec } from '../response-transform.ts';
+import type { Caution } from '../../scoring/cautions.ts';
+import { criteriaFields, transformCaution } from '../model-fields.ts';
 
 export type ExternalCandidateInput =
   | { form: 'residuals'; name: string; residuals: (number | null)[]; parameters: number; response?: ResponseTransformSpec }

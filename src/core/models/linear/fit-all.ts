@@ -1,13 +1,13 @@
 // The candidates fitted here: each design on the common rows, and each fit on
 // the response's scale the candidate asks for. What this may cost was settled
 // before any of it was built (src/core/pricing), so nothing here counts work.
-import { buildDesign } from '../design/index.ts';
-import { issue, type Issue } from '../issues.ts';
-import type { Columns, DesignMatrix } from '../types.ts';
+import { buildDesign } from '../../design/index.ts';
+import { issue, type Issue } from '../../issues.ts';
+import type { Columns, DesignMatrix } from '../../types.ts';
 import { fitCandidate, type FittedModel } from './fitted-model.ts';
-import type { ScoringContext } from './external-model.ts';
-import { transformResponse, type TransformedResponse } from './response-transform.ts';
-import type { ComparisonInput } from './compare.ts';
+import type { ScoringContext } from '../external/external-model.ts';
+import { transformResponse, type TransformedResponse } from '../response-transform.ts';
+import type { ComparisonInput } from '../../comparison/compare.ts';
 
 export function fitAll(
   input: ComparisonInput,
