@@ -14,15 +14,8 @@ import {
 } from '../../inference/prediction-intervals.ts';
 import type { DesignMatrix } from '../../types.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import type { FittedModel } from '../../models/linear/fitted-model.ts';
-import type { PredictionScale } from '../../models/model-result.ts';
-
-export interface ModelPredictions {
-  results: PredictionWithIntervals[];
-  scaled: ScaledPrediction[];
-  scale: PredictionScale;
-  cautions: Caution[];
-}
+import type { FittedModel } from './fitted-model.ts';
+import type { ModelPredictions } from '../scored-model.ts';
 
 export function modelPredictions(
   model: FittedModel,
