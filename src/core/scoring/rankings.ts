@@ -2,11 +2,13 @@
 import { CRITERIA, type CriterionName } from './criteria.ts';
 import { rankModels, type RankingEntry } from './ranking.ts';
 import { deltaBand, type Policy } from './policy.ts';
-import type { ModelResult } from '../models/model-result.ts';
 
 export type BandedEntry = RankingEntry & { band: string | null };
 
-export function rankAll(models: readonly ModelResult[], confidenceLevel: number, policy: Policy): Record<CriterionName, BandedEntry[]> {
+/** What ranking reads of a model: its name and its value under each criterion (any kind's report has them). */
+export type CriteriaOfModel = { name: string } & Record<CriterionName, number | null>;
+
+export function rankAll(models: readonly CriteriaOfModel[], confidenceLevel: number, policy: Policy): Record<CriterionName, BandedEntry[]> {
   const rankings = {} as Record<CriterionName, BandedEntry[]>;
   for (const def of CRITERIA) {
     rankings[def.name] = rankModels(

@@ -6,11 +6,19 @@ import t from 'tap';
 import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { importCycles } from '../../../scripts/import-cycles.ts';
+import { importCycles, importGraph } from '../../../scripts/import-cycles.ts';
 
 t.test('src/core has no import cycles', async (t) => {
   const cycles = importCycles('src/core');
   t.same(cycles, [], cycles.map((c) => c.join(' -> ')).join('\n'));
+});
+
+t.test('scoring reads no kind of model: nothing under src/core/scoring imports src/core/models', async (t) => {
+  const models = `${join(process.cwd(), 'src', 'core', 'models')}/`;
+  const leaks = [...importGraph('src/core')]
+    .filter(([file]) => file.includes(`${join('src', 'core', 'scoring')}/`))
+    .flatMap(([file, targets]) => targets.filter((x) => x.startsWith(models)).map((x) => `${file} -> ${x}`));
+  t.same(leaks, []);
 });
 
 t.test('the finder sees a cycle through a type-only import and a subfolder', async (t) => {
