@@ -5,7 +5,7 @@
 //   npx tsx scripts/bench-predictions.ts [predictionRows=2000] [repeats=3]
 // The data are the demo's (scripts/demo-data.ts) with a model of log(shrinkage) added.
 import { compareModels, type ComparisonInput } from '../src/core/compare.ts';
-import { DEFAULT_POLICY } from '../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../src/core/scoring/policy.ts';
 import { demoComparison } from './demo-data.ts';
 import type { Term } from '../src/core/types.ts';
 import { tCdf } from '../src/core/inference/distributions.ts';

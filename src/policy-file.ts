@@ -4,7 +4,7 @@
 // every response so two dashboards can tell whether they used the same rules.
 import { readFileSync } from 'node:fs';
 import { z } from 'zod';
-import { DEFAULT_POLICY, type Policy } from './core/policy.ts';
+import { DEFAULT_POLICY, type Policy } from './core/scoring/policy.ts';
 import { canonicalJson, sha256Hex } from './audit/chain.ts';
 
 const Band = z.strictObject({

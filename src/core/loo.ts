@@ -7,7 +7,7 @@
 import type { DesignMatrix, LeastSquaresFit } from './types.ts';
 import { weightAt } from './inference/design-rows.ts';
 import { modelGeometry, type ModelGeometry } from './inference/model-geometry.ts';
-import { rankModels, type RankingEntry } from './ranking.ts';
+import { rankModels, type RankingEntry } from './scoring/ranking.ts';
 
 /**
  * A row whose 1 - h_ii falls below this is treated as having leverage 1: the

@@ -6,7 +6,7 @@
 //   record does not hold): the legend names the lines only and says whose
 //   words the bars carry, rather than pairing our edges with its words;
 // - no entry carries a band (records older than bands): our own wording.
-import { DEFAULT_POLICY, deltaBand, type DeltaBand } from '../core/policy.ts';
+import { DEFAULT_POLICY, deltaBand, type DeltaBand } from '../core/scoring/policy.ts';
 import { bandFamily, ownBands, referenceLines, type BandFamily, type BandRule } from './delta-bands.ts';
 import type { CriterionName, StoredComparisonView } from './types.ts';
 

@@ -1,7 +1,7 @@
 // How much support a criterion difference leaves a model, in plain words, and
 // where the chart draws its reference lines.
 //
-// Two families, as in the team policy (src/core/policy.ts):
+// Two families, as in the team policy (src/core/scoring/policy.ts):
 // - AIC, AICc and HQC: the rule of thumb for AIC-type differences in Burnham,
 //   K. P. & Anderson, D. R. (2002), Model Selection and Multimodel Inference,
 //   2nd ed., Springer, section 2.6 (from memory: Δ ≤ 2 substantial support,

@@ -2,7 +2,7 @@
 // by hand in the comments; identities are facts of the trade (common practice).
 import t from 'tap';
 import fc from 'fast-check';
-import { CRITERIA, CRITERION_NAMES, computeCriteria, type FitSummary } from '../../src/core/criteria.ts';
+import { CRITERIA, CRITERION_NAMES, computeCriteria, type FitSummary } from '../../src/core/scoring/criteria.ts';
 
 const base: FitSummary = {
   logLikelihood: -10, parameters: 3, observations: 20, rss: 4, tss: 16, coefficientsIncludingIntercept: 2, intercept: true,

@@ -2,7 +2,7 @@
 // Facts of the trade (common practice) and a worked example by hand.
 import t from 'tap';
 import fc from 'fast-check';
-import { akaikeWeights, rankModels } from '../../src/core/ranking.ts';
+import { akaikeWeights, rankModels } from '../../src/core/scoring/ranking.ts';
 
 const smaller = { direction: 'smaller', weighted: true } as const;
 

@@ -2,8 +2,8 @@
 // words, and the criterion the request ranks by. Rankings are built with
 // rankModels from values chosen so the picks are known by inspection.
 import t from 'tap';
-import { rankModels } from '../../src/core/ranking.ts';
-import { verdict } from '../../src/core/verdict.ts';
+import { rankModels } from '../../src/core/scoring/ranking.ts';
+import { verdict } from '../../src/core/scoring/verdict.ts';
 
 function ranking(values: Record<string, number | null>, direction: 'smaller' | 'larger' = 'smaller') {
   return rankModels(Object.entries(values).map(([name, value]) => ({ name, value })), { direction, weighted: direction === 'smaller' });

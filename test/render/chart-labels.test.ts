@@ -4,7 +4,7 @@
 // why not, the best model reads "best", the strip counts the verdict's
 // criteria, and a record that failed its integrity check is marked.
 import t from 'tap';
-import { DEFAULT_POLICY } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../src/core/scoring/policy.ts';
 import { parseChartOptions, sizePresets } from '../../src/render/chart-options.ts';
 import { renderChartSvg } from '../../src/render/chart-svg.ts';
 import { modelKeyAt, modelKeys } from '../../src/render/model-keys.ts';
@@ -90,7 +90,7 @@ t.test('the best model reads "best", never a band against itself', async (t) => 
   t.match(best.text, /best/);
   t.notMatch(best.text, /barely worth a mention/);
   t.match(parsed.desc, /quadratic: Δ 0\.00 \(best\)/);
-  // The policy's band for Δ 0 is still the first BIC band (src/core/policy.ts); the picture words the best model apart.
+  // The policy's band for Δ 0 is still the first BIC band (src/core/scoring/policy.ts); the picture words the best model apart.
   t.equal(kilnRecord('x', defaultPolicyBands).result.rankings.bic![0].band, DEFAULT_POLICY.bicBands[0].wording);
 });
 

@@ -2,7 +2,7 @@ import t from 'tap';
 import { parseChartOptions } from '../../src/render/chart-options.ts';
 import { renderChartSvg } from '../../src/render/chart-svg.ts';
 import type { StoredComparisonView } from '../../src/render/types.ts';
-import { DEFAULT_POLICY } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../src/core/scoring/policy.ts';
 import { defaultPolicyBands, fixtureRecord, kilnRecord, type FixtureModel } from './fixture-record.ts';
 import { summariseSvg, type SvgSummary } from './parse-with-python.ts';
 
@@ -60,7 +60,7 @@ t.test('band lines at 2, 4, 7 and 10 with their wording; none for adjusted R²',
   t.match(marked(adjusted, 'band-legend')[0].text, /No weights are defined/);
 });
 
-// The default team policy (src/core/policy.ts DEFAULT_POLICY): Burnham & Anderson's
+// The default team policy (src/core/scoring/policy.ts DEFAULT_POLICY): Burnham & Anderson's
 // rule of thumb for AIC-type Δ, Kass & Raftery's scale for ΔBIC. A record whose
 // entries carry its words shows those words, beside the bars and in the legend.
 t.test('a record carrying the default policy\'s bands: the bars and legend use its words', async (t) => {

@@ -1,5 +1,5 @@
 import t from 'tap';
-import { DEFAULT_POLICY, deltaBand } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY, deltaBand } from '../../src/core/scoring/policy.ts';
 import { bandFamily, bandOf, bandsApply, entryBandWording, ownBands, referenceLines, supportBandOf } from '../../src/render/delta-bands.ts';
 
 // Burnham & Anderson (2002), Model Selection and Multimodel Inference, 2nd ed.,

@@ -3,7 +3,7 @@
 // criteria are derived from each model's RSS and parameter count with the
 // formulas of the public contract (api.md, "Conventions"), so a record is
 // internally consistent, but no test here checks statistics.
-import { DEFAULT_POLICY, deltaBand, type Policy } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY, deltaBand, type Policy } from '../../src/core/scoring/policy.ts';
 import type { CriterionName, ModelView, RankingEntry, StoredComparisonView } from '../../src/render/types.ts';
 
 /** Words for each entry's Δ, as a stored result carries them (entry.band); absent for records older than bands. */
@@ -51,7 +51,7 @@ function rank(models: ModelView[], criterion: CriterionName, value: (m: ModelVie
 
 /**
  * bands: label each entry with the policy's words for its Δ, by the policy's own
- * function (src/core/policy.ts deltaBand), as the service does since results
+ * function (src/core/scoring/policy.ts deltaBand), as the service does since results
  * carry bands; adjusted R² gets null, as in the contract.
  */
 export function fixtureRecord(models: FixtureModel[], options: { n?: number; tss?: number; label?: string; id?: string; bands?: FixtureBands } = {}): StoredComparisonView {

@@ -3,7 +3,7 @@
 // every finding said once, the integrity check at the top, and the fields of
 // later records (inference, intervals, averaging coverage) shown when present.
 import t from 'tap';
-import { DEFAULT_POLICY } from '../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../src/core/scoring/policy.ts';
 import { formatCriterionDelta, formatRatio, formatSignificant, scientific } from '../../src/render/number-format.ts';
 import { renderReportHtml } from '../../src/render/report-html.ts';
 import { PREDICTION_ROWS_SHOWN } from '../../src/render/report-coefficients.ts';

@@ -3,24 +3,24 @@
 // convention, rankings under every criterion, the verdict. Returns the result,
 // or every issue that prevents it (never throws for input).
 import { columnsUsedBy, sampleRows } from '../design/index.ts';
-import type { CriterionName } from '../criteria.ts';
-import { verdict, type Verdict } from '../verdict.ts';
+import type { CriterionName } from '../scoring/criteria.ts';
+import { verdict, type Verdict } from '../scoring/verdict.ts';
 import { issue, type Issue } from '../issues.ts';
 import { datasetFingerprint } from '../fingerprint.ts';
-import { chooseRankBy, type Policy } from '../policy.ts';
+import { chooseRankBy, type Policy } from '../scoring/policy.ts';
 import type { Columns } from '../types.ts';
-import type { FittedCandidateInput, FittedModel, ModelResult } from './fitted-model.ts';
-import { scoreExternalCandidate, type ExternalCandidateInput, type ScoringContext } from './external-model.ts';
+import type { ModelResult } from '../models/model-result.ts';
+import { scoreCandidates, type CandidateInput } from '../models/registry.ts';
+import type { ScoringContext } from '../models/scoring-context.ts';
 import { estimationIssues } from './estimation-rules.ts';
-import { rankAll, type BandedEntry } from './rankings.ts';
-import { checksCaution, comparisonCautions, type Caution } from './cautions.ts';
+import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
+import { checksCaution, comparisonCautions, type Caution } from '../scoring/cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
-import { fitAll } from './fit-all.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 import { averagingCautions } from './extras/averaging.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 
-export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
+export type { CandidateInput } from '../models/registry.ts';
 
 export interface ComparisonInput {
   /** Null when the request sends no data (every candidate stated by rss or logLikelihood). */
@@ -87,7 +87,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
 
 export function compareModels(
   input: ComparisonInput,
-): { result: ComparisonOutcome; fitted: FittedModel[] } | { issues: Issue[] } {
+): { result: ComparisonOutcome } | { issues: Issue[] } {
   const issues: Issue[] = [];
   const scoring = scoringRows(input, issues);
   if (!scoring) return { issues };
@@ -98,18 +98,8 @@ export function compareModels(
     name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
   }))));
 
-  const fitted = input.columns ? fitAll(input, input.columns, ctx, issues) : new Map<number, FittedModel>();
-  const models: ModelResult[] = [];
-  input.candidates.forEach((c, i) => {
-    if (c.form === 'fit') {
-      const f = fitted.get(i);
-      if (f) models.push(f.result);
-      return;
-    }
-    const scored = scoreExternalCandidate(c, ['candidates', i], ctx);
-    if ('issues' in scored) issues.push(...scored.issues);
-    else models.push(scored.result);
-  });
+  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel }, issues);
+  const models: ModelResult[] = scored.map((m) => m.report);
 
   if (issues.length > 0) return { issues };
   // Only once every used column is known to exist and hold values on the used rows.
@@ -129,12 +119,11 @@ export function compareModels(
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
     sample: JSON.stringify([input.response, input.weights]), termColumns: used,
-    candidates: input.candidates, fitted, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
+    scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;
 
   return {
-    fitted: [...fitted.values()],
     result: {
       conventions: conventions(choice, confidenceLevel, intervalLevel),
       policy: { name: input.policy.name, hash: input.policyHash },

@@ -1,7 +1,7 @@
 // What every response says it did, in words a reviewer can check against the
 // README. Bump CONVENTIONS_VERSION whenever any number could change meaning.
-import type { CriterionName } from '../criteria.ts';
-import type { RankByChoice } from '../policy.ts';
+import type { CriterionName } from '../scoring/criteria.ts';
+import type { RankByChoice } from '../scoring/policy.ts';
 import { ALIAS_TOLERANCE } from '../fit/index.ts';
 import { PIVOT_TOLERANCE } from '../search/sweep.ts';
 

@@ -3,10 +3,10 @@
 // logLikelihood candidates join as usual, since they need no rows. Residuals
 // candidates and response transforms need the rows and are refused with the
 // reason. Rankings, verdict, conventions and cautions are the comparison's own.
-import type { CriterionName } from '../criteria.ts';
+import type { CriterionName } from '../scoring/criteria.ts';
 import { issue, type Issue } from '../issues.ts';
-import { chooseRankBy, type Policy } from '../policy.ts';
-import { verdict } from '../verdict.ts';
+import { chooseRankBy, type Policy } from '../scoring/policy.ts';
+import { verdict } from '../scoring/verdict.ts';
 import {
   fitFromSummary,
   summaryFingerprint,
@@ -18,12 +18,13 @@ import {
   type DataSummary,
 } from '../summary/index.ts';
 import type { CandidateInput, ComparisonOutcome } from './compare.ts';
-import { comparisonCautions, type Caution } from './cautions.ts';
+import { comparisonCautions, type Caution } from '../scoring/cautions.ts';
 import { conventions, SWEEP_RANK_RULE } from './conventions.ts';
 import { estimationIssues } from './estimation-rules.ts';
-import { scoreExternalCandidate, type ScoringContext } from './external-model.ts';
-import type { ModelResult } from './fitted-model.ts';
-import { rankAll } from './rankings.ts';
+import { scoreExternalCandidate } from '../models/external/external-model.ts';
+import type { ScoringContext } from '../models/scoring-context.ts';
+import type { ModelResult } from '../models/model-result.ts';
+import { rankAll } from '../scoring/rankings.ts';
 import { rankByLeaveOneOut } from '../loo.ts';
 import { summaryExtras, type SummaryFitted } from './summary-extras.ts';
 import { averagingCautions } from './extras/averaging.ts';

@@ -7,11 +7,11 @@ import { issue, type Issue } from '../issues.ts';
 import { predictionWithIntervals, type ScaledPrediction } from '../inference/prediction-intervals.ts';
 import { twoSidedCritical } from '../inference/coefficient-tests.ts';
 import { responseScale } from '../inference/back-transform.ts';
-import type { CriterionName } from '../criteria.ts';
+import type { CriterionName } from '../scoring/criteria.ts';
 import type { SummaryFit } from '../summary/index.ts';
 import { predictFromSummary } from '../summary/summary-predict.ts';
-import type { ModelResult } from './fitted-model.ts';
-import type { BandedEntry } from './rankings.ts';
+import type { ModelResult } from '../models/model-result.ts';
+import type { BandedEntry } from '../scoring/rankings.ts';
 import type { PredictionColumns } from './extras/prediction-rows.ts';
 import { averagedModels, type AveragedResult } from './extras/averaging.ts';
 

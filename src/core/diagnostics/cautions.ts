@@ -3,7 +3,7 @@
 // identically distributed normal errors; each caution says what breaking
 // that assumption does to them and what to look at next.
 // The closing reminder that checks do not validate a model is said once per
-// comparison (comparison/cautions.ts), not once per model.
+// comparison (scoring/cautions.ts), not once per model.
 import type { ModelDiagnostics } from './types.ts';
 
 export function diagnosticCautions(d: ModelDiagnostics): string[] {

@@ -9,7 +9,7 @@
 // that depends on σ² — exp(μ + σ²/2) for log — and has no closed form for
 // Box–Cox; it is not what is reported.) The standard error on the original
 // scale is the delta method's |dg⁻¹/dμ| · se.
-import type { ResponseTransformSpec } from '../comparison/response-transform.ts';
+import type { ResponseTransformSpec } from '../models/response-transform.ts';
 
 /** Where a value of the model's scale falls when taken back to the scale of y. */
 export type BackTransformed = number | 'below' | 'above';

@@ -1,70 +1,27 @@
-// Each kind of candidate prices itself from the request's shape: one entry
-// per candidate form, keyed like CandidateInput['form']. A new kind of model
-// (a generalised linear, nonlinear or lifetime fit) adds its entry here — its
-// fit's work (an iterative fit: iterations × its per-iteration cost), the
+// Each kind of candidate prices itself from the request's shape: the price
+// is part of the kind's entry in src/core/models/registry.ts (a new kind — a
+// generalised linear, nonlinear or lifetime fit — adds its price there: its
+// fit's work, an iterative fit as iterations × its per-iteration cost, the
 // memory it keeps, its share of the answer, and what predictions from it
-// cost — and TypeScript refuses a form without one.
-import type { CandidateInput } from '../comparison/compare.ts';
+// cost), and TypeScript refuses a form without one. This file reads them.
+import { CANDIDATE_KINDS, type CandidateForm, type CandidateInput, type OfForm } from '../models/registry.ts';
 import type { IssuePath } from '../issues.ts';
-import type { DataShape } from './data-shape.ts';
-import { designWidth } from './design-width.ts';
-import { ANSWER_BYTES, FIXED_WORK, leastSquaresFit, leastSquaresFromSummary, leastSquaresPrediction, NO_COST, type Cost } from './least-squares-cost.ts';
+import type { CandidateContext, CandidateCost } from './candidate-cost.ts';
 
-export interface CandidateContext {
-  shape: DataShape;
-  /** The data came as a summary (data.summary): no rows to fit or predict on. */
-  fromSummary: boolean;
-  /** New rows to predict at (options.predict), 0 when none. */
-  predictionRows: number;
-  /** The design-column cap: level counts stop just past it. */
-  maxDesignColumns: number;
-}
+export type { CandidateContext, CandidateCost } from './candidate-cost.ts';
 
-export interface CandidateCost {
-  fit: Cost;
-  /** Predictions at the new rows (NO_COST for a candidate that cannot predict). */
-  prediction: Cost;
-  /** Design columns of the model fitted here; null for candidates fitted elsewhere. */
-  designColumns: number | null;
-  /** The term that makes the design widest, when the width comes from the terms. */
-  widestTerm: number | null;
-  /** designColumns is a lower bound (a level count stopped past the cap). */
-  atLeast: boolean;
-}
+export type CandidatePricer<F extends CandidateForm> = (candidate: OfForm<F>, ctx: CandidateContext) => CandidateCost;
 
-type OfForm<F extends CandidateInput['form']> = Extract<CandidateInput, { form: F }>;
-export type CandidatePricer<F extends CandidateInput['form']> = (candidate: OfForm<F>, ctx: CandidateContext) => CandidateCost;
-
-/** A model fitted elsewhere is scored from its figures: a pass over its residuals at most. */
-function scoredElsewhere(values: number): CandidateCost {
-  return {
-    fit: { work: FIXED_WORK.modelFittedElsewhere + values, heldBytes: 8 * values, passingBytes: 0, resultBytes: ANSWER_BYTES.model },
-    prediction: NO_COST,
-    designColumns: null,
-    widestTerm: null,
-    atLeast: false,
-  };
-}
-
-export const CANDIDATE_PRICES: { [F in CandidateInput['form']]: CandidatePricer<F> } = {
-  fit: (c, ctx) => {
-    const width = designWidth(ctx.shape, c.terms, c.intercept, ctx.maxDesignColumns);
-    const p = width.columns;
-    const n = ctx.shape.rows;
-    // Worth pointing at only when one term makes several columns (a factor, a product of factors).
-    const widest = Math.max(0, ...width.perTerm);
-    const widestTerm = widest > 1 ? width.perTerm.indexOf(widest) : null;
-    const common = { designColumns: p, widestTerm, atLeast: width.atLeast };
-    if (ctx.fromSummary) return { fit: leastSquaresFromSummary(p), prediction: NO_COST, ...common };
-    return { fit: leastSquaresFit(n, p), prediction: leastSquaresPrediction(n, p, ctx.predictionRows), ...common };
-  },
-  residuals: (c) => scoredElsewhere(c.residuals.length),
-  rss: () => scoredElsewhere(1),
-  logLikelihood: () => scoredElsewhere(1),
+/** Each candidate form's price, as its kind states it. */
+export const CANDIDATE_PRICES: { [F in CandidateForm]: CandidatePricer<F> } = {
+  fit: CANDIDATE_KINDS.fit.price,
+  residuals: CANDIDATE_KINDS.residuals.price,
+  rss: CANDIDATE_KINDS.rss.price,
+  logLikelihood: CANDIDATE_KINDS.logLikelihood.price,
 };
 
 export function priceCandidate(candidate: CandidateInput, ctx: CandidateContext): CandidateCost {
-  const pricer = CANDIDATE_PRICES[candidate.form] as CandidatePricer<CandidateInput['form']>;
+  const pricer = CANDIDATE_PRICES[candidate.form] as CandidatePricer<CandidateForm>;
   return pricer(candidate, ctx);
 }
 

@@ -4,12 +4,13 @@
 // with delta and weight over every evaluated subset, term importance,
 // conventions and cautions.
 import { buildDesign } from '../design/index.ts';
-import type { CriterionName } from '../criteria.ts';
-import { chooseRankBy, type Policy, type RankByChoice } from '../policy.ts';
+import type { CriterionName } from '../scoring/criteria.ts';
+import { chooseRankBy, type Policy, type RankByChoice } from '../scoring/policy.ts';
 import type { Term } from '../types.ts';
-import { fitCandidate, type ModelResult } from '../comparison/fitted-model.ts';
+import { fitCandidate } from '../models/linear/fitted-model.ts';
+import type { ModelResult } from '../models/model-result.ts';
 import { conventions, ROWS_RANK_RULE, SWEEP_RANK_RULE, type Conventions } from '../comparison/conventions.ts';
-import type { Caution } from '../comparison/cautions.ts';
+import type { Caution } from '../scoring/cautions.ts';
 import { fitFromSummary, summaryModelResult } from '../summary/index.ts';
 import { subsetName, type PreparedSearch } from './request-problem.ts';
 import type { SearchOutcome } from './result.ts';

@@ -1,6 +1,6 @@
 // Criterion of a subset from its residual sum of squares, under the
 // service's one convention: the log-likelihood of src/core/likelihood.ts and
-// the criterion of src/core/criteria.ts, k = rank + 1, so a search and a
+// the criterion of src/core/scoring/criteria.ts, k = rank + 1, so a search and a
 // comparison cannot disagree on a formula.
 //
 // Speed: under the convention -2 logL = n ln RSS + (terms free of RSS), so
@@ -10,7 +10,7 @@
 // summary (which cost 60% of the kernel's time). test/core/search/scorer
 // checks the two agree.
 
-import { criterionDefinition, type FitSummary } from '../criteria.ts';
+import { criterionDefinition, type FitSummary } from '../scoring/criteria.ts';
 import { gaussianLogLikelihood } from '../likelihood.ts';
 import type { SearchCriterion } from './types.ts';
 

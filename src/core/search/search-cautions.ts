@@ -1,7 +1,7 @@
 // What a reader of a search result needs to be told: the standing caution,
 // the optimism of choosing the best of many subsets, and everything the
 // search passed over, pruned or could not score.
-import { STANDING_CAUTION, type Caution } from '../comparison/cautions.ts';
+import { STANDING_CAUTION, type Caution } from '../scoring/cautions.ts';
 import { SUMMARY_INPUT_CAUTION } from '../comparison/from-summary.ts';
 import { subsetName, type PreparedSearch } from './request-problem.ts';
 import type { SearchOutcome } from './result.ts';

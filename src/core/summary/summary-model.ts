@@ -1,11 +1,11 @@
 // A model fitted from a data summary, in the same result shape as a model
-// fitted on the rows (src/core/comparison/fitted-model.ts), with the same
+// fitted on the rows (src/core/models/linear/fitted-model.ts), with the same
 // likelihood, criteria and cautions. What needs the rows is reported as
 // unavailable, with the reason: residuals and every residual diagnostic,
 // leave-one-out (PRESS), the design's condition number.
-import type { Caution } from '../comparison/cautions.ts';
-import type { ModelResult } from '../comparison/fitted-model.ts';
-import { leastSquaresModelResult } from '../comparison/least-squares-result.ts';
+import type { Caution } from '../scoring/cautions.ts';
+import type { ModelResult } from '../models/model-result.ts';
+import { leastSquaresModelResult } from '../models/linear/least-squares-result.ts';
 import type { SummaryFit } from './fit.ts';
 import type { DataSummary } from './types.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';

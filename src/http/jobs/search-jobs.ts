@@ -10,7 +10,7 @@ import type { Cap } from '../../core/pricing/index.ts';
 import { planSearch, type BudgetIssue, type SearchBudget, type SearchOutcome, type SearchPlan } from '../../core/search/index.ts';
 import { prepareSearch, type PreparedSearch, type SearchSource } from '../../core/search/request-problem.ts';
 import { searchRankBy, searchReport } from '../../core/search/report.ts';
-import type { RankByChoice } from '../../core/policy.ts';
+import type { RankByChoice } from '../../core/scoring/policy.ts';
 import type { SearchCriterion } from '../../core/search/types.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 import { serviceVersion } from '../../version.ts';

@@ -1,7 +1,7 @@
 import t from 'tap';
 import { averageModels } from '../../../src/core/averaging/index.ts';
 import { compareModels } from '../../../src/core/compare.ts';
-import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 
 const close = (a: number | null, b: number, tol = 1e-12) => a !== null && Math.abs(a - b) <= tol * Math.max(1, Math.abs(b));
 

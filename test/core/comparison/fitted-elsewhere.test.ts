@@ -7,7 +7,7 @@ import t from 'tap';
 import normalLogpdf from '@stdlib/stats-base-dists-normal-logpdf';
 import lognormalLogpdf from '@stdlib/stats-base-dists-lognormal-logpdf';
 import { compareModels, type CandidateInput, type ComparisonInput } from '../../../src/core/compare.ts';
-import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 
 
 // A small data set for identities (not a reference number): a straight line

@@ -5,7 +5,7 @@ import t from 'tap';
 import fc from 'fast-check';
 import { compareModels, type ComparisonInput } from '../../../src/core/compare.ts';
 import type { ComparisonOutcome } from '../../../src/core/compare.ts';
-import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 
 
 /**

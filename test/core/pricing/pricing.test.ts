@@ -9,7 +9,7 @@ import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
 import { buildDesign, commonRows } from '../../../src/core/design/index.ts';
 import { compareModels, type CandidateInput } from '../../../src/core/compare.ts';
-import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 import { CANDIDATE_PRICES, priceComparison, priceIssues, priceSearch, type PriceCaps } from '../../../src/core/pricing/index.ts';
 import { shapeOfColumns } from '../../../src/core/pricing/data-shape.ts';
 import { designWidth } from '../../../src/core/pricing/design-width.ts';

@@ -1,7 +1,7 @@
 // The reference for branch and bound on pools too large to refit every
 // subset by QR: every subset enumerated, and for each model size the `keep`
 // subsets of smallest residual sum of squares. Every criterion of the
-// service is n ln RSS + a penalty in k (src/core/criteria.ts), so within one
+// service is n ln RSS + a penalty in k (src/core/scoring/criteria.ts), so within one
 // size it orders subsets as RSS does, and the best `keep` by any criterion
 // are among these lists: one pass answers all four criteria (the per-size
 // view of Furnival & Wilson, 1974). Written apart from src/core/search's

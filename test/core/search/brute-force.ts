@@ -5,9 +5,9 @@
 
 import { buildDesign, commonRows, columnsUsedBy, responseValues } from '../../../src/core/design/index.ts';
 import { fitLeastSquares } from '../../../src/core/fit/index.ts';
-import { computeCriteria } from '../../../src/core/criteria.ts';
+import { computeCriteria } from '../../../src/core/scoring/criteria.ts';
 import { gaussianLogLikelihood } from '../../../src/core/likelihood.ts';
-import { akaikeWeights } from '../../../src/core/ranking.ts';
+import { akaikeWeights } from '../../../src/core/scoring/ranking.ts';
 import { hierarchyRules, noHierarchy, subsetProblemFromDesign, type SearchCriterion, type SubsetProblem } from '../../../src/core/search/index.ts';
 import type { Columns, Term } from '../../../src/core/types.ts';
 

@@ -12,8 +12,8 @@
 import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
 import { compareModels } from '../../../src/core/compare.ts';
-import { akaikeWeights } from '../../../src/core/ranking.ts';
-import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { akaikeWeights } from '../../../src/core/scoring/ranking.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 import { prepareSearch, type SearchRequestInput } from '../../../src/core/search/request-problem.ts';
 import { searchRankBy, searchReport, type SearchReport } from '../../../src/core/search/report.ts';
 import { searchSubsets, type SearchOutcome } from '../../../src/core/search/index.ts';

@@ -14,7 +14,7 @@ import { DEFAULT_SEARCH_BUDGET, searchSubsets, type SearchCriterion } from '../.
 import { runInThread, runSearch, type SearchProgress } from '../../../src/search/workers/index.ts';
 import { ComputePool } from '../../../src/compute/index.ts';
 import { JOB_WORKER_MODULE } from '../../../src/http/jobs/index.ts';
-import { DEFAULT_POLICY } from '../../../src/core/policy.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 import { prepareSearch } from '../../../src/core/search/request-problem.ts';
 import { searchRankBy, searchReport } from '../../../src/core/search/report.ts';
 import { problemFor } from './brute-force.ts';

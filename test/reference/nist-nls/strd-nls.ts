@@ -8,7 +8,7 @@ import {
   expressionColumnValues, fitNonlinear, prepareNonlinearCandidate,
   type NonlinearCandidate, type NonlinearFit,
 } from '../../../src/core/models/nonlinear/index.ts';
-import { transformResponse } from '../../../src/core/comparison/response-transform.ts';
+import { transformResponse } from '../../../src/core/models/response-transform.ts';
 import type { Issue } from '../../../src/core/issues.ts';
 
 const here = dirname(fileURLToPath(import.meta.url));

@@ -16,13 +16,13 @@
 // design/column-identity.ts), so differently coded dummies are never pooled.
 import { averageModels, averagePredictions, type AveragedPrediction, type ModelAverage } from '../../averaging/index.ts';
 import { columnQualifier, keyReferences } from '../../design/index.ts';
-import type { CriterionName } from '../../criteria.ts';
+import type { CriterionName } from '../../scoring/criteria.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
-import type { BandedEntry } from '../rankings.ts';
-import type { ModelResult } from '../fitted-model.ts';
-import type { ResponseTransformSpec } from '../response-transform.ts';
-import type { Caution } from '../cautions.ts';
-import { transformLabel } from '../response-transform.ts';
+import type { BandedEntry } from '../../scoring/rankings.ts';
+import type { ModelResult } from '../../models/model-result.ts';
+import type { ResponseTransformSpec } from '../../models/response-transform.ts';
+import type { Caution } from '../../scoring/cautions.ts';
+import { transformLabel } from '../../models/response-transform.ts';
 
 export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
   criterion: CriterionName;

@@ -3,18 +3,15 @@
 // practitioner needs once the criteria have spoken.
 import { nestedTests as findNestedTests, type NestedTest } from '../../inference/nested.ts';
 import { rankByLeaveOneOut } from '../../loo.ts';
-import { modelGeometry } from '../../inference/model-geometry.ts';
 import { issue, type Issue } from '../../issues.ts';
-import type { CriterionName } from '../../criteria.ts';
-import type { RankingEntry } from '../../ranking.ts';
+import type { CriterionName } from '../../scoring/criteria.ts';
+import type { RankingEntry } from '../../scoring/ranking.ts';
 import type { Columns } from '../../types.ts';
-import type { FittedModel, ModelResult } from '../fitted-model.ts';
-import type { CandidateInput } from '../compare.ts';
-import type { BandedEntry } from '../rankings.ts';
-import { modelChecks } from './model-checks.ts';
-import { checkPredictionRows, predictionDesign, type PredictionColumns } from './prediction-rows.ts';
+import type { ModelResult } from '../../models/model-result.ts';
+import type { BandedEntry } from '../../scoring/rankings.ts';
+import { checkPredictionRows, type PredictionColumns } from './prediction-rows.ts';
+import type { ScoredModel } from '../../models/scored-model.ts';
 import { averagedModels, type AveragedResult } from './averaging.ts';
-import { modelPredictions } from './model-predictions.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 
 export interface ExtrasOptions {
@@ -39,8 +36,8 @@ export interface ExtrasInput {
   /** Identity of the response, its weights and rows, shared by every candidate. */
   sample: string;
   termColumns: readonly string[];
-  candidates: readonly CandidateInput[];
-  fitted: ReadonlyMap<number, FittedModel>;
+  /** Every model in candidate order; `models` are their reports. */
+  scored: readonly ScoredModel[];
   models: ModelResult[];
   rankings: Record<CriterionName, BandedEntry[]>;
   rankBy: CriterionName;
@@ -49,8 +46,7 @@ export interface ExtrasInput {
 
 /** Adds press, looRmse, diagnostics and predictions to the models in place; returns the comparison-wide extras. */
 export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[] } {
-  const { fitted, models, options } = input;
-  const byName = new Map(models.map((m) => [m.name, m]));
+  const { scored, models, options } = input;
   const predictions = new Map<string, ScaledPrediction[]>();
   let predictCount: number | null = null;
   let newWeights: readonly number[] = [];
@@ -62,25 +58,24 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
     newWeights = checked.newWeights;
   }
   const issues: Issue[] = [];
-  for (const [index, model] of fitted) {
-    const result = byName.get(model.result.name)!;
-    // One factorisation of the design serves the checks and the predictions.
-    const geometry = modelGeometry(model.fit, model.design, input.weights);
-    const checks = modelChecks(model, input.rows!, input.weights, geometry);
+  for (const model of scored) {
+    const { checks: checkRows, predict } = model.capabilities;
+    if (!checkRows) continue;
+    const result = model.report;
+    const checks = checkRows(input.rows!);
     result.press = checks.press;
     result.looRmse = checks.looRmse;
     result.diagnostics = checks.diagnostics;
     result.cautions.push(...checks.cautions);
     if (checks.looNote) result.cautions.push({ code: 'press_undefined', message: checks.looNote });
-    if (predictCount !== null) {
-      const c = input.candidates[index];
-      if (c.form !== 'fit') continue;
-      const built = predictionDesign(input.columns!, input.rows!, options.predict!.columns, predictCount, c.terms, c.intercept, index);
-      if ('issues' in built) {
-        issues.push(...built.issues);
+    if (predictCount !== null && predict) {
+      const p = predict({
+        columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,
+      });
+      if ('issues' in p) {
+        issues.push(...p.issues);
         continue;
       }
-      const p = modelPredictions(model, built.design, input.weights, newWeights, input.intervalLevel, geometry);
       result.predictions = p.results;
       result.predictionScale = p.scale;
       predictions.set(result.name, p.scaled);
@@ -90,10 +85,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   if (issues.length > 0) return { issues };
 
   const nested = findNestedTests(
-    [...fitted].map(([index, m]) => {
-      const c = input.candidates[index];
-      return { name: m.result.name, keys: m.design.keys ?? null, fit: m.fit, sample: `${input.sample}|${JSON.stringify(c.response ?? null)}` };
-    }),
+    scored.flatMap((m) => (m.capabilities.nested ? [m.capabilities.nested(input.sample)] : [])),
     options.tests ?? [],
   );
   if (nested.issues.length > 0) {
@@ -108,15 +100,15 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   const ranking = input.rankings[input.rankBy];
   const averaged = ranking.some((e) => e.weight !== null)
     ? averagedModels({
-      models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: designKeys(fitted), intervalLevel: input.intervalLevel,
+      models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: columnKeys(scored), intervalLevel: input.intervalLevel,
     })
     : null;
   return { nestedTests: nested.tests, averaged, loo };
 }
 
-/** Each fitted model's design column keys, by model name. */
-function designKeys(fitted: ReadonlyMap<number, FittedModel>): Map<string, readonly string[]> {
+/** Each model's coefficient column keys, by model name. */
+function columnKeys(scored: readonly ScoredModel[]): Map<string, readonly string[]> {
   const out = new Map<string, readonly string[]>();
-  for (const m of fitted.values()) if (m.design.keys) out.set(m.result.name, m.design.keys);
+  for (const m of scored) if (m.capabilities.columnKeys) out.set(m.name, m.capabilities.columnKeys);
   return out;
 }

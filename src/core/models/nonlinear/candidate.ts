@@ -4,7 +4,7 @@
 // into arrays in parameter order. Every problem is an issue naming its path
 // and, for the expression, the offset in it.
 import { issue, type Issue, type IssuePath } from '../../issues.ts';
-import type { ResponseTransformSpec } from '../../comparison/response-transform.ts';
+import type { ResponseTransformSpec } from '../response-transform.ts';
 import { namesUsed, parseExpression, type ParseFailure } from './expression/parse.ts';
 import { FUNCTIONS, NAME_PATTERN, RESERVED_NAMES } from './expression/syntax.ts';
 import { compileTape, type Tape } from './expression/tape.ts';

@@ -3,7 +3,7 @@
 // convergence) and what the statistics after the ranking ask for
 // (fitted values, residuals, the weighted Jacobian for leverages and
 // predictions). Plain data: it crosses a worker boundary by structured clone.
-import type { ResponseTransformSpec } from '../../comparison/response-transform.ts';
+import type { ResponseTransformSpec } from '../response-transform.ts';
 import type { CoefficientRow } from './coefficient-table.ts';
 import type { LmStop } from './lm/levenberg-marquardt.ts';
 import type { JacobianFactor } from './covariance.ts';

@@ -5,7 +5,7 @@ import {
   expressionColumnValues, fitNonlinear, prepareNonlinearCandidate,
   type NonlinearCandidate, type NonlinearCandidateSpec, type NonlinearFit, type NonlinearFitOptions,
 } from '../../../../src/core/models/nonlinear/index.ts';
-import { transformResponse } from '../../../../src/core/comparison/response-transform.ts';
+import { transformResponse } from '../../../../src/core/models/response-transform.ts';
 import { sumOfLogs } from '../../../../src/core/likelihood.ts';
 import type { Issue } from '../../../../src/core/issues.ts';
 

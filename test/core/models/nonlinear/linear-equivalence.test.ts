@@ -7,8 +7,8 @@
 import t, { type Test } from 'tap';
 import { fitPlain, fitted } from './fit-helper.ts';
 import { buildDesign, responseValues, weightValues } from '../../../../src/core/design/index.ts';
-import { fitCandidate } from '../../../../src/core/comparison/fitted-model.ts';
-import { transformResponse } from '../../../../src/core/comparison/response-transform.ts';
+import { fitCandidate } from '../../../../src/core/models/linear/fitted-model.ts';
+import { transformResponse } from '../../../../src/core/models/response-transform.ts';
 import { leverages as linearLeverages } from '../../../../src/core/loo.ts';
 import { nonlinearLeverages, nonlinearLeaveOneOut } from '../../../../src/core/models/nonlinear/index.ts';
 import { leaveOneOutError } from '../../../../src/core/loo.ts';

@@ -1,6 +1,6 @@
 // Pieces of a model's result shared by models fitted here and elsewhere.
-import type { CriteriaValues } from '../criteria.ts';
-import type { Caution } from './cautions.ts';
+import type { CriteriaValues } from '../scoring/criteria.ts';
+import type { Caution } from '../scoring/cautions.ts';
 import { transformLabel, type ResponseTransformSpec } from './response-transform.ts';
 
 export const finiteOrNull = (x: number | null | undefined): number | null =>

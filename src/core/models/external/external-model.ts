@@ -2,14 +2,15 @@
 // RSS become the full Gaussian log-likelihood computed here; a stated
 // log-likelihood is taken as it is (the caller vouches for its constants). A
 // stated response transform adds the Jacobian from the data's response column.
-import { gaussianLogLikelihood, residualSumOfSquares } from '../likelihood.ts';
-import { computeCriteria } from '../criteria.ts';
-import { centredTotalSumOfSquares } from '../sums-of-squares.ts';
-import { issue, type Issue, type IssuePath } from '../issues.ts';
-import type { ModelResult } from './fitted-model.ts';
-import { transformResponse, type ResponseTransformSpec } from './response-transform.ts';
-import type { Caution } from './cautions.ts';
-import { criteriaFields, transformCaution } from './model-fields.ts';
+import { gaussianLogLikelihood, residualSumOfSquares } from '../../likelihood.ts';
+import { computeCriteria } from '../../scoring/criteria.ts';
+import { centredTotalSumOfSquares } from '../../sums-of-squares.ts';
+import { issue, type Issue, type IssuePath } from '../../issues.ts';
+import type { ModelResult } from '../model-result.ts';
+import type { ScoringContext } from '../scoring-context.ts';
+import { transformResponse, type ResponseTransformSpec } from '../response-transform.ts';
+import type { Caution } from '../../scoring/cautions.ts';
+import { criteriaFields, transformCaution } from '../model-fields.ts';
 
 export type ExternalCandidateInput =
   | { form: 'residuals'; name: string; residuals: (number | null)[]; parameters: number; response?: ResponseTransformSpec }
@@ -18,19 +19,6 @@ export type ExternalCandidateInput =
       form: 'logLikelihood'; name: string; logLikelihood: number; parameters: number; observations: number;
       estimation: 'ml' | 'reml'; fixedEffects?: string[]; response?: ResponseTransformSpec;
     };
-
-export interface ScoringContext {
-  /** Rows the comparison uses. */
-  n: number;
-  /** Data positions of the used rows and the number of data rows; null without data. */
-  rows: readonly number[] | null;
-  dataRows: number | null;
-  /** The response on the used rows; null without data. */
-  y: Float64Array | null;
-  weights: { values: Float64Array; sumLogWeights: number } | null;
-  /** Where n comes from, in words that complete "but … n" (e.g. 'the rows this comparison uses number'). */
-  nSource: string;
-}
 
 /** Rows named in one issue; beyond this, counted. */
 const LISTED_ROWS = 20;

@@ -1,24 +1,26 @@
 // The candidates fitted here: each design on the common rows, and each fit on
 // the response's scale the candidate asks for. What this may cost was settled
 // before any of it was built (src/core/pricing), so nothing here counts work.
-import { buildDesign } from '../design/index.ts';
-import { issue, type Issue } from '../issues.ts';
-import type { Columns, DesignMatrix } from '../types.ts';
-import { fitCandidate, type FittedModel } from './fitted-model.ts';
-import type { ScoringContext } from './external-model.ts';
-import { transformResponse, type TransformedResponse } from './response-transform.ts';
-import type { ComparisonInput } from './compare.ts';
+import { buildDesign } from '../../design/index.ts';
+import { issue, type Issue } from '../../issues.ts';
+import type { Columns, DesignMatrix } from '../../types.ts';
+import { fitCandidate, type FittedCandidateInput, type FittedModel } from './fitted-model.ts';
+import type { ScoringContext } from '../scoring-context.ts';
+import { transformResponse, type TransformedResponse } from '../response-transform.ts';
+
+/** Candidates by their place in the request. */
+export type IndexedCandidates = ReadonlyMap<number, FittedCandidateInput>;
 
 export function fitAll(
-  input: ComparisonInput,
+  candidates: IndexedCandidates,
   columns: Columns,
   ctx: ScoringContext,
+  intervalLevel: number | undefined,
   issues: Issue[],
 ): Map<number, FittedModel> {
   const rows = ctx.rows!;
   const designs = new Map<number, DesignMatrix>();
-  input.candidates.forEach((c, i) => {
-    if (c.form !== 'fit') return;
+  candidates.forEach((c, i) => {
     const built = buildDesign(columns, c.terms, c.intercept, rows, ['candidates', i]);
     if ('issues' in built) {
       issues.push(...built.issues);
@@ -34,8 +36,7 @@ export function fitAll(
 
   const scales = new Map<string, TransformedResponse>();
   for (const [i, design] of designs) {
-    const c = input.candidates[i];
-    if (c.form !== 'fit') continue;
+    const c = candidates.get(i)!;
     let response: TransformedResponse = { values: ctx.y!, jacobian: 0 };
     if (c.response) {
       const key = JSON.stringify(c.response);
@@ -47,7 +48,7 @@ export function fitAll(
       scales.set(key, cached);
       response = cached;
     }
-    fitted.set(i, fitCandidate(c, design, response, ctx.weights, input.intervalLevel));
+    fitted.set(i, fitCandidate(c, design, response, ctx.weights, intervalLevel));
   }
   return fitted;
 }

@@ -1,6 +1,6 @@
 // Cautions that concern the whole comparison rather than one model.
-import type { CriterionName } from '../criteria.ts';
-import type { Policy } from '../policy.ts';
+import type { CriterionName } from './criteria.ts';
+import type { Policy } from './policy.ts';
 
 export interface Caution {
   code: string;

@@ -5,16 +5,8 @@
 import { leaveOneOutError } from '../../loo.ts';
 import { modelGeometry, type ModelGeometry } from '../../inference/model-geometry.ts';
 import { diagnoseFit, type ModelDiagnostics } from '../../diagnostics/index.ts';
-import type { FittedModel } from '../fitted-model.ts';
-import type { Caution } from '../cautions.ts';
-
-export interface ModelChecks {
-  press: number | null;
-  looRmse: number | null;
-  looNote: string | null;
-  diagnostics: ModelDiagnostics;
-  cautions: Caution[];
-}
+import type { FittedModel } from './fitted-model.ts';
+import type { ModelChecks } from '../scored-model.ts';
 
 export function modelChecks(
   model: FittedModel,

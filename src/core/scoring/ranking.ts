@@ -18,7 +18,7 @@
 //   among tied models is arbitrary, so the set does not split them). The
 //   best model is always in the set.
 
-import { compareCodePoints } from './design/code-point-order.ts';
+import { compareCodePoints } from '../design/code-point-order.ts';
 
 export interface RankingEntry {
   rank: number | null;

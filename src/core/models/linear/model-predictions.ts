@@ -13,21 +13,9 @@ import {
   type ScaledPrediction,
 } from '../../inference/prediction-intervals.ts';
 import type { DesignMatrix } from '../../types.ts';
-import type { Caution } from '../cautions.ts';
-import type { FittedModel } from '../fitted-model.ts';
-
-/** How a model's predictions relate to the response as sent. */
-export interface PredictionScale {
-  backTransform: 'none' | 'median';
-  description: string;
-}
-
-export interface ModelPredictions {
-  results: PredictionWithIntervals[];
-  scaled: ScaledPrediction[];
-  scale: PredictionScale;
-  cautions: Caution[];
-}
+import type { Caution } from '../../scoring/cautions.ts';
+import type { FittedModel } from './fitted-model.ts';
+import type { ModelPredictions } from '../scored-model.ts';
 
 export function modelPredictions(
   model: FittedModel,

@@ -1,0 +1,93 @@
+// Every kind of candidate, in one table keyed by the candidate's form: how its
+// candidates are scored into ScoredModels on the comparison's sample, and
+// what each costs before anything is allocated. Adding a kind is one entry
+// here, its folder under models/, its request schema and its tests (see
+// DEVELOPERS.md, "Adding a kind of model").
+import type { Issue } from '../issues.ts';
+import type { Columns } from '../types.ts';
+import { scoredElsewhere, type CandidateContext, type CandidateCost } from '../pricing/candidate-cost.ts';
+import { scoreExternalCandidate, type ExternalCandidateInput } from './external/external-model.ts';
+import { fitAll } from './linear/fit-all.ts';
+import type { FittedCandidateInput } from './linear/fitted-model.ts';
+import { leastSquaresCapabilities } from './linear/capabilities.ts';
+import { priceLeastSquaresCandidate } from './linear/price.ts';
+import type { ScoringContext } from './scoring-context.ts';
+import { scoredModel, type ScoredModel } from './scored-model.ts';
+
+export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
+export type CandidateForm = CandidateInput['form'];
+export type OfForm<F extends CandidateForm> = Extract<CandidateInput, { form: F }>;
+
+/** What every kind scores on: the comparison's data (null when it sends none) and sample. */
+export interface ScoringSample {
+  columns: Columns | null;
+  ctx: ScoringContext;
+  intervalLevel: number | undefined;
+}
+
+export interface CandidateKind<C extends CandidateInput> {
+  /**
+   * Scores this kind's candidates, keyed by their place in the request; every
+   * issue goes to `issues` (shared by the whole comparison, so a kind may
+   * stop early once it holds any). Models missing from the answer had issues.
+   */
+  score(candidates: ReadonlyMap<number, C>, sample: ScoringSample, issues: Issue[]): Map<number, ScoredModel>;
+  /** The candidate's price from the request's shape alone. */
+  price(candidate: C, ctx: CandidateContext): CandidateCost;
+}
+
+/** Least squares fitted here on the comparison's rows. */
+const linear: CandidateKind<OfForm<'fit'>> = {
+  score(candidates, { columns, ctx, intervalLevel }, issues) {
+    const scored = new Map<number, ScoredModel>();
+    if (!columns) return scored;
+    for (const [i, f] of fitAll(candidates, columns, ctx, intervalLevel, issues)) {
+      scored.set(i, scoredModel(f.result, 'density', leastSquaresCapabilities(f, candidates.get(i)!, i, ctx.weights?.values)));
+    }
+    return scored;
+  },
+  price: priceLeastSquaresCandidate,
+};
+
+/** Fitted elsewhere, scored from residuals, an RSS or a stated log-likelihood. */
+const external: CandidateKind<ExternalCandidateInput> = {
+  score(candidates, { ctx }, issues) {
+    const scored = new Map<number, ScoredModel>();
+    for (const [i, c] of candidates) {
+      const s = scoreExternalCandidate(c, ['candidates', i], ctx);
+      if ('issues' in s) issues.push(...s.issues);
+      else scored.set(i, scoredModel(s.result, 'density'));
+    }
+    return scored;
+  },
+  // A pass over its residuals at most.
+  price: (c) => scoredElsewhere(c.form === 'residuals' ? c.residuals.length : 1),
+};
+
+/** Each form's kind; the kinds score in the order of first appearance here. */
+export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> } = {
+  fit: linear,
+  residuals: external,
+  rss: external,
+  logLikelihood: external,
+};
+
+/**
+ * Every candidate scored by its kind, in the request's order. Each kind sees
+ * its own candidates together (least squares builds every design before any
+ * fit, so one answer names every bad term).
+ */
+export function scoreCandidates(candidates: readonly CandidateInput[], sample: ScoringSample, issues: Issue[]): ScoredModel[] {
+  const kinds = new Map<CandidateKind<CandidateInput>, Map<number, CandidateInput>>();
+  for (const form of Object.keys(CANDIDATE_KINDS) as CandidateForm[]) {
+    const kind = CANDIDATE_KINDS[form] as CandidateKind<CandidateInput>;
+    if (!kinds.has(kind)) kinds.set(kind, new Map());
+  }
+  candidates.forEach((c, i) => kinds.get(CANDIDATE_KINDS[c.form] as CandidateKind<CandidateInput>)!.set(i, c));
+  const scored = new Map<number, ScoredModel>();
+  for (const [kind, own] of kinds) {
+    if (own.size === 0) continue;
+    for (const [i, s] of kind.score(own, sample, issues)) scored.set(i, s);
+  }
+  return candidates.flatMap((_, i) => (scored.has(i) ? [scored.get(i)!] : []));
+}
