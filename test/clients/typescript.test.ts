@@ -1,0 +1,37 @@
+// The TypeScript client (clients/typescript): its types are what the generator makes of today's
+// openapi/openapi.json, it builds, and its own tests pass against a live service.
+import { execFile } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { promisify } from 'node:util';
+import t from 'tap';
+import { startLiveService } from './live-service.ts';
+
+const run = promisify(execFile);
+const client = fileURLToPath(new URL('../../clients/typescript/', import.meta.url));
+const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
+
+t.before(async () => {
+  // The client has its own dependencies (the type generator, TypeScript); a fresh clone has none yet.
+  if (!existsSync(join(client, 'node_modules', '.bin', 'openapi-typescript'))) {
+    await run(npm, ['ci', '--no-audit', '--no-fund'], { cwd: client });
+  }
+});
+
+t.test('the generated types match openapi/openapi.json', async (t) => {
+  const check = await run(npm, ['run', '--silent', 'types:check'], { cwd: client }).catch((error: { stdout?: string; stderr?: string }) => error);
+  t.notOk('code' in check, `${check.stderr ?? ''}`.trim() || 'the types check failed');
+  t.match(check.stdout ?? '', /matches openapi\/openapi\.json/);
+});
+
+t.test("the client's own tests pass against a live service", async (t) => {
+  const url = await startLiveService(t);
+  const result = await run(npm, ['test'], { cwd: client, env: { ...process.env, PARSIMETRY_URL: url }, maxBuffer: 16 * 1024 * 1024 })
+    .catch((error: { stdout?: string; stderr?: string; code?: number }) => error);
+  const out = `${result.stdout ?? ''}${result.stderr ?? ''}`;
+  t.notOk('code' in result && result.code, `npm test in clients/typescript failed:\n${out}`);
+  t.match(out, /# fail 0/);
+  const passed = /# pass (\d+)/.exec(out);
+  t.ok(passed && Number(passed[1]) >= 13, `every client test ran (${passed?.[1]} passed)`);
+});
