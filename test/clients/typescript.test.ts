@@ -9,7 +9,8 @@ import t from 'tap';
 import { startLiveService } from './live-service.ts';
 
 const run = promisify(execFile);
-const client = fileURLToPath(new URL('../../clients/typescript/', import.meta.url));
+const repositoryRoot = fileURLToPath(new URL('../../', import.meta.url));
+const client = join(repositoryRoot, 'clients', 'typescript');
 const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
 
 t.before(async () => {
@@ -35,5 +36,11 @@ t.test("the client's own tests pass against a live service", async (t) => {
   t.notOk(failed, failed ? `npm test in clients/typescript failed:\n${out}` : "the client's tests passed");
   t.match(out, /# fail 0/);
   const passed = /# pass (\d+)/.exec(out);
-  t.ok(passed && Number(passed[1]) >= 13, `every client test ran (${passed?.[1]} passed)`);
+  t.ok(passed && Number(passed[1]) >= 14, `every client test ran (${passed?.[1]} passed)`);
+
+  // The README's TypeScript example, from the repository root as documented (tsx resolves
+  // @parsimetry/client through tsconfig.json's paths).
+  const example = await run(process.execPath, ['--import', 'tsx', 'examples/fitted-elsewhere.ts'], { cwd: repositoryRoot, env: { ...process.env, PARSIMETRY_URL: url } });
+  t.match(example.stdout, /line-from-typescript +delta=/, 'the example ranks the line fitted in TypeScript');
+  t.match(example.stdout, /record [0-9a-f-]{36} intact/);
 });

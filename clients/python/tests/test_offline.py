@@ -62,6 +62,13 @@ class WireTest(unittest.TestCase):
         self.assertIn("bad gateway", caught.exception.detail)
 
 
+class BaseUrlTest(unittest.TestCase):
+    def test_a_base_url_that_is_not_absolute_http_is_refused_by_name(self):
+        for url in ("", "/v1", "ftp://x", "http://"):
+            with self.assertRaisesRegex(ValueError, r"^base_url: an absolute http\(s\) URL"):
+                Client(url)
+
+
 class EventsTest(unittest.TestCase):
     def test_line_endings_comments_and_several_data_lines(self):
         text = ': a comment\r\nevent: one\r\ndata: {"a":\r\ndata: 1}\r\n\r\nevent: two\rdata: "é"\r\rdata: plain\n\n'

@@ -63,6 +63,9 @@ export interface ParsimetryClient {
 
 export function createClient(options: ClientOptions): ParsimetryClient {
   const doFetch = options.fetch ?? globalThis.fetch.bind(globalThis);
+  if (!/^https?:\/\/[^/]/i.test(options.baseUrl ?? '')) {
+    throw new TypeError(`baseUrl: an absolute http(s) URL such as http://127.0.0.1:8080, not ${JSON.stringify(options.baseUrl)}`);
+  }
   const base = options.baseUrl.replace(/\/+$/, '');
 
   const url = (path: string, query: Query = {}): string => {

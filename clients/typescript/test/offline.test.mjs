@@ -73,3 +73,9 @@ test('the main entry imports nothing Node-only (it must run in browsers)', () =>
     assert.doesNotMatch(source, /\brequire\(|\bprocess\.|\bBuffer\b/, file);
   }
 });
+
+test('a base URL that is not absolute http(s) is refused at once, by name', () => {
+  for (const baseUrl of ['', '/v1', 'ftp://x', 'http://']) {
+    assert.throws(() => createClient({ baseUrl }), /^TypeError: baseUrl: an absolute http\(s\) URL/);
+  }
+});

@@ -23,6 +23,9 @@ class Client:
     """
 
     def __init__(self, base_url: str, api_key: Optional[str] = None, timeout: float = 120.0) -> None:
+        parts = urllib.parse.urlsplit(base_url if isinstance(base_url, str) else "")
+        if parts.scheme.lower() not in ("http", "https") or not parts.netloc:
+            raise ValueError(f"base_url: an absolute http(s) URL such as http://127.0.0.1:8080, not {base_url!r}")
         self.base_url = base_url.rstrip("/")
         self.api_key = api_key
         self.timeout = timeout
