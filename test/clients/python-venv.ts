@@ -1,8 +1,9 @@
 // A virtual environment of Debian's Python (/usr/bin/python3) with the Python client installed:
-// `python3 -m venv` (Debian's python3-venv; .ci/run installs it) with the system's site packages,
-// so Debian's python3-pandas is used where it is installed, and `pip install ./clients/python`
-// built from the standard library's setuptools, without a network. Missing venv tooling fails in
-// CI (CI=true) and skips loudly elsewhere, as the PostgreSQL tests do.
+// `python3 -m venv` (Debian's python3-venv) with the system's site packages, so Debian's
+// python3-wheel builds the package without a network (`pip install --no-build-isolation`; the venv
+// brings setuptools) and Debian's python3-pandas is used where it is installed. .ci/run installs
+// python3-venv and python3-wheel; missing, they fail the test in CI (CI=true) and skip it loudly
+// elsewhere, as the PostgreSQL tests do.
 import { execFile } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -21,8 +22,9 @@ export async function clientVenv(t: Test): Promise<string | null> {
   t.teardown(() => rmSync(dir, { recursive: true, force: true }));
   try {
     await run(PYTHON, ['-m', 'venv', '--system-site-packages', join(dir, 'venv')]);
+    await run(join(dir, 'venv', 'bin', 'python'), ['-c', 'import setuptools, wheel']);
   } catch (error) {
-    const message = `\`${PYTHON} -m venv\` is unavailable (install Debian's python3-venv): ${(error as Error).message.split('\n')[0]}`;
+    const message = `a venv of ${PYTHON} with setuptools and wheel is unavailable (install Debian's python3-venv and python3-wheel): ${(error as Error).message.split('\n')[0]}`;
     if (process.env.CI === 'true') t.fail(message);
     else {
       console.error(`\n*** SKIPPING the Python client's tests: ${message} ***\n`);
