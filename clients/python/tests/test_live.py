@@ -122,6 +122,10 @@ class LiveTest(unittest.TestCase):
         self.assertEqual(kind, "result")
         self.assertEqual(last["evaluated"], plain["evaluated"])
         self.assertEqual([m["aicc"] for m in last["models"]], [m["aicc"] for m in plain["models"]])
+        # Closing the generator early closes the stream (the service stops the search).
+        stream = self.client.search_stream(search_request())
+        self.assertEqual(next(stream)[0], "progress")
+        stream.close()
         with self.assertRaises(ParsimetryError) as caught:
             list(self.client.search_stream({**search_request(), "response": "missing"}))
         self.assertEqual(caught.exception.status, 422)

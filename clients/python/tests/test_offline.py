@@ -6,7 +6,7 @@ import threading
 import unittest
 from http.server import BaseHTTPRequestHandler, HTTPServer
 
-from parsimetry_client import Client, ParsimetryError
+from parsimetry_client import Client, ParsimetryError, UnreadableRecordsError
 from parsimetry_client.columns import prepared
 from parsimetry_client.events import server_events
 
@@ -60,6 +60,18 @@ class WireTest(unittest.TestCase):
             Client(self.url).verify()
         self.assertEqual(caught.exception.status, 502)
         self.assertIn("bad gateway", caught.exception.detail)
+
+    def test_list_raises_on_damaged_rows_unless_the_caller_takes_them(self):
+        Recorder.answer = (200, "application/json", json.dumps({
+            "records": [{"id": "a", "seq": 7}], "unreadable": [{"seq": 6, "id": None}], "nextCursor": None}).encode())
+        seen = []
+        with self.assertRaisesRegex(UnreadableRecordsError, "chain positions 6"):
+            for record in Client(self.url).list():
+                seen.append(record["id"])
+        self.assertEqual(seen, ["a"], "the readable records of the page come first")
+        taken = []
+        self.assertEqual([r["id"] for r in Client(self.url).list(on_unreadable=taken.extend)], ["a"])
+        self.assertEqual(taken, [{"seq": 6, "id": None}])
 
 
 class BaseUrlTest(unittest.TestCase):

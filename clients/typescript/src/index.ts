@@ -1,13 +1,13 @@
 // The parsimetry client: one method per endpoint, typed from the service's OpenAPI document.
 // Only what browsers and Node 20+ share (fetch, URL, web streams): no Node-only imports here.
-import { refusal, streamedProblem, ParsimetryError } from './problem.js';
+import { refusal, streamedProblem, ParsimetryError, UnreadableRecordsError } from './problem.js';
 import { serverEvents } from './event-stream.js';
 import type {
   ComparisonListItem, ComparisonList, ComparisonRequest, ComparisonResult, ListFilter, PictureOptions,
   ReplayReport, SearchEvent, SearchRequest, SearchResult, StoredComparison, SummaryUploadResult, VerifyReport,
 } from './types.js';
 
-export { ParsimetryError } from './problem.js';
+export { ParsimetryError, UnreadableRecordsError } from './problem.js';
 export type * from './types.js';
 export type { paths, components } from './openapi.js';
 
@@ -45,8 +45,12 @@ export interface ParsimetryClient {
   searchStream(request: SearchRequest, options?: StreamOptions): AsyncGenerator<SearchEvent>;
   /** GET /v1/comparisons/{id}: the stored record with its integrity check. */
   comparison(id: string): Promise<StoredComparison>;
-  /** GET /v1/comparisons, newest first, following the cursor page by page. */
-  list(filter?: ListFilter): AsyncGenerator<ComparisonListItem>;
+  /**
+   * GET /v1/comparisons, newest first, following the cursor page by page. Rows that no longer read
+   * back as records (damaged in the database) are handed to `onUnreadable`; without it they raise
+   * an UnreadableRecordsError, so a damaged audit trail is never skipped in silence.
+   */
+  list(filter?: ListFilter, options?: { onUnreadable?: (rows: ComparisonList['unreadable']) => void }): AsyncGenerator<ComparisonListItem>;
   /** One page of GET /v1/comparisons (for callers who keep the cursor themselves). */
   listPage(filter?: ListFilter & { cursor?: string }): Promise<ComparisonList>;
   /** GET /v1/audit/verify: re-hash the whole audit chain. */
@@ -128,11 +132,15 @@ export function createClient(options: ClientOptions): ParsimetryClient {
 
     comparison: (id) => json('GET', record(id)),
 
-    async *list(filter = {}) {
+    async *list(filter = {}, listOptions = {}) {
       let cursor: string | undefined;
       do {
         const page = await listPage({ ...filter, cursor });
         yield* page.records;
+        if (page.unreadable.length > 0) {
+          if (!listOptions.onUnreadable) throw new UnreadableRecordsError(page.unreadable);
+          listOptions.onUnreadable(page.unreadable);
+        }
         cursor = page.nextCursor ?? undefined;
       } while (cursor !== undefined);
     },

@@ -1,7 +1,7 @@
 // A refusal from the service as an Error: the RFC 9457 problem details it sent (status, type,
 // title, detail, errors with JSON-pointer-like paths), or, when the answer was not problem+json
 // (a proxy's page, say), a problem made from the status and the first of the body.
-import type { Problem } from './types.js';
+import type { ComparisonList, Problem } from './types.js';
 
 export class ParsimetryError extends Error {
   readonly status: number;
@@ -48,4 +48,12 @@ export async function refusal(response: Response): Promise<ParsimetryError> {
 export function streamedProblem(data: unknown): ParsimetryError {
   if (isProblem(data)) return new ParsimetryError(withDetail(data));
   return new ParsimetryError({ type: 'about:blank', title: 'Malformed problem event', status: 502, detail: JSON.stringify(data).slice(0, 500) });
+}
+
+/** A listing page held rows that no longer read back as records: the audit store is damaged. */
+export class UnreadableRecordsError extends Error {
+  constructor(readonly rows: ComparisonList['unreadable']) {
+    super(`the listing holds ${rows.length} row(s) that no longer read back as records (chain positions ${rows.map((r) => r.seq).join(', ')}); run GET /v1/audit/verify`);
+    this.name = 'UnreadableRecordsError';
+  }
 }

@@ -118,6 +118,12 @@ test('search and searchStream give the same models; the stream reports progress 
   assert.equal(last.event, 'result');
   assert.equal(last.data.evaluated, plain.evaluated);
   assert.deepEqual(last.data.models.map((m) => m.aicc), plain.models.map((m) => m.aicc));
+  // Leaving the loop early closes the stream (the service stops the search); an abort rejects.
+  for await (const event of client.searchStream(searchRequest())) { assert.equal(event.event, 'progress'); break; }
+  const abort = new AbortController();
+  await assert.rejects(async () => {
+    for await (const _ of client.searchStream(searchRequest(), { signal: abort.signal })) abort.abort();
+  }, (error) => error.name === 'AbortError');
   // A search that cannot start is refused before any event.
   await assert.rejects(async () => {
     for await (const _ of client.searchStream({ ...searchRequest(), response: 'missing' })) { /* none */ }

@@ -3,7 +3,7 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync, readdirSync } from 'node:fs';
-import { createClient, ParsimetryError } from '../dist/index.js';
+import { createClient, ParsimetryError, UnreadableRecordsError } from '../dist/index.js';
 import { serverEvents } from '../dist/event-stream.js';
 
 function recordingFetch(answer) {
@@ -78,4 +78,16 @@ test('a base URL that is not absolute http(s) is refused at once, by name', () =
   for (const baseUrl of ['', '/v1', 'ftp://x', 'http://']) {
     assert.throws(() => createClient({ baseUrl }), /^TypeError: baseUrl: an absolute http\(s\) URL/);
   }
+});
+
+test('list raises on rows that no longer read back, unless the caller takes them', async () => {
+  const item = { id: 'a', createdAt: '2026-01-01T00:00:00Z', kind: 'comparison', caller: 'open', label: null, datasetFingerprint: null, best: null, seq: 7, hash: '0'.repeat(64) };
+  const { fetch } = recordingFetch(() => Response.json({ records: [item], unreadable: [{ seq: 6, id: null }], nextCursor: null }));
+  const client = createClient({ baseUrl: 'http://x', fetch });
+  const seen = [];
+  await assert.rejects(async () => { for await (const r of client.list()) seen.push(r.id); }, (error) => error instanceof UnreadableRecordsError && /6/.test(error.message));
+  assert.deepEqual(seen, ['a'], 'the readable records of the page come first');
+  const taken = [];
+  for await (const r of client.list({}, { onUnreadable: (rows) => taken.push(...rows) })) seen.push(r.id);
+  assert.deepEqual(taken, [{ seq: 6, id: null }]);
 });

@@ -5,10 +5,10 @@ import json
 import urllib.error
 import urllib.parse
 import urllib.request
-from typing import IO, Any, Dict, Iterable, Iterator, Mapping, Optional, Sequence, Tuple, Union
+from typing import IO, Any, Callable, Dict, Iterable, Iterator, List, Mapping, Optional, Sequence, Tuple, Union
 
 from .columns import prepared
-from .errors import ParsimetryError, problem_from_answer, problem_from_event
+from .errors import ParsimetryError, UnreadableRecordsError, problem_from_answer, problem_from_event
 from .events import server_events
 
 JSON = Dict[str, Any]
@@ -69,12 +69,21 @@ class Client:
         return self._json("GET", _record(id))
 
     def list(self, *, fingerprint: Optional[str] = None, caller: Optional[str] = None, label: Optional[str] = None,
-             from_: Optional[str] = None, to: Optional[str] = None, page_size: Optional[int] = None) -> Iterator[JSON]:
-        """GET /v1/comparisons: every matching record, newest first, following the cursor page by page."""
+             from_: Optional[str] = None, to: Optional[str] = None, page_size: Optional[int] = None,
+             on_unreadable: Optional[Callable[[List[JSON]], None]] = None) -> Iterator[JSON]:
+        """GET /v1/comparisons: every matching record, newest first, following the cursor page by page.
+
+        Rows that no longer read back as records (damaged in the database) go to ``on_unreadable``;
+        without it they raise UnreadableRecordsError, so a damaged audit trail is never skipped in silence.
+        """
         cursor: Optional[str] = None
         while True:
             page = self.list_page(fingerprint=fingerprint, caller=caller, label=label, from_=from_, to=to, page_size=page_size, cursor=cursor)
             yield from page["records"]
+            if page["unreadable"]:
+                if on_unreadable is None:
+                    raise UnreadableRecordsError(page["unreadable"])
+                on_unreadable(page["unreadable"])
             cursor = page.get("nextCursor")
             if cursor is None:
                 return

@@ -23,6 +23,16 @@ class ParsimetryError(Exception):
         super().__init__(f"{self.status} {self.title}: {self.detail}" + (f" ({where})" if where else ""))
 
 
+class UnreadableRecordsError(Exception):
+    """A listing page held rows that no longer read back as records: the audit store is damaged."""
+
+    def __init__(self, rows: List[Dict[str, Any]]) -> None:
+        self.rows = rows
+        seqs = ", ".join(str(r.get("seq")) for r in rows)
+        super().__init__(f"the listing holds {len(rows)} row(s) that no longer read back as records "
+                         f"(chain positions {seqs}); run GET /v1/audit/verify")
+
+
 def _is_problem(value: Any) -> bool:
     return isinstance(value, dict) and isinstance(value.get("status"), int) and isinstance(value.get("title"), str)
 
