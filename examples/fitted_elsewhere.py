@@ -1,18 +1,17 @@
 #!/usr/bin/env python3
-"""Send residuals of a model fitted in Python (standard library only) and let
-the service score it beside models it fits itself.
+"""Send residuals of a model fitted in Python and let the service score it beside
+models it fits itself, through the Python client (pip install ./clients/python).
 
     PARSIMETRY_URL=http://127.0.0.1:8080 python3 examples/fitted_elsewhere.py
 """
 import csv
-import json
 import os
-import urllib.request
 
-URL = os.environ.get("PARSIMETRY_URL", "http://127.0.0.1:8080")
-HERE = os.path.dirname(os.path.abspath(__file__))
+from parsimetry_client import Client, ParsimetryError
 
-with open(os.path.join(HERE, "tiles.csv"), newline="") as f:
+client = Client(os.environ.get("PARSIMETRY_URL", "http://127.0.0.1:8080"), api_key=os.environ.get("PARSIMETRY_KEY"))
+
+with open(os.path.join(os.path.dirname(os.path.abspath(__file__)), "tiles.csv"), newline="") as f:
     rows = list(csv.DictReader(f))
 temp = [float(r["peakTemp"]) for r in rows]
 moisture = [float(r["moisture"]) for r in rows]
@@ -22,26 +21,21 @@ shrinkage = [float(r["shrinkage"]) for r in rows]
 n = len(rows)
 mx, my = sum(moisture) / n, sum(shrinkage) / n
 slope = sum((x - mx) * (y - my) for x, y in zip(moisture, shrinkage)) / sum((x - mx) ** 2 for x in moisture)
-intercept = my - slope * mx
-residuals = [y - intercept - slope * x for x, y in zip(moisture, shrinkage)]
+residuals = [y - (my - slope * mx) - slope * x for x, y in zip(moisture, shrinkage)]
 
-request = {
-    "label": "python residuals versus service fits",
-    "data": {"columns": {"peakTemp": temp, "moisture": moisture, "shrinkage": shrinkage}},
-    "response": "shrinkage",
-    "candidates": [
-        # k = 2 coefficients + 1 for the error variance.
-        {"name": "moisture-from-python", "residuals": residuals, "parameters": 3},
-        {"name": "temperature-and-moisture", "terms": ["peakTemp", "moisture"]},
-    ],
-}
-req = urllib.request.Request(
-    URL + "/v1/comparisons",
-    data=json.dumps(request).encode("utf-8"),
-    headers={"content-type": "application/json"},
-)
-with urllib.request.urlopen(req) as response:
-    result = json.load(response)
+try:
+    result = client.compare({
+        "label": "python residuals versus service fits",
+        "data": {"columns": {"peakTemp": temp, "moisture": moisture, "shrinkage": shrinkage}},
+        "response": "shrinkage",
+        "candidates": [
+            # k = 2 coefficients + 1 for the error variance.
+            {"name": "moisture-from-python", "residuals": residuals, "parameters": 3},
+            {"name": "temperature-and-moisture", "terms": ["peakTemp", "moisture"]},
+        ],
+    })
+except ParsimetryError as refused:  # status, detail and the fields at fault
+    raise SystemExit(f"refused: {refused}")
 
 for entry in result["rankings"][result["conventions"]["rankBy"]]:
     print(f'{entry["rank"]}  {entry["name"]:<26} delta={entry["delta"]:.3f}  weight={entry["weight"]:.4f}')
