@@ -93,7 +93,10 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        /** Where to start: the documentation (a browser is redirected to /docs) */
+        /**
+         * Where to start: the documentation (a browser is redirected to /docs)
+         * @description A browser (Accept: text/html) is redirected to the interactive documentation at /docs; any other client gets the service's version and links to the documentation, the OpenAPI document, the comparisons and the health check, with a Link header naming the first two.
+         */
         get: {
             parameters: {
                 query?: never;
