@@ -31,10 +31,59 @@ export class NotCanonicalisable extends Error {
   }
 }
 
-export function canonicalJson(value: unknown): string {
-  return write(value, '');
+/**
+ * `known` maps objects already written canonically to their text (a record's
+ * request and result, written once for the digest check and reused in the
+ * record's hash): the output is the same as writing them again.
+ */
+export function canonicalJson(value: unknown, known?: ReadonlyMap<object, string>): string {
+  try {
+    return writeFast(value, known);
+  } catch (err) {
+    if (err !== NOT_JSON) throw err;
+    // Rare: walk again, this time keeping the path, to say where.
+    return write(value, '');
+  }
 }
 
+const NOT_JSON = Symbol('not a JSON value');
+
+// The hot path: plain concatenation, no path strings (building one per element
+// cost more than the writing); anything not JSON throws NOT_JSON and the caller
+// walks again with write() to name the place.
+function writeFast(value: unknown, known: ReadonlyMap<object, string> | undefined): string {
+  if (value === null) return 'null';
+  switch (typeof value) {
+    case 'boolean':
+      return value ? 'true' : 'false';
+    case 'number':
+      if (!Number.isFinite(value)) throw NOT_JSON;
+      return String(value); // for a finite number the same text as JSON.stringify (-0 as 0 included)
+    case 'string':
+      return JSON.stringify(value);
+    case 'object': {
+      const given = known?.get(value);
+      if (given !== undefined) return given;
+      if (Array.isArray(value)) {
+        let out = '[';
+        for (let i = 0; i < value.length; i++) out += (i === 0 ? '' : ',') + writeFast(value[i], known);
+        return out + ']';
+      }
+      const proto = Object.getPrototypeOf(value);
+      if (proto !== Object.prototype && proto !== null) throw NOT_JSON;
+      const keys = Object.keys(value).sort();
+      let out = '{';
+      for (let i = 0; i < keys.length; i++) {
+        out += (i === 0 ? '' : ',') + JSON.stringify(keys[i]) + ':' + writeFast((value as Record<string, unknown>)[keys[i]], known);
+      }
+      return out + '}';
+    }
+    default:
+      throw NOT_JSON;
+  }
+}
+
+// The slow walk, for the message only: the same rules, with the path of the first offender.
 function write(value: unknown, path: string): string {
   if (value === null) return 'null';
   switch (typeof value) {

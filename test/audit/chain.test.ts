@@ -20,6 +20,15 @@ t.test('canonical JSON', async (t) => {
   t.throws(() => canonicalJson({ x: NaN }), NotCanonicalisable);
   t.throws(() => canonicalJson({ x: undefined }), NotCanonicalisable);
   t.throws(() => canonicalJson(new Date(0)), NotCanonicalisable);
+  // The refusal still names the place, though the fast walk keeps no path.
+  t.throws(() => canonicalJson({ a: [1, { b: Infinity }] }), { path: '/a/1/b', found: 'Infinity' });
+  t.throws(() => canonicalJson({ a: [0, new Map()] }), { path: '/a/1', found: 'object of type Map' });
+  // A sparse array is written as before (the fast walk defers to the slow one).
+  t.equal(canonicalJson([1, , 3]), '[1,,3]'); // eslint-disable-line no-sparse-arrays
+  // Texts already written canonically are reused by identity, with the same output as writing them again.
+  const part = { z: [1.5, -0, 'é'], a: { y: null } };
+  const whole = { result: part, request: { q: 1 }, seq: 3 };
+  t.equal(canonicalJson(whole, new Map([[part, canonicalJson(part)]])), canonicalJson(whole));
   t.equal(requestDigest({ b: 2, a: 1 }), createHash('sha256').update('{"a":1,"b":2}').digest('hex'));
 });
 
