@@ -43,7 +43,8 @@ async function bareServer(): Promise<{ app: FastifyInstance; url: string }> {
 }
 
 async function serviceServer(store: AuditStore, auditDb: string): Promise<{ app: FastifyInstance; url: string }> {
-  const config = defaultConfig({ auditDb, rateLimitPerMinute: 10_000_000, eventLoopMaxDelayMs: 0 });
+  // As production runs: answers written as plain JSON (RESPONSE_SCHEMA_CHECK=off).
+  const config = defaultConfig({ auditDb, rateLimitPerMinute: 10_000_000, eventLoopMaxDelayMs: 0, responseSchemaCheck: false });
   const app = await buildApp({ config, store, logger: false });
   const url = await app.listen({ host: '127.0.0.1', port: 0 });
   return { app, url: `${url}/v1/comparisons` };
@@ -51,9 +52,9 @@ async function serviceServer(store: AuditStore, auditDb: string): Promise<{ app:
 
 interface Run { perSecond: number; p50: number; p99: number; bad: number }
 
-async function fire(url: string, body: string): Promise<Run> {
+async function fire(url: string, body: string, duration = seconds): Promise<Run> {
   const r = await autocannon({
-    url, method: 'POST', body, headers: { 'content-type': 'application/json' }, connections, duration: seconds, workers: 1,
+    url, method: 'POST', body, headers: { 'content-type': 'application/json' }, connections, duration, workers: 1,
   });
   return { perSecond: r['2xx'] / seconds, p50: r.latency.p50, p99: r.latency.p99, bad: r.non2xx + r.errors };
 }
@@ -67,6 +68,9 @@ async function measure(storeName: string, openStore: () => Promise<{ store: Audi
   for (const body of bodies) {
     const { store, auditDb, done } = await openStore();
     const service = await serviceServer(store, auditDb);
+    // Warm both (JIT, lazy modules, the store's statements) before anything is counted.
+    await fire(bare.url, body.text, 1);
+    await fire(service.url, body.text, 1);
     const ratios: number[] = [];
     for (let round = 1; round <= rounds; round++) {
       const b = await fire(bare.url, body.text);

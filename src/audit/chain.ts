@@ -135,6 +135,15 @@ export function requestDigest(request: unknown): string {
   return sha256Hex(canonicalJson(toJsonValue(request)));
 }
 
+/**
+ * requestDigest of a value JSON.parse returned (a request body as parsed): the
+ * same digest without the stringify-and-parse round trip, which leaves such a
+ * value as it is.
+ */
+export function requestDigestOfParsed(parsed: JsonValue): string {
+  return sha256Hex(canonicalJson(parsed));
+}
+
 export function recordHash(prevHash: string, canonicalRecord: string): string {
   return sha256Hex(prevHash + canonicalRecord);
 }

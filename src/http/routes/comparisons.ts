@@ -4,7 +4,7 @@
 // that went away before its answer.
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
-import { requestDigest } from '../../audit/chain.ts';
+import { requestDigestOfParsed, type JsonValue } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import { serviceVersion } from '../../version.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
@@ -62,7 +62,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
         conventionsVersion: result.conventions.version,
         policy: result.policy,
         datasetFingerprint: result.dataset.fingerprint,
-        requestDigest: requestDigest(request.sentBody),
+        requestDigest: requestDigestOfParsed(request.sentBody as JsonValue),
         request: keptRequest(config, request.sentBody),
         result: result as unknown as Record<string, unknown>,
       });
