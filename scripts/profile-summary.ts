@@ -1,6 +1,8 @@
 // Where a CPU profile's samples fall: self time by function and by source
 // area, from a .cpuprofile written by node --cpu-prof.
-//   npx tsx scripts/profile-summary.ts path/to/file.cpuprofile [top, default 30]
+// With function names after the count, also their inclusive time (the
+// function and everything it called; recursion counted once).
+//   npx tsx scripts/profile-summary.ts path/to/file.cpuprofile [top, default 30] [function names...]
 import { readFileSync } from 'node:fs';
 
 interface ProfileNode { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; children?: number[] }
@@ -32,3 +34,21 @@ const print = (title: string, rows: [string, number][]) => {
 };
 print('self time by area', tally((n) => area(n.callFrame.url)));
 print('self time by function', tally((n) => `${n.callFrame.functionName || '(anonymous)'}  ${n.callFrame.url.split('/').slice(-2).join('/')}:${n.callFrame.lineNumber + 1}`));
+
+const names = process.argv.slice(4);
+if (names.length > 0) {
+  const parent = new Map<number, number>();
+  for (const n of profile.nodes) for (const c of n.children ?? []) parent.set(c, n.id);
+  const inclusive = new Map<string, number>(names.map((name) => [name, 0]));
+  for (const [id, micros] of selfMicros) {
+    const seen = new Set<string>();
+    for (let at: number | undefined = id; at !== undefined; at = parent.get(at)) {
+      const name = byId.get(at)!.callFrame.functionName;
+      if (inclusive.has(name) && !seen.has(name)) {
+        seen.add(name);
+        inclusive.set(name, inclusive.get(name)! + micros);
+      }
+    }
+  }
+  print('inclusive time of the named functions', [...inclusive]);
+}

@@ -48,6 +48,19 @@ export function canonicalJson(value: unknown, known?: ReadonlyMap<object, string
 
 const NOT_JSON = Symbol('not a JSON value');
 
+// Keys repeat across records (a result's field names), so their quoted form is
+// kept; bounded, since column names come from callers.
+const quotedKeys = new Map<string, string>();
+function quotedKey(key: string): string {
+  let quoted = quotedKeys.get(key);
+  if (quoted === undefined) {
+    if (quotedKeys.size >= 4096) quotedKeys.clear();
+    quoted = JSON.stringify(key);
+    quotedKeys.set(key, quoted);
+  }
+  return quoted;
+}
+
 // The hot path: plain concatenation, no path strings (building one per element
 // cost more than the writing); anything not JSON throws NOT_JSON and the caller
 // walks again with write() to name the place.
@@ -65,6 +78,9 @@ function writeFast(value: unknown, known: ReadonlyMap<object, string> | undefine
       const given = known?.get(value);
       if (given !== undefined) return given;
       if (Array.isArray(value)) {
+        // A column of numbers, strings or nulls (the bulk of a request): the
+        // engine's own JSON.stringify writes it exactly as canonical JSON does.
+        if (allScalars(value)) return JSON.stringify(value);
         let out = '[';
         for (let i = 0; i < value.length; i++) out += (i === 0 ? '' : ',') + writeFast(value[i], known);
         return out + ']';
@@ -74,13 +90,22 @@ function writeFast(value: unknown, known: ReadonlyMap<object, string> | undefine
       const keys = Object.keys(value).sort();
       let out = '{';
       for (let i = 0; i < keys.length; i++) {
-        out += (i === 0 ? '' : ',') + JSON.stringify(keys[i]) + ':' + writeFast((value as Record<string, unknown>)[keys[i]], known);
+        out += (i === 0 ? '' : ',') + quotedKey(keys[i]) + ':' + writeFast((value as Record<string, unknown>)[keys[i]], known);
       }
       return out + '}';
     }
     default:
       throw NOT_JSON;
   }
+}
+
+function allScalars(items: unknown[]): boolean {
+  for (let i = 0; i < items.length; i++) {
+    const item = items[i];
+    const t = typeof item;
+    if (t === 'number' ? !Number.isFinite(item) : t !== 'string' && t !== 'boolean' && item !== null) return false;
+  }
+  return true;
 }
 
 // The slow walk, for the message only: the same rules, with the path of the first offender.
@@ -112,6 +137,35 @@ function write(value: unknown, path: string): string {
     }
     default:
       throw new NotCanonicalisable(path, typeof value);
+  }
+}
+
+/**
+ * True when `value` is plain JSON data: null, booleans, strings, finite
+ * numbers, arrays without holes and plain objects of them. For such a value a
+ * JSON round trip changes nothing that JSON.stringify or canonicalJson would
+ * write (-0 is written 0 either way), so toJsonValue can be skipped.
+ */
+export function isPlainJsonData(value: unknown): boolean {
+  switch (typeof value) {
+    case 'number':
+      return Number.isFinite(value);
+    case 'string':
+    case 'boolean':
+      return true;
+    case 'object': {
+      if (value === null) return true;
+      if (Array.isArray(value)) {
+        for (let i = 0; i < value.length; i++) if (!(i in value) || !isPlainJsonData(value[i])) return false;
+        return true;
+      }
+      const proto = Object.getPrototypeOf(value);
+      if (proto !== Object.prototype && proto !== null) return false;
+      for (const key in value) if (Object.hasOwn(value, key) && !isPlainJsonData((value as Record<string, unknown>)[key])) return false;
+      return true;
+    }
+    default:
+      return false;
   }
 }
 

@@ -2,7 +2,7 @@
 // turn a row back into a record. A row that fails them is reported, never thrown
 // past the store as a crash.
 import { z } from 'zod';
-import { canonicalJson, recordHash, sha256Hex, toJsonValue } from './chain.ts';
+import { canonicalJson, isPlainJsonData, recordHash, sha256Hex, toJsonValue } from './chain.ts';
 import { AuditRecordInvalid } from './errors.ts';
 import { ListedRecordSchema, NewRecordSchema, StoredRecordSchema, type CorruptRow, type ListedRecord, type NewRecord, type StoredRecord } from './store.ts';
 
@@ -63,13 +63,13 @@ export interface PreparedRecord {
   canonical: ReadonlyMap<object, string>;
 }
 
-// JSON.stringify and back: what a JSON reader gets (undefined members gone,
-// non-finite numbers null), and the text the row stores, which is the same as
-// JSON.stringify of the parsed value.
+// The text the row stores and what a JSON reader gets back from it (undefined
+// members gone, non-finite numbers null); plain JSON data is already that, and
+// is not parsed back. The text is the same as JSON.stringify of the parsed value.
 function jsonForm(value: unknown, field: string): { text: string; value: unknown } {
   const text = JSON.stringify(value);
   if (text === undefined) throw new AuditRecordInvalid([`${field}: value at (root) is not a JSON value: ${typeof value}`]);
-  return { text, value: JSON.parse(text) };
+  return { text, value: isPlainJsonData(value) ? value : JSON.parse(text) };
 }
 
 export function prepareRecord(input: NewRecord): PreparedRecord {

@@ -4,6 +4,7 @@
 // naming where, and a result that still does not fit its schema is refused
 // with a 422 before anything is recorded — never a 500 after a record commits.
 import type { z } from 'zod';
+import { isPlainJsonData } from '../audit/chain.ts';
 import { problem, problemTypes, toPointer, type Problem } from './problems.ts';
 
 function nullNonFinite(value: unknown, path: (string | number)[], found: string[]): unknown {
@@ -21,30 +22,15 @@ function nullNonFinite(value: unknown, path: (string | number)[], found: string[
   return value;
 }
 
-// True when the value is plain JSON data (arrays, plain objects, strings,
-// booleans, null) whose every number is finite: the common case, where the
-// copying walk below would rebuild the whole result (and a path per element)
-// only to return an equal one.
-function allFinitePlain(value: unknown): boolean {
-  if (typeof value === 'number') return Number.isFinite(value);
-  if (value === null || typeof value !== 'object') return typeof value !== 'undefined' && typeof value !== 'bigint' && typeof value !== 'function' && typeof value !== 'symbol';
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) if (!(i in value) || !allFinitePlain(value[i])) return false;
-    return true;
-  }
-  const proto = Object.getPrototypeOf(value);
-  if (proto !== Object.prototype && proto !== null) return false;
-  for (const key in value) if (Object.hasOwn(value, key) && !allFinitePlain((value as Record<string, unknown>)[key])) return false;
-  return true;
-}
-
 export function representableResult<T extends { cautions: { code: string; message: string }[] }>(
   schema: z.ZodType,
   result: T,
   envelope: Record<string, unknown>,
 ): { result: T } | { problem: Problem } {
   const found: string[] = [];
-  const cleaned = allFinitePlain(result) ? result : (nullNonFinite(result, [], found) as T);
+  // The common case, plain finite data, is returned as it is: the copying walk
+  // would rebuild the whole result (and a path per element) only to return an equal one.
+  const cleaned = isPlainJsonData(result) ? result : (nullNonFinite(result, [], found) as T);
   if (found.length > 0) {
     const shown = found.slice(0, 10).join(', ');
     cleaned.cautions.push({
