@@ -104,6 +104,10 @@ const ConfigSchema = z.object({
   EVENT_LOOP_MAX_DELAY_MS: wholeNumber(0).default(1000),
   // On SIGTERM: how long requests in flight may take before the process is stopped.
   SHUTDOWN_GRACE_MS: positiveInt(20_000),
+  // A comparison's answer is checked against its response schema before it is
+  // recorded (http/representable.ts); 'on' checks it a second time as it is
+  // written out. Tests and the demo run with it on (defaultConfig).
+  RESPONSE_SCHEMA_CHECK: z.enum(['on', 'off']).default('off'),
 });
 
 export type Config = Readonly<{
@@ -132,6 +136,8 @@ export type Config = Readonly<{
   rateLimitPerMinute: number;
   requestTimeoutMs: number;
   eventLoopMaxDelayMs: number;
+  /** Re-check a comparison's answer against its response schema as it is sent (tests: on). */
+  responseSchemaCheck: boolean;
   shutdownGraceMs: number;
 }>;
 
@@ -178,10 +184,11 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     requestTimeoutMs: c.REQUEST_TIMEOUT_MS,
     eventLoopMaxDelayMs: c.EVENT_LOOP_MAX_DELAY_MS,
     shutdownGraceMs: c.SHUTDOWN_GRACE_MS,
+    responseSchemaCheck: c.RESPONSE_SCHEMA_CHECK === 'on',
   });
 }
 
-/** Defaults for tests and the demo: what a fresh deployment would run with. */
+/** Defaults for tests and the demo: what a fresh deployment would run with, answers re-checked against their schema. */
 export function defaultConfig(overrides: Partial<Config> = {}): Config {
-  return Object.freeze({ ...loadConfig({}), ...overrides });
+  return Object.freeze({ ...loadConfig({}), responseSchemaCheck: true, ...overrides });
 }

@@ -31,10 +31,84 @@ export class NotCanonicalisable extends Error {
   }
 }
 
-export function canonicalJson(value: unknown): string {
-  return write(value, '');
+/**
+ * `known` maps objects already written canonically to their text (a record's
+ * request and result, written once for the digest check and reused in the
+ * record's hash): the output is the same as writing them again.
+ */
+export function canonicalJson(value: unknown, known?: ReadonlyMap<object, string>): string {
+  try {
+    return writeFast(value, known);
+  } catch (err) {
+    if (err !== NOT_JSON) throw err;
+    // Rare: walk again, this time keeping the path, to say where.
+    return write(value, '');
+  }
 }
 
+const NOT_JSON = Symbol('not a JSON value');
+
+// Keys repeat across records (a result's field names), so their quoted form is
+// kept; bounded, since column names come from callers.
+const quotedKeys = new Map<string, string>();
+function quotedKey(key: string): string {
+  let quoted = quotedKeys.get(key);
+  if (quoted === undefined) {
+    if (quotedKeys.size >= 4096) quotedKeys.clear();
+    quoted = JSON.stringify(key);
+    quotedKeys.set(key, quoted);
+  }
+  return quoted;
+}
+
+// The hot path: plain concatenation, no path strings (building one per element
+// cost more than the writing); anything not JSON throws NOT_JSON and the caller
+// walks again with write() to name the place.
+function writeFast(value: unknown, known: ReadonlyMap<object, string> | undefined): string {
+  if (value === null) return 'null';
+  switch (typeof value) {
+    case 'boolean':
+      return value ? 'true' : 'false';
+    case 'number':
+      if (!Number.isFinite(value)) throw NOT_JSON;
+      return String(value); // for a finite number the same text as JSON.stringify (-0 as 0 included)
+    case 'string':
+      return JSON.stringify(value);
+    case 'object': {
+      const given = known?.get(value);
+      if (given !== undefined) return given;
+      if (Array.isArray(value)) {
+        // A column of numbers, strings or nulls (the bulk of a request): the
+        // engine's own JSON.stringify writes it exactly as canonical JSON does.
+        if (allScalars(value)) return JSON.stringify(value);
+        let out = '[';
+        for (let i = 0; i < value.length; i++) out += (i === 0 ? '' : ',') + writeFast(value[i], known);
+        return out + ']';
+      }
+      const proto = Object.getPrototypeOf(value);
+      if (proto !== Object.prototype && proto !== null) throw NOT_JSON;
+      const keys = Object.keys(value).sort();
+      let out = '{';
+      for (let i = 0; i < keys.length; i++) {
+        out += (i === 0 ? '' : ',') + quotedKey(keys[i]) + ':' + writeFast((value as Record<string, unknown>)[keys[i]], known);
+      }
+      return out + '}';
+    }
+    default:
+      throw NOT_JSON;
+  }
+}
+
+function allScalars(items: unknown[]): boolean {
+  for (let i = 0; i < items.length; i++) {
+    const item = items[i];
+    const t = typeof item;
+    if (t === 'number' ? !Number.isFinite(item) : t !== 'string' && t !== 'boolean' && item !== null) return false;
+  }
+  return true;
+}
+
+// The slow walk, for the message only: the same rules, with the path of the first offender.
 function write(value: unknown, path: string): string {
   if (value === null) return 'null';
   switch (typeof value) {
@@ -67,6 +141,35 @@ function write(value: unknown, path: string): string {
 }
 
 /**
+ * True when `value` is plain JSON data: null, booleans, strings, finite
+ * numbers, arrays without holes and plain objects of them. For such a value a
+ * JSON round trip changes nothing that JSON.stringify or canonicalJson would
+ * write (-0 is written 0 either way), so toJsonValue can be skipped.
+ */
+export function isPlainJsonData(value: unknown): boolean {
+  switch (typeof value) {
+    case 'number':
+      return Number.isFinite(value);
+    case 'string':
+    case 'boolean':
+      return true;
+    case 'object': {
+      if (value === null) return true;
+      if (Array.isArray(value)) {
+        for (let i = 0; i < value.length; i++) if (!(i in value) || !isPlainJsonData(value[i])) return false;
+        return true;
+      }
+      const proto = Object.getPrototypeOf(value);
+      if (proto !== Object.prototype && proto !== null) return false;
+      for (const key in value) if (Object.hasOwn(value, key) && !isPlainJsonData((value as Record<string, unknown>)[key])) return false;
+      return true;
+    }
+    default:
+      return false;
+  }
+}
+
+/**
  * What a JSON reader would get back from `value`: Dates become strings, NaN and
  * Infinity become null, undefined members vanish. The store keeps this form, so
  * the record read back hashes the same as the record written.
@@ -84,6 +187,15 @@ export function sha256Hex(text: string): string {
 /** The digest kept for every request, also when the request itself is not stored. */
 export function requestDigest(request: unknown): string {
   return sha256Hex(canonicalJson(toJsonValue(request)));
+}
+
+/**
+ * requestDigest of a value JSON.parse returned (a request body as parsed): the
+ * same digest without the stringify-and-parse round trip, which leaves such a
+ * value as it is.
+ */
+export function requestDigestOfParsed(parsed: JsonValue): string {
+  return sha256Hex(canonicalJson(parsed));
 }
 
 export function recordHash(prevHash: string, canonicalRecord: string): string {

@@ -13,7 +13,7 @@ import { GroupCommit } from './group-commit.ts';
 import { recordIdSource, type RecordIdSource } from './ids.ts';
 import { postgresMigrations } from './migrations/postgres.ts';
 import { listFilter, listQuery, pageOf, postgresDialect } from './query.ts';
-import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
+import { chainRecord, type ChainedNew, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { ChainLinks } from './integrity.ts';
 import { chainLinksFromRows, chainLinksSql } from './links.ts';
 import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
@@ -112,14 +112,15 @@ class PostgresAuditStore implements AuditStore {
           ' SELECT seq, record_id, hash FROM audit_head WHERE singleton = 1 FOR UPDATE',
       )) as unknown as pg.QueryResult[];
       let head = headFromRow(begun[3].rows[0]);
-      const stored: StoredRecord[] = [];
+      const chained: ChainedNew[] = [];
       for (const record of records) {
-        const r = chainRecord(record, head, this.ids.next());
-        stored.push(r);
-        head = { seq: r.seq, id: r.id, hash: r.hash };
+        const c = chainRecord(record, head, this.ids.next());
+        chained.push(c);
+        head = { seq: c.stored.seq, id: c.stored.id, hash: c.stored.hash };
       }
+      const stored = chained.map((c) => c.stored);
       const params: unknown[] = [];
-      const recordValues = valuesList(stored.map(recordToRow), params);
+      const recordValues = valuesList(chained.map(recordToRow), params);
       const listingValues = valuesList(stored.map(recordToListingRow), params);
       const n = params.length;
       await client.query(

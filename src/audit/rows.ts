@@ -2,7 +2,7 @@
 // turn a row back into a record. A row that fails them is reported, never thrown
 // past the store as a crash.
 import { z } from 'zod';
-import { canonicalJson, recordHash, requestDigest, toJsonValue } from './chain.ts';
+import { canonicalJson, isPlainJsonData, recordHash, sha256Hex, toJsonValue } from './chain.ts';
 import { AuditRecordInvalid } from './errors.ts';
 import { ListedRecordSchema, NewRecordSchema, StoredRecordSchema, type CorruptRow, type ListedRecord, type NewRecord, type StoredRecord } from './store.ts';
 
@@ -50,14 +50,39 @@ export function rowToListed(row: ListedRow): ListedReading {
   return { corrupt: { seq, id: typeof row.id === 'string' ? row.id : null, problems: parsed.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`) } };
 }
 
-/** A validated new record in its JSON form (what will be hashed and stored). */
-export type PreparedRecord = z.output<typeof NewRecordSchema>;
+/**
+ * A validated new record in its JSON form (what will be hashed and stored),
+ * with its request and result written once: as JSON for the row, and
+ * canonically for the digest check and the record's hash.
+ */
+export interface PreparedRecord {
+  record: z.output<typeof NewRecordSchema>;
+  requestText: string | null;
+  resultText: string;
+  /** The canonical text of record.request and record.result (by identity), reused by chainRecord. */
+  canonical: ReadonlyMap<object, string>;
+}
+
+// The text the row stores and what a JSON reader gets back from it (undefined
+// members gone, non-finite numbers null); plain JSON data is already that, and
+// is not parsed back. The text is the same as JSON.stringify of the parsed value.
+function jsonForm(value: unknown, field: string): { text: string; value: unknown } {
+  const text = JSON.stringify(value);
+  if (text === undefined) throw new AuditRecordInvalid([`${field}: value at (root) is not a JSON value: ${typeof value}`]);
+  return { text, value: isPlainJsonData(value) ? value : JSON.parse(text) };
+}
 
 export function prepareRecord(input: NewRecord): PreparedRecord {
+  const { request: sentRequest, result: sentResult, ...envelope } = input;
+  let request: { text: string; value: unknown } | null;
+  let result: { text: string; value: unknown };
   let json: unknown;
   try {
-    json = toJsonValue(input);
+    request = sentRequest === null || sentRequest === undefined ? null : jsonForm(sentRequest, 'request');
+    result = jsonForm(sentResult, 'result');
+    json = { ...(toJsonValue(envelope) as object), request: request?.value ?? sentRequest, result: result.value };
   } catch (err) {
+    if (err instanceof AuditRecordInvalid) throw err;
     throw new AuditRecordInvalid([(err as Error).message]);
   }
   const parsed = NewRecordSchema.safeParse(json);
@@ -65,10 +90,23 @@ export function prepareRecord(input: NewRecord): PreparedRecord {
     throw new AuditRecordInvalid(parsed.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`));
   }
   const record = parsed.data;
-  if (record.request !== null && requestDigest(record.request) !== record.requestDigest) {
-    throw new AuditRecordInvalid(['requestDigest: does not match the SHA-256 of the canonical request']);
+  const canonical = new Map<object, string>();
+  if (record.request !== null) {
+    const text = canonicalJson(record.request);
+    if (sha256Hex(text) !== record.requestDigest) {
+      throw new AuditRecordInvalid(['requestDigest: does not match the SHA-256 of the canonical request']);
+    }
+    canonical.set(record.request, text);
   }
-  return record;
+  canonical.set(record.result, canonicalJson(record.result));
+  return { record, requestText: request?.text ?? null, resultText: result.text, canonical };
+}
+
+/** A record chained onto the head, with the texts its row stores. */
+export interface ChainedNew {
+  stored: StoredRecord;
+  requestText: string | null;
+  resultText: string;
 }
 
 /** Chains a prepared record onto the head: the one place seq, prevHash and hash are assigned. */
@@ -76,17 +114,17 @@ export function chainRecord(
   prepared: PreparedRecord,
   head: { seq: number; hash: string },
   stamp: { id: string; createdAt: string },
-): StoredRecord {
-  const body = { ...prepared, id: stamp.id, createdAt: stamp.createdAt, seq: head.seq + 1 };
-  const hash = recordHash(head.hash, canonicalJson(body));
-  return { ...body, prevHash: head.hash, hash };
+): ChainedNew {
+  const body = { ...prepared.record, id: stamp.id, createdAt: stamp.createdAt, seq: head.seq + 1 };
+  const hash = recordHash(head.hash, canonicalJson(body, prepared.canonical));
+  return { stored: { ...body, prevHash: head.hash, hash }, requestText: prepared.requestText, resultText: prepared.resultText };
 }
 
-export function recordToRow(r: StoredRecord): unknown[] {
+export function recordToRow({ stored: r, requestText, resultText }: ChainedNew): unknown[] {
   return [
     r.seq, r.id, r.createdAt, r.kind, r.caller, r.label, r.serviceVersion, r.conventionsVersion,
     r.policy?.name ?? null, r.policy?.hash ?? null, r.datasetFingerprint, r.requestDigest,
-    r.request === null ? null : JSON.stringify(r.request), JSON.stringify(r.result), r.prevHash, r.hash,
+    requestText, resultText, r.prevHash, r.hash,
   ];
 }
 

@@ -71,8 +71,9 @@ class SqliteAuditStore implements AuditStore {
       let head = headFromRow(this.selectHead.get() as RecordRow & { record_id: unknown });
       const stored: StoredRecord[] = [];
       for (const record of records) {
-        const r = chainRecord(record, head, this.ids.next());
-        this.insert.run(...recordToRow(r));
+        const chained = chainRecord(record, head, this.ids.next());
+        const r = chained.stored;
+        this.insert.run(...recordToRow(chained));
         this.insertListing.run(...recordToListingRow(r));
         stored.push(r);
         head = { seq: r.seq, id: r.id, hash: r.hash };

@@ -4,6 +4,7 @@
 // naming where, and a result that still does not fit its schema is refused
 // with a 422 before anything is recorded — never a 500 after a record commits.
 import type { z } from 'zod';
+import { isPlainJsonData } from '../audit/chain.ts';
 import { problem, problemTypes, toPointer, type Problem } from './problems.ts';
 
 function nullNonFinite(value: unknown, path: (string | number)[], found: string[]): unknown {
@@ -27,7 +28,9 @@ export function representableResult<T extends { cautions: { code: string; messag
   envelope: Record<string, unknown>,
 ): { result: T } | { problem: Problem } {
   const found: string[] = [];
-  const cleaned = nullNonFinite(result, [], found) as T;
+  // The common case, plain finite data, is returned as it is: the copying walk
+  // would rebuild the whole result (and a path per element) only to return an equal one.
+  const cleaned = isPlainJsonData(result) ? result : (nullNonFinite(result, [], found) as T);
   if (found.length > 0) {
     const shown = found.slice(0, 10).join(', ');
     cleaned.cautions.push({

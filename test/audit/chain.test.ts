@@ -2,7 +2,7 @@
 // against outside references where one exists.
 import { createHash } from 'node:crypto';
 import t from 'tap';
-import { canonicalJson, ChainWalk, GENESIS_HASH, hashOfRecord, NotCanonicalisable, recordHash, requestDigest, sha256Hex } from '../../src/audit/chain.ts';
+import { canonicalJson, ChainWalk, GENESIS_HASH, hashOfRecord, NotCanonicalisable, recordHash, requestDigest, requestDigestOfParsed, sha256Hex } from '../../src/audit/chain.ts';
 import { recordIdSource } from '../../src/audit/ids.ts';
 
 t.test('SHA-256 test vectors', async (t) => {
@@ -20,7 +20,29 @@ t.test('canonical JSON', async (t) => {
   t.throws(() => canonicalJson({ x: NaN }), NotCanonicalisable);
   t.throws(() => canonicalJson({ x: undefined }), NotCanonicalisable);
   t.throws(() => canonicalJson(new Date(0)), NotCanonicalisable);
+  // The refusal still names the place, though the fast walk keeps no path.
+  const refusal = (value: unknown) => {
+    try {
+      canonicalJson(value);
+    } catch (err) {
+      return err instanceof NotCanonicalisable ? { path: err.path, found: err.found } : err;
+    }
+    return null;
+  };
+  t.strictSame(refusal({ a: [1, { b: Infinity }] }), { path: '/a/1/b', found: 'Infinity' });
+  t.strictSame(refusal({ a: [0, new Map()] }), { path: '/a/1', found: 'object of type Map' });
+  // A sparse array is written as before (the fast walk defers to the slow one).
+  t.equal(canonicalJson([1, , 3]), '[1,,3]'); // eslint-disable-line no-sparse-arrays
+  // Texts already written canonically are reused by identity, with the same output as writing them again.
+  const part = { z: [1.5, -0, 'é'], a: { y: null } };
+  const whole = { result: part, request: { q: 1 }, seq: 3 };
+  t.equal(canonicalJson(whole, new Map([[part, canonicalJson(part)]])), canonicalJson(whole));
   t.equal(requestDigest({ b: 2, a: 1 }), createHash('sha256').update('{"a":1,"b":2}').digest('hex'));
+  // A parsed body needs no round trip: the same digest, -0, escapes and "__proto__" keys included
+  // (U+2028 is written as itself: JSON.stringify leaves it unescaped, RFC 8785 §3.2.2.2).
+  const sent = JSON.parse('{"b":[-0,1e-7,"\\u2028"],"__proto__":{"x":1},"a":{"c":null,"B":true}}');
+  t.equal(requestDigestOfParsed(sent), requestDigest(sent));
+  t.equal(requestDigestOfParsed(sent), createHash('sha256').update('{"__proto__":{"x":1},"a":{"B":true,"c":null},"b":[0,1e-7,"\u2028"]}', 'utf8').digest('hex'));
 });
 
 t.test('chain formula', async (t) => {

@@ -4,7 +4,7 @@
 // that went away before its answer.
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
-import { requestDigest } from '../../audit/chain.ts';
+import { requestDigestOfParsed, type JsonValue } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import { serviceVersion } from '../../version.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
@@ -14,6 +14,7 @@ import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { appendOr503, keptRequest } from '../audit-append.ts';
 import { watchClient } from '../compute/client-gone.ts';
 import { priceComparisonRequest } from '../compute/price-request.ts';
+import { answerSerializer } from '../answer-serializer.ts';
 import { CLIENT_GONE, computeComparisonJob, type ComputeService } from '../compute/run.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
@@ -37,6 +38,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
       body: ComparisonRequest,
       response: { 200: ComparisonResult, 400: ProblemSchema, 413: ProblemSchema, 415: ProblemSchema, 422: ProblemSchema, 503: ProblemSchema },
     },
+    ...answerSerializer(config),
   }, async (request, reply) => {
     const body = request.body;
     const priced = priceComparisonRequest(body, policy, compute.caps);
@@ -60,7 +62,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
         conventionsVersion: result.conventions.version,
         policy: result.policy,
         datasetFingerprint: result.dataset.fingerprint,
-        requestDigest: requestDigest(request.sentBody),
+        requestDigest: requestDigestOfParsed(request.sentBody as JsonValue),
         request: keptRequest(config, request.sentBody),
         result: result as unknown as Record<string, unknown>,
       });

@@ -11,7 +11,7 @@ import type { AuditStore } from '../../audit/store.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
 import { SearchRequest } from '../schemas/search-request.ts';
 import { SearchResult } from '../schemas/search-response.ts';
-import { requestDigest } from '../../audit/chain.ts';
+import { requestDigestOfParsed, type JsonValue } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import type { ComputeSession } from '../../compute/index.ts';
 import type { Issue } from '../../core/issues.ts';
@@ -152,7 +152,7 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
         conventionsVersion: answer.conventions.version,
         policy: answer.policy,
         datasetFingerprint: answer.dataset.fingerprint,
-        requestDigest: requestDigest(request.sentBody),
+        requestDigest: requestDigestOfParsed(request.sentBody as JsonValue),
         request: keptRequest(ctx.config, request.sentBody),
         result: answer as unknown as Record<string, unknown>,
       });
