@@ -28,6 +28,7 @@ import { recordRoutes } from './routes/records.ts';
 import { pictureRoutes } from './routes/pictures.ts';
 import { auditRoutes } from './routes/audit.ts';
 import { replayRoutes } from './routes/replay.ts';
+import { searchReplayRoutes } from './routes/search-replay.ts';
 import { searchRoutes } from './routes/searches.ts';
 import { summaryRoutes } from './streaming/summary-route.ts';
 import { ComputePool } from '../compute/index.ts';
@@ -130,6 +131,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   await app.register(pictureRoutes, { store });
   await app.register(auditRoutes, { store });
   await app.register(replayRoutes, { store, policy, compute });
+  await app.register(searchReplayRoutes, { store, policy, compute });
   await app.register(searchRoutes, { store, config, policy, compute });
   await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes, uploadsPerCaller: config.summaryUploadsPerCaller });
 

@@ -238,9 +238,9 @@ t.test('GET /v1/searches: the same filters and paging, searches only, each id un
   let cursor: string | null = null;
   let pages = 0;
   do {
-    const res = await app.inject({ method: 'GET', url: `/v1/searches?limit=3${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}` });
-    const page = res.json();
-    seen.push(...page.records.map((r: { seq: number }) => r.seq));
+    const url: string = `/v1/searches?limit=3${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}`;
+    const page: { records: { seq: number }[]; nextCursor: string | null } = (await app.inject({ method: 'GET', url })).json();
+    seen.push(...page.records.map((r) => r.seq));
     cursor = page.nextCursor;
     pages += 1;
   } while (cursor !== null && pages < 10);

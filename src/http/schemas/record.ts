@@ -191,7 +191,7 @@ export const ReplayReport = z
     serviceVersion: VersionPair,
     conventionsVersion: VersionPair,
     policy: z.strictObject({ stored: PolicyRefSchema.nullable(), now: PolicyRefSchema }).meta({
-      description: 'The team policy recorded with the comparison (null for records made before policies) and the one the replay ran under.',
+      description: 'The team policy recorded with the comparison or search (null for records made before policies) and the one the replay ran under.',
     }),
     identical: z.boolean().meta({ description: 'Every value of the result is reproduced exactly.' }),
     valuesCompared: z.number().int(),
