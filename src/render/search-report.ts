@@ -10,9 +10,8 @@ import { firstRows, leftOutNote } from './bounded-rows.ts';
 import { formatCount, formatDelta, formatFixed, formatPercent, formatRatio } from './number-format.ts';
 import { chainSection, defaultChainVerification } from './report-chain.ts';
 import { cautionsSection } from './report-extras.ts';
-import { reportContentSecurityPolicy, type ReportOptions } from './report-html.ts';
+import { reportDocument, type ReportOptions } from './report-html.ts';
 import { integrityNotice } from './report-integrity.ts';
-import { reportStyle } from './report-style.ts';
 import { breakableName, factsList, table } from './report-table.ts';
 import type { StoredSearchView } from './search-view.ts';
 import type { RankingEntry } from './types.ts';
@@ -110,14 +109,5 @@ export function renderSearchReportHtml(view: StoredSearchView, options: ReportOp
     chainSection(record, options.chain ?? defaultChainVerification),
     tag('footer', {}, 'Produced by parsimetry from the stored record; the numbers are those of the record, not recomputed for this page.'),
   );
-  const head = tag('head', {},
-    raw('<meta charset="utf-8">'),
-    raw(`<meta http-equiv="Content-Security-Policy" content="${reportContentSecurityPolicy}">`),
-    raw('<meta name="viewport" content="width=device-width, initial-scale=1">'),
-    raw('<meta name="color-scheme" content="light">'),
-    raw('<link rel="icon" href="data:,">'),
-    tag('title', {}, `${heading} · parsimetry search report`),
-    raw(`<style>${reportStyle}</style>`),
-  );
-  return `<!DOCTYPE html>\n<html lang="en">${head.html}<body>${main.html}</body></html>\n`;
+  return reportDocument(`${heading} · parsimetry search report`, main);
 }

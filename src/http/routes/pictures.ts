@@ -74,8 +74,20 @@ export const PictureQuery = z.strictObject({
 export const paramsOnly: FastifySchemaCompiler<any> = (route) =>
   route.httpPart === 'querystring' ? (data) => ({ value: data }) : zodValidatorCompiler(route);
 
-export const problemResponses = { 400: ProblemSchema, 404: ProblemSchema, 422: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema };
-export const notModified = z.null().meta({ description: 'Not modified: the copy the client holds (If-None-Match) is current. No body.' });
+const problemResponses = { 400: ProblemSchema, 404: ProblemSchema, 422: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema };
+const notModified = z.null().meta({ description: 'Not modified: the copy the client holds (If-None-Match) is current. No body.' });
+
+/** The answers of every chart.svg and every report, a comparison's or a search's. */
+export const chartResponses = {
+  200: { description: 'The chart as SVG: no scripts and no external references; its title and desc say the ranking in words.', content: { 'image/svg+xml': { schema: z.string() } } },
+  304: notModified,
+  ...problemResponses,
+};
+export const reportResponses = {
+  200: { description: 'The report (HTML5, UTF-8, printable).', content: { 'text/html': { schema: z.string() } } },
+  304: notModified,
+  ...problemResponses,
+};
 
 function optionsProblem(reply: FastifyReply, issues: ChartOptionIssue[]): FastifyReply {
   // A record without any ranking is not the caller's fault: nothing in the query could fix it.
@@ -142,11 +154,7 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
-      response: {
-        200: { description: 'The chart as SVG: no scripts and no external references; its title and desc say the ranking in words.', content: { 'image/svg+xml': { schema: z.string() } } },
-        304: notModified,
-        ...problemResponses,
-      },
+      response: chartResponses,
     },
   }, async (request, reply) => {
     const found = await comparisonPicture(store, request, reply);
@@ -167,11 +175,7 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
-      response: {
-        200: { description: 'The report (HTML5, UTF-8, printable).', content: { 'text/html': { schema: z.string() } } },
-        304: notModified,
-        ...problemResponses,
-      },
+      response: reportResponses,
     },
   }, async (request, reply) => {
     const found = await comparisonPicture(store, request, reply);

@@ -2,12 +2,11 @@
 // search drawn and written up, read, checked, cached and refused exactly as a
 // comparison's pictures are (pictures.ts says how and why).
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
-import { z } from 'zod';
 import type { AuditStore } from '../../audit/store.ts';
 import { renderChartSvg, renderSearchReportHtml, SEARCH_REPORT_ROW_LIMITS, storedSearchView } from '../../render/index.ts';
 import { RecordParams } from '../schemas/record.ts';
 import {
-  chartPolicyHeader, HTML_CONTENT_TYPE, notModified, paramsOnly, PictureQuery, problemResponses, recordAndOptions, reportPolicyHeader, sendPicture, SVG_CONTENT_TYPE,
+  chartPolicyHeader, chartResponses, HTML_CONTENT_TYPE, paramsOnly, PictureQuery, recordAndOptions, reportPolicyHeader, reportResponses, sendPicture, SVG_CONTENT_TYPE,
 } from './pictures.ts';
 
 const searchPicture = (store: AuditStore, request: { params: { id: string }; query: unknown }, reply: Parameters<typeof recordAndOptions>[2]) =>
@@ -28,11 +27,7 @@ export const searchPictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> =
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
-      response: {
-        200: { description: 'The chart as SVG: no scripts and no external references.', content: { 'image/svg+xml': { schema: z.string() } } },
-        304: notModified,
-        ...problemResponses,
-      },
+      response: chartResponses,
     },
   }, async (request, reply) => {
     const found = await searchPicture(store, request, reply);
@@ -52,11 +47,7 @@ export const searchPictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> =
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
-      response: {
-        200: { description: 'The report (HTML5, UTF-8, printable).', content: { 'text/html': { schema: z.string() } } },
-        304: notModified,
-        ...problemResponses,
-      },
+      response: reportResponses,
     },
   }, async (request, reply) => {
     const found = await searchPicture(store, request, reply);
