@@ -24,6 +24,29 @@ const methodWords: Record<string, string> = {
   branchAndBound: 'branch and bound (subsets that provably cannot enter the best list are not scored one by one)',
 };
 
+/** passedOver and budget in words (the JSON keys are for programs). */
+const countWords: Record<string, string> = {
+  notHierarchical: 'outside the hierarchy rule',
+  unscorable: 'without a criterion value',
+  pruned: 'proven out of the top list by branch and bound',
+  rankDeficient: 'with aliased columns (a smaller model again)',
+  sameColumnSpace: 'spanning the column space of one counted',
+  exactFit: 'fitting exactly',
+  maxSubsets: 'at most {} subsets scored one by one',
+  maxBranchAndBoundTerms: 'branch and bound up to {} terms',
+  maxNodes: 'at most {} tree nodes',
+  estimatedFlops: 'about {} multiply-adds estimated',
+  nodes: '{} tree nodes visited',
+  elapsedMs: 'scored in {} ms',
+};
+
+function inWords(key: string, value: number | null): string {
+  const count = value === null ? 'n/a' : formatCount(Math.round(value));
+  const words = countWords[key];
+  if (words === undefined) return `${key} ${count}`;
+  return words.includes('{}') ? words.replace('{}', count) : `${count} ${words}`;
+}
+
 const transformWords = (t: { fn: string; lambda?: number }) => (t.fn === 'boxcox' ? `Box–Cox, λ = ${formatFixed(t.lambda, 2)}` : t.fn);
 
 /** The job in one sentence: what was searched, on what, and which subset came first. */
@@ -52,9 +75,9 @@ function searchFacts(view: StoredSearchView): Html {
     ? 'yes: the listed models are the best of every admissible subset'
     : 'no: the node budget ran out first; the listed models are the best found so far']);
   entries.push(['weights cover', search.weightsCoverAllSubsets ? 'every admissible subset' : 'only the subsets scored (some were pruned)']);
-  const passed = search.passedOver.filter(([, n]) => n > 0).map(([k, n]) => `${formatCount(n)} ${k}`);
+  const passed = search.passedOver.filter(([, n]) => n > 0).map(([k, n]) => inWords(k, n));
   entries.push(['passed over', passed.length === 0 ? 'none' : passed.join(', ')]);
-  entries.push(['budget', search.budget.map(([k, v]) => `${k} ${v === null ? 'n/a' : formatCount(Math.round(v))}`).join(', ') || 'not recorded']);
+  entries.push(['budget', search.budget.filter(([, v]) => v !== null).map(([k, v]) => inWords(k, v)).join('; ') || 'not recorded']);
   const policy = ranking.result.policy;
   if (policy && (policy.name || policy.hash)) entries.push(['policy', fragment(String(policy.name ?? ''), ' ', tag('span', { class: 'hash' }, String(policy.hash ?? '')))]);
   return factsList(entries, { 'data-section': 'search' });
@@ -68,7 +91,7 @@ function modelsTable(view: StoredSearchView): Html {
   return fragment(
     table<RankingEntry>(null, [
       { heading: 'rank', cell: (e) => String(e.rank), className: 'num' },
-      { heading: 'model (its terms)', cell: (e) => breakableName(e.name) },
+      { heading: 'model (its terms)', cell: (e) => breakableName(e.name), className: 'name' },
       { heading: 'k', cell: (e) => formatCount(k.get(e.name)), className: 'num' },
       { heading: criterion === null ? 'value' : criterionDisplayName(criterion), cell: (e) => formatFixed(e.value, 2), className: 'num' },
       { heading: 'Δ', cell: (e) => formatDelta(e.delta), className: 'num' },
@@ -83,7 +106,7 @@ function importanceTable(view: StoredSearchView): Html {
   const { shown, total } = firstRows(view.search.importance, SEARCH_REPORT_ROW_LIMITS.importance);
   return fragment(
     table<(typeof shown)[number]>(null, [
-      { heading: 'pool term', cell: (x) => breakableName(x.label) },
+      { heading: 'pool term', cell: (x) => breakableName(x.label), className: 'name' },
       { heading: 'importance', cell: (x) => formatPercent(x.weight), className: 'num' },
     ], shown, (x) => ({ 'data-term': x.label }), { 'data-table': 'importance' }),
     leftOutNote(shown.length, total, 'pool terms', view.ranking.id, '/v1/searches'),

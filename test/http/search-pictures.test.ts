@@ -36,7 +36,7 @@ t.test('the report says what the search found, from the record, with every name 
   const terms = html.match(/<tr data-term="[^"]*"/g) ?? [];
   t.equal(terms.length, pool.length, 'one importance row per pool term');
   // Each importance as the page prints it (a percentage of the record's weight), in pool order.
-  const printed = [...html.matchAll(/<tr data-term="[^"]*"><td>.*?<\/td><td class="num">([^<]*)<\/td>/g)].map((m) => m[1]);
+  const printed = [...html.matchAll(/<tr data-term="[^"]*"><td[^>]*>.*?<\/td><td class="num">([^<]*)<\/td>/g)].map((m) => m[1]);
   t.equal(printed.length, pool.length);
   // formatPercent writes ">99.9%" and "<0.1%" at the ends.
   const agrees = (text: string, w: number) => text.startsWith('&gt;') ? w > 0.999 : text.startsWith('&lt;') ? w < 0.001 : Math.abs(parseFloat(text) - 100 * w) < 0.1;
@@ -44,7 +44,8 @@ t.test('the report says what the search found, from the record, with every name 
   t.match(html, search.proven ? /proven<\/dt><dd>yes/ : /proven<\/dt><dd>no/);
   t.match(html, /every subset scored/, 'the method in words');
   t.match(html, /log \(criteria include the Jacobian/, 'the response scale');
-  t.match(html, /budget<\/dt><dd>maxSubsets/, 'the budget');
+  t.match(html, /budget<\/dt><dd>at most 16777216 subsets scored one by one/, 'the budget in words');
+  t.match(html, /passed over<\/dt><dd>\d+ outside the hierarchy rule/, 'what was passed over, in words');
   t.match(html, /They do not show that any of them is valid/, 'the standing caution');
   t.match(html, /data-seq="\d+"/, 'the chain section');
 });
