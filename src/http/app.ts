@@ -26,8 +26,10 @@ import { rootRoutes } from './routes/root.ts';
 import { comparisonRoutes } from './routes/comparisons.ts';
 import { recordRoutes } from './routes/records.ts';
 import { pictureRoutes } from './routes/pictures.ts';
+import { searchPictureRoutes } from './routes/search-pictures.ts';
 import { auditRoutes } from './routes/audit.ts';
 import { replayRoutes } from './routes/replay.ts';
+import { searchReplayRoutes } from './routes/search-replay.ts';
 import { searchRoutes } from './routes/searches.ts';
 import { summaryRoutes } from './streaming/summary-route.ts';
 import { ComputePool } from '../compute/index.ts';
@@ -128,8 +130,10 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   await app.register(comparisonRoutes, { store, config, policy, compute });
   await app.register(recordRoutes, { store });
   await app.register(pictureRoutes, { store });
+  await app.register(searchPictureRoutes, { store });
   await app.register(auditRoutes, { store });
   await app.register(replayRoutes, { store, policy, compute });
+  await app.register(searchReplayRoutes, { store, policy, compute });
   await app.register(searchRoutes, { store, config, policy, compute });
   await app.register(summaryRoutes, { bodyLimitBytes: config.summaryBodyLimitBytes, uploadsPerCaller: config.summaryUploadsPerCaller });
 

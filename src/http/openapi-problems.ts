@@ -20,7 +20,7 @@ const REFUSALS: Record<string, string> = {
 const JSON_BODY_400 =
   'The body is not JSON, nests arrays and objects deeper than JSON_MAX_DEPTH (the problem names the depth, the limit and the path), writes a key twice in one object (I-JSON, RFC 7493), holds a refused key or text (__proto__, a lone UTF-16 surrogate, NUL), or does not match the schema. errors[].path names the place.';
 /** What the operations that compute can refuse, beyond their schema (README: limits). */
-const COMPUTE_OPERATIONS: ReadonlyArray<[string, string]> = [['/v1/comparisons', 'post'], ['/v1/searches', 'post'], ['/v1/comparisons/{id}/replay', 'post']];
+const COMPUTE_OPERATIONS: ReadonlyArray<[string, string]> = [['/v1/comparisons', 'post'], ['/v1/searches', 'post'], ['/v1/comparisons/{id}/replay', 'post'], ['/v1/searches/{id}/replay', 'post']];
 const COMPUTE_REFUSALS: Record<string, string> = {
   413: 'The body exceeds BODY_LIMIT_BYTES.',
   422: 'Over a limit priced from the request\'s shape before any work — MAX_REQUEST_WORK, MAX_REQUEST_MEMORY_BYTES, MAX_DESIGN_COLUMNS, MAX_RESULT_BYTES (type urn:parsimetry:problem:work-limit, with the estimate, the limit and its setting) — or stopped at COMPUTE_DEADLINE_MS (urn:parsimetry:problem:compute-deadline) or out of a compute worker\'s heap (urn:parsimetry:problem:compute-memory); nothing is recorded. A new comparison or search is also refused with 422 when it is well-formed but cannot be computed (errors[] name each field).',

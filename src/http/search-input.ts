@@ -15,5 +15,6 @@ export function toSearchInput(body: SearchRequest): SearchRequestInput {
     hierarchy: body.hierarchy,
     intercept: body.intercept,
     top: body.top,
+    responseTransform: body.responseTransform ?? null,
   };
 }

@@ -19,8 +19,8 @@ export function firstRows<T>(rows: readonly T[], limit: number): { shown: T[]; t
 }
 
 /** "Showing the first 50 of 100,000 …": null when nothing was left out. */
-export function leftOutNote(shown: number, total: number, what: string, recordId: string): Html | null {
+export function leftOutNote(shown: number, total: number, what: string, recordId: string, under = '/v1/comparisons'): Html | null {
   if (total <= shown) return null;
   return tag('p', { class: 'note', 'data-left-out': String(total - shown) },
-    `Showing the first ${formatCount(shown)} of ${formatCount(total)} ${what}; the stored record (GET /v1/comparisons/${recordId}) holds them all.`);
+    `Showing the first ${formatCount(shown)} of ${formatCount(total)} ${what}; the stored record (GET ${under}/${recordId}) holds them all.`);
 }

@@ -18,3 +18,6 @@ export { criterionNames } from './types.ts';
 export { storedComparisonView } from './stored-view.ts';
 export { REPORT_ROW_LIMITS } from './bounded-rows.ts';
 export type { StoredRecordLike } from './stored-view.ts';
+export { storedSearchView } from './search-view.ts';
+export type { StoredSearchView, SearchFacts } from './search-view.ts';
+export { renderSearchReportHtml, searchSentence, SEARCH_REPORT_ROW_LIMITS } from './search-report.ts';

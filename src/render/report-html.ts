@@ -96,6 +96,11 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
     chainSection(record, options.chain ?? defaultChainVerification),
     tag('footer', {}, 'Produced by parsimetry from the stored record; the numbers are those of the record, not recomputed for this page.'),
   );
+  return reportDocument(`${heading} · parsimetry report`, main);
+}
+
+/** The whole page around its main element: the policy, the style sheet and the title, nothing loaded from anywhere. */
+export function reportDocument(title: string, main: Html): string {
   const head = tag('head', {},
     raw('<meta charset="utf-8">'),
     raw(`<meta http-equiv="Content-Security-Policy" content="${reportContentSecurityPolicy}">`),
@@ -103,7 +108,7 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
     raw('<meta name="color-scheme" content="light">'),
     // An empty data: icon stops the browser asking the service for /favicon.ico.
     raw('<link rel="icon" href="data:,">'),
-    tag('title', {}, `${heading} · parsimetry report`),
+    tag('title', {}, title),
     raw(`<style>${reportStyle}</style>`),
   );
   return `<!DOCTYPE html>\n<html lang="en">${head.html}<body>${main.html}</body></html>\n`;

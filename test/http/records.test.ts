@@ -204,6 +204,54 @@ t.test('filters: fingerprint, caller, label and time range; searches are not lis
   t.same(await list('from=2026-03-01'), [5, 3, 2, 1]);
 });
 
+t.test('GET /v1/searches: the same filters and paging, searches only, each id under its own kind', async (t) => {
+  const start = Date.UTC(2026, 2, 1, 8, 0, 0);
+  const { app, store } = await appWithClock(t, start);
+  const fpA = 'sha256:' + 'a'.repeat(64);
+  const fpB = 'sha256:' + 'b'.repeat(64);
+  const search = (over: Partial<NewRecord>) => directRecord({ kind: 'search', result: { models: [{ name: 'peakTemp' }] }, ...over });
+  // One record per second from 08:00:00 (the store's clock above); comparisons interleaved with searches.
+  await store.append(search({ caller: 'key-east', datasetFingerprint: fpA, label: 'spring' })); // 1, 08:00:00
+  await store.append(directRecord({ caller: 'key-west', datasetFingerprint: fpA, label: 'spring' })); // 2, a comparison
+  await store.append(search({ caller: 'key-west', datasetFingerprint: fpA, label: 'autumn' })); // 3, 08:00:02
+  await store.append(search({ caller: 'key-west', datasetFingerprint: fpB, label: 'spring' })); // 4, 08:00:03
+  await store.append(directRecord({ caller: 'key-east', datasetFingerprint: fpB, label: null })); // 5, a comparison
+  await store.append(search({ caller: 'key-east', datasetFingerprint: fpB, label: null, result: { models: [] } })); // 6, 08:00:05
+  const list = async (query: string, path = '/v1/searches') => {
+    const res = await app.inject({ method: 'GET', url: `${path}?${query}` });
+    t.equal(res.statusCode, 200, `${query}: ${res.body.slice(0, 200)}`);
+    return res.json().records as { seq: number; kind: string; best: string | null; id: string }[];
+  };
+  const all = await list('');
+  t.same(all.map((r) => r.seq), [6, 4, 3, 1], 'searches only, newest first');
+  t.ok(all.every((r) => r.kind === 'search'));
+  t.same(all.map((r) => r.best), [null, 'peakTemp', 'peakTemp', 'peakTemp'], 'best: the first model\'s name (none without models)');
+  const comparisons = await list('', '/v1/comparisons');
+  t.same(comparisons.map((r) => r.seq), [5, 2], 'and no search among the comparisons');
+  t.notOk(comparisons.some((c) => all.some((s) => s.id === c.id)), 'no id in both listings');
+  t.same((await list(`fingerprint=${encodeURIComponent(fpA)}`)).map((r) => r.seq), [3, 1]);
+  t.same((await list('caller=key-west')).map((r) => r.seq), [4, 3]);
+  t.same((await list('label=pri')).map((r) => r.seq), [4, 1], 'label matches a substring');
+  t.same((await list('label=spring&caller=key-east')).map((r) => r.seq), [1], 'filters combine');
+  t.same((await list('from=2026-03-01T08:00:02Z&to=2026-03-01T08:00:05Z')).map((r) => r.seq), [4, 3], 'from inclusive, to exclusive');
+  const seen: number[] = [];
+  let cursor: string | null = null;
+  let pages = 0;
+  do {
+    const url: string = `/v1/searches?limit=3${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ''}`;
+    const page: { records: { seq: number }[]; nextCursor: string | null } = (await app.inject({ method: 'GET', url })).json();
+    seen.push(...page.records.map((r) => r.seq));
+    cursor = page.nextCursor;
+    pages += 1;
+  } while (cursor !== null && pages < 10);
+  t.same(seen, [6, 4, 3, 1], 'cursor pages cover every search once');
+  for (const [query, field] of [['limit=0', 'limit'], ['cursor=nope', 'cursor'], ['fingerprint=abc', 'fingerprint'], ['from=2026-03-02&to=2026-03-01', 'to']]) {
+    const res = await app.inject({ method: 'GET', url: `/v1/searches?${query}` });
+    t.equal(res.statusCode, 400, query);
+    t.equal(res.json().errors[0].path, field, `${query} names ${field}`);
+  }
+});
+
 t.test('every bad query is a 400 naming its field', async (t) => {
   const { app } = await appWithClock(t);
   const cases: [string, string][] = [

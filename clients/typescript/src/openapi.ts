@@ -304,6 +304,8 @@ export interface paths {
         /**
          * Stored comparisons, newest first, in pages
          * @description Filters combine (AND). Follow nextCursor until it is null to walk every match; a page may be shorter than limit only at the end.
+         *
+         *     Only comparisons are listed here; searches are at GET /v1/searches, with the same filters and paging.
          */
         get: {
             parameters: {
@@ -750,6 +752,226 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/v1/searches": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Stored searches, newest first, in pages
+         * @description Filters combine (AND). Follow nextCursor until it is null to walk every match; a page may be shorter than limit only at the end.
+         *
+         *     Only searches are listed here; comparisons are at GET /v1/comparisons, with the same filters and paging.
+         */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description nextCursor of the previous page; absent for the newest page. */
+                    cursor?: string;
+                    /** @description Page size, 1..100 in decimal digits (default 20). */
+                    limit?: string;
+                    /** @description Only records of this dataset.fingerprint ("sha256:" and 64 lowercase hex digits). */
+                    fingerprint?: string;
+                    /** @description Only records made by this API key id ("anonymous" without keys). */
+                    caller?: string;
+                    /** @description Only records whose label contains this text (case-sensitive); empty matches every record. */
+                    label?: string;
+                    /** @description Only records created at or after this instant (a date means its midnight UTC). */
+                    from?: string;
+                    /** @description Only records created before this instant. */
+                    to?: string;
+                };
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["SearchList"];
+                    };
+                };
+                /** @description Default Response */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description No API key, or one the service does not know (WWW-Authenticate: Bearer). */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key lacks the role this operation needs (the problem names it). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The request was not received within REQUEST_TIMEOUT_MS. */
+                408: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key exceeded RATE_LIMIT_PER_MINUTE, or this client address made more than AUTH_FAILURES_PER_MINUTE requests with a missing or unknown key (every keyed request from it waits out the minute). Retry-After says when to come back; the problem names the setting. */
+                429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        /**
+         * Score every subset of a pool of terms, refit the best and record the search
+         * @description Every subset of `pool` (with the `always` terms; with `hierarchy`, only subsets holding the terms a power or product is built from) is a candidate, scored on the workers of the compute pool (branch and bound beyond 2^24 subsets, with `proven` saying whether the top list is proven); the best `top` are refitted exactly and returned with their weights over every subset scored, and the search is appended to the audit chain. The example is the demo scenario (tile shrinkage, invented data).
+         *
+         *     With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start (priced over a limit, the compute queue full) are answered with their status as usual.
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["SearchRequestInput"];
+                };
+            };
+            responses: {
+                /** @description Default Response */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["SearchResult"];
+                    };
+                };
+                /** @description The body is not JSON, nests arrays and objects deeper than JSON_MAX_DEPTH (the problem names the depth, the limit and the path), writes a key twice in one object (I-JSON, RFC 7493), holds a refused key or text (__proto__, a lone UTF-16 surrogate, NUL), or does not match the schema. errors[].path names the place. */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description No API key, or one the service does not know (WWW-Authenticate: Bearer). */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key lacks the role this operation needs (the problem names it). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The request was not received within REQUEST_TIMEOUT_MS. */
+                408: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The body exceeds BODY_LIMIT_BYTES. */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Over a limit priced from the request's shape before any work — MAX_REQUEST_WORK, MAX_REQUEST_MEMORY_BYTES, MAX_DESIGN_COLUMNS, MAX_RESULT_BYTES (type urn:parsimetry:problem:work-limit, with the estimate, the limit and its setting) — or stopped at COMPUTE_DEADLINE_MS (urn:parsimetry:problem:compute-deadline) or out of a compute worker's heap (urn:parsimetry:problem:compute-memory); nothing is recorded. A new comparison or search is also refused with 422 when it is well-formed but cannot be computed (errors[] name each field). */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key exceeded RATE_LIMIT_PER_MINUTE, or this client address made more than AUTH_FAILURES_PER_MINUTE requests with a missing or unknown key (every keyed request from it waits out the minute). Retry-After says when to come back; the problem names the setting. */
+                429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Every compute worker is busy and COMPUTE_QUEUE_LENGTH requests already wait (urn:parsimetry:problem:compute-busy), the service is shedding load or shutting down, or the audit store cannot take the record; Retry-After says when to come back. */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/v1/comparisons/{id}/chart.svg": {
         parameters: {
             query?: never;
@@ -915,6 +1137,292 @@ export interface paths {
          *     Long tables are cut short so the page stays readable and bounded in size: the first 200 coefficients per model, 200 averaged terms and 50 averaged predictions, each with a note saying how many were left out; GET /v1/comparisons/{id} holds them all.
          *
          *     Cacheable for a year, like chart.svg; never cached when the record fails its integrity check.
+         */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
+                    size?: "tile" | "panel" | "print" | "wide";
+                    /** @description Width in pixels, 240..2400; overrides the size's. */
+                    width?: number;
+                    /** @description Height in pixels, 160..2400; default: as tall as the models need. Rows shrink to fit. */
+                    height?: number;
+                };
+                header?: never;
+                path: {
+                    /** @description The id POST /v1/comparisons (or, under /v1/searches, POST /v1/searches) returned. */
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The report (HTML5, UTF-8, printable). */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "text/html": string;
+                    };
+                };
+                /** @description Not modified: the copy the client holds (If-None-Match) is current. No body. */
+                304: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content?: never;
+                };
+                /** @description Default Response */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description No API key, or one the service does not know (WWW-Authenticate: Bearer). */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key lacks the role this operation needs (the problem names it). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The request was not received within REQUEST_TIMEOUT_MS. */
+                408: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key exceeded RATE_LIMIT_PER_MINUTE, or this client address made more than AUTH_FAILURES_PER_MINUTE requests with a missing or unknown key (every keyed request from it waits out the minute). Retry-After says when to come back; the problem names the setting. */
+                429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/searches/{id}/chart.svg": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A picture of the best subsets of a stored search, as SVG, for a dashboard to embed
+         * @description One row per listed subset, best first: its Δ from the best by the criterion the search ranked by (conventions.rankBy, the only criterion it can draw) against the dashed reference lines, and its weight beside it. Δ and weights are the search's own, over every subset it scored, so the weights drawn may sum to less than 100%.
+         *
+         *     Keys, shortened names, band wording, the integrity warning, the <title> and <desc>, and caching are as for GET /v1/comparisons/{id}/chart.svg.
+         *
+         *     Criteria rank the subsets; they do not validate a model. Defer to domain review and local rules.
+         */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
+                    size?: "tile" | "panel" | "print" | "wide";
+                    /** @description Width in pixels, 240..2400; overrides the size's. */
+                    width?: number;
+                    /** @description Height in pixels, 160..2400; default: as tall as the models need. Rows shrink to fit. */
+                    height?: number;
+                };
+                header?: never;
+                path: {
+                    /** @description The id POST /v1/comparisons (or, under /v1/searches, POST /v1/searches) returned. */
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The chart as SVG: no scripts and no external references; its title and desc say the ranking in words. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "image/svg+xml": string;
+                    };
+                };
+                /** @description Not modified: the copy the client holds (If-None-Match) is current. No body. */
+                304: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content?: never;
+                };
+                /** @description Default Response */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description No API key, or one the service does not know (WWW-Authenticate: Bearer). */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key lacks the role this operation needs (the problem names it). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The request was not received within REQUEST_TIMEOUT_MS. */
+                408: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key exceeded RATE_LIMIT_PER_MINUTE, or this client address made more than AUTH_FAILURES_PER_MINUTE requests with a missing or unknown key (every keyed request from it waits out the minute). Retry-After says when to come back; the problem names the setting. */
+                429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/searches/{id}/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * A self-contained HTML page of a stored search, for a person to read or print
+         * @description The integrity check made on reading the record, first; what was searched and which subset came first, in one sentence; the method, criterion, response scale, whether the list is proven, what was passed over and the budget; the chart; the best subsets with Δ, weight and evidence ratio; the importance of each pool term; the cautions; and the record's place in the audit chain.
+         *
+         *     Tables are bounded: the first 100 subsets and 60 pool terms, with a note saying how many were left out. No scripts and nothing loaded from anywhere; cacheable for a year, never cached when the record fails its integrity check.
+         *
+         *     Criteria rank the subsets; they do not validate a model. Defer to domain review and local rules.
          */
         get: {
             parameters: {
@@ -1390,7 +1898,7 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
-    "/v1/searches": {
+    "/v1/searches/{id}/replay": {
         parameters: {
             query?: never;
             header?: never;
@@ -1400,23 +1908,26 @@ export interface paths {
         get?: never;
         put?: never;
         /**
-         * Score every subset of a pool of terms, refit the best and record the search
-         * @description Every subset of `pool` (with the `always` terms; with `hierarchy`, only subsets holding the terms a power or product is built from) is a candidate, scored on the workers of the compute pool (branch and bound beyond 2^24 subsets, with `proven` saying whether the top list is proven); the best `top` are refitted exactly and returned with their weights over every subset scored, and the search is appended to the audit chain. The example is the demo scenario (tile shrinkage, invented data).
+         * Re-run a stored search with today's code and report which values changed and by how much
+         * @description Send no body (an empty body with a JSON content type is accepted too). The stored request is validated again under today's schema, priced and run on the compute pool like a new search under the team policy in force today, and every number, string, boolean and null of the result is compared with the stored one; models are matched by name, so a subset that moved shows as a change of its place. `policy` says whether that policy is the one recorded (same hash).
          *
-         *     With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start (priced over a limit, the compute queue full) are answered with their status as usual.
+         *     What a run measures rather than computes is left out of the comparison: `threads`, `budget.elapsedMs` and `budget.nodes` (branch-and-bound workers share their best bound, so the nodes visited depend on timing).
+         *
+         *     A replay appends no audit record and returns no new result id: it checks a record against today's code. To put today's answer on the record, POST the stored request to /v1/searches.
+         *
+         *     409 when the record kept only the request digest, or the stored request is no longer valid or computable today (the problem lists why); 422 when it is over today's limits or runs past COMPUTE_DEADLINE_MS.
          */
         post: {
             parameters: {
                 query?: never;
                 header?: never;
-                path?: never;
+                path: {
+                    /** @description The id POST /v1/comparisons (or, under /v1/searches, POST /v1/searches) returned. */
+                    id: string;
+                };
                 cookie?: never;
             };
-            requestBody: {
-                content: {
-                    "application/json": components["schemas"]["SearchRequestInput"];
-                };
-            };
+            requestBody?: never;
             responses: {
                 /** @description Default Response */
                 200: {
@@ -1424,10 +1935,10 @@ export interface paths {
                         [name: string]: unknown;
                     };
                     content: {
-                        "application/json": components["schemas"]["SearchResult"];
+                        "application/json": components["schemas"]["ReplayReport"];
                     };
                 };
-                /** @description The body is not JSON, nests arrays and objects deeper than JSON_MAX_DEPTH (the problem names the depth, the limit and the path), writes a key twice in one object (I-JSON, RFC 7493), holds a refused key or text (__proto__, a lone UTF-16 surrogate, NUL), or does not match the schema. errors[].path names the place. */
+                /** @description Default Response */
                 400: {
                     headers: {
                         [name: string]: unknown;
@@ -1454,6 +1965,15 @@ export interface paths {
                         "application/problem+json": components["schemas"]["Problem"];
                     };
                 };
+                /** @description Default Response */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
                 /** @description The request was not received within REQUEST_TIMEOUT_MS. */
                 408: {
                     headers: {
@@ -1463,17 +1983,8 @@ export interface paths {
                         "application/problem+json": components["schemas"]["Problem"];
                     };
                 };
-                /** @description The body exceeds BODY_LIMIT_BYTES. */
-                413: {
-                    headers: {
-                        [name: string]: unknown;
-                    };
-                    content: {
-                        "application/problem+json": components["schemas"]["Problem"];
-                    };
-                };
                 /** @description Default Response */
-                415: {
+                409: {
                     headers: {
                         [name: string]: unknown;
                     };
@@ -1492,6 +2003,15 @@ export interface paths {
                 };
                 /** @description The key exceeded RATE_LIMIT_PER_MINUTE, or this client address made more than AUTH_FAILURES_PER_MINUTE requests with a missing or unknown key (every keyed request from it waits out the minute). Retry-After says when to come back; the problem names the setting. */
                 429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                500: {
                     headers: {
                         [name: string]: unknown;
                     };
@@ -2277,6 +2797,31 @@ export interface components {
             /** @description Pass as cursor for the next, older page; null on the last page. */
             nextCursor: string | null;
         };
+        SearchListItemInput: {
+            id: string;
+            createdAt: string;
+            /** @constant */
+            kind: "search";
+            caller: string;
+            label: string | null;
+            datasetFingerprint: string | null;
+            /** @description The name of models[0]: the best subset under conventions.rankBy. */
+            best: string | null;
+            seq: number;
+            /** @description 64 lowercase hex characters (SHA-256). */
+            hash: string;
+        };
+        SearchListInput: {
+            /** @description Newest first (descending chain position). */
+            records: components["schemas"]["SearchListItemInput"][];
+            /** @description Rows on this page that no longer read back as records (damaged in the database); run GET /v1/audit/verify. Normally empty. */
+            unreadable: {
+                seq: number;
+                id: string | null;
+            }[];
+            /** @description Pass as cursor for the next, older page; null on the last page. */
+            nextCursor: string | null;
+        };
         VerifyReportInput: {
             ok: boolean;
             /** @description Records walked. */
@@ -2323,7 +2868,7 @@ export interface components {
                 stored: string;
                 now: string;
             };
-            /** @description The team policy recorded with the comparison (null for records made before policies) and the one the replay ran under. */
+            /** @description The team policy recorded with the comparison or search (null for records made before policies) and the one the replay ran under. */
             policy: {
                 stored: {
                     name: string;
@@ -2353,43 +2898,6 @@ export interface components {
             hash: string;
         } & {
             [key: string]: unknown;
-        };
-        /** @enum {string} */
-        SearchCriterionInput: "aicc" | "aic" | "bic" | "hqc";
-        SearchRequestInput: {
-            /** @description The rows (data.columns) or a data summary (data.summary); with a summary every term is a summarised column name. */
-            data: components["schemas"]["DataInput"] | components["schemas"]["SummaryDataInput"];
-            /** @description The name of a column of data.columns. */
-            response: string;
-            /** @description A weights column of data.columns (0 leaves a row out); a weighted summary carries its weights itself. */
-            weights?: string | null;
-            /** @description Every subset of the pool (with the always terms) is a candidate. */
-            pool: components["schemas"]["TermInput"][];
-            /**
-             * @description Terms in every candidate.
-             * @default []
-             */
-            always?: components["schemas"]["TermInput"][];
-            /**
-             * @description Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a×b needs a and b).
-             * @default false
-             */
-            hierarchy?: boolean;
-            /** @default true */
-            intercept?: boolean;
-            /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
-            rankBy?: components["schemas"]["SearchCriterionInput"];
-            /**
-             * @description How many of the best subsets to return, refitted.
-             * @default 20
-             */
-            top?: number;
-            /**
-             * @description Refuse (422) rather than fall back to branch and bound when scoring every subset is beyond the compute budget; with branch and bound the best models are exact when `proven` is true (the best found so far when the node budget ran out first), and weights cover only the evaluated subsets.
-             * @default false
-             */
-            exhaustive?: boolean;
-            label?: string;
         };
         SearchModelInput: {
             name: string;
@@ -2477,6 +2985,15 @@ export interface components {
                 hash: string;
             };
             dataset: components["schemas"]["DatasetInput"];
+            /** @description The transform of the response every subset describes (the request's responseTransform), with its log-Jacobian; null when the subsets describe the response itself. */
+            responseTransform: {
+                /** @enum {string} */
+                fn: "log" | "sqrt" | "boxcox";
+                /** @description Box–Cox λ (required for boxcox): (y^λ − 1)/λ, ln y at λ = 0. */
+                lambda?: number;
+                /** @description Σ ln g'(y) over the rows, added to every subset's log-likelihood. */
+                jacobian: number;
+            } | null;
             /** @enum {string} */
             method: "exhaustive" | "branchAndBound";
             /** @description Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded). */
@@ -2513,6 +3030,45 @@ export interface components {
                 weight: number;
             }[];
             cautions: components["schemas"]["CautionInput"][];
+        };
+        /** @enum {string} */
+        SearchCriterionInput: "aicc" | "aic" | "bic" | "hqc";
+        SearchRequestInput: {
+            /** @description The rows (data.columns) or a data summary (data.summary); with a summary every term is a summarised column name. */
+            data: components["schemas"]["DataInput"] | components["schemas"]["SummaryDataInput"];
+            /** @description The name of a column of data.columns. */
+            response: string;
+            /** @description A weights column of data.columns (0 leaves a row out); a weighted summary carries its weights itself. */
+            weights?: string | null;
+            /** @description Every subset of the pool (with the always terms) is a candidate. */
+            pool: components["schemas"]["TermInput"][];
+            /**
+             * @description Terms in every candidate.
+             * @default []
+             */
+            always?: components["schemas"]["TermInput"][];
+            /**
+             * @description Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a×b needs a and b).
+             * @default false
+             */
+            hierarchy?: boolean;
+            /** @default true */
+            intercept?: boolean;
+            /** @description Every subset describes g(response) instead of the response: fitted to the transformed values, scored with the Jacobian so AIC, AICc, BIC and HQC stay on the scale of the response (comparable with a search or comparison of the response itself). Needs data.columns: the Jacobian sums over the rows. */
+            responseTransform?: components["schemas"]["ResponseTransformInput"];
+            /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
+            rankBy?: components["schemas"]["SearchCriterionInput"];
+            /**
+             * @description How many of the best subsets to return, refitted.
+             * @default 20
+             */
+            top?: number;
+            /**
+             * @description Refuse (422) rather than fall back to branch and bound when scoring every subset is beyond the compute budget; with branch and bound the best models are exact when `proven` is true (the best found so far when the node budget ran out first), and weights cover only the evaluated subsets.
+             * @default false
+             */
+            exhaustive?: boolean;
+            label?: string;
         };
         ServiceStart: {
             /** @constant */
@@ -3137,6 +3693,31 @@ export interface components {
             /** @description Pass as cursor for the next, older page; null on the last page. */
             nextCursor: string | null;
         };
+        SearchListItem: {
+            id: string;
+            createdAt: string;
+            /** @constant */
+            kind: "search";
+            caller: string;
+            label: string | null;
+            datasetFingerprint: string | null;
+            /** @description The name of models[0]: the best subset under conventions.rankBy. */
+            best: string | null;
+            seq: number;
+            /** @description 64 lowercase hex characters (SHA-256). */
+            hash: string;
+        };
+        SearchList: {
+            /** @description Newest first (descending chain position). */
+            records: components["schemas"]["SearchListItem"][];
+            /** @description Rows on this page that no longer read back as records (damaged in the database); run GET /v1/audit/verify. Normally empty. */
+            unreadable: {
+                seq: number;
+                id: string | null;
+            }[];
+            /** @description Pass as cursor for the next, older page; null on the last page. */
+            nextCursor: string | null;
+        };
         VerifyReport: {
             ok: boolean;
             /** @description Records walked. */
@@ -3183,7 +3764,7 @@ export interface components {
                 stored: string;
                 now: string;
             };
-            /** @description The team policy recorded with the comparison (null for records made before policies) and the one the replay ran under. */
+            /** @description The team policy recorded with the comparison or search (null for records made before policies) and the one the replay ran under. */
             policy: {
                 stored: {
                     name: string;
@@ -3213,43 +3794,6 @@ export interface components {
             hash: string;
         } & {
             [key: string]: unknown;
-        };
-        /** @enum {string} */
-        SearchCriterion: "aicc" | "aic" | "bic" | "hqc";
-        SearchRequest: {
-            /** @description The rows (data.columns) or a data summary (data.summary); with a summary every term is a summarised column name. */
-            data: components["schemas"]["Data"] | components["schemas"]["SummaryData"];
-            /** @description The name of a column of data.columns. */
-            response: string;
-            /** @description A weights column of data.columns (0 leaves a row out); a weighted summary carries its weights itself. */
-            weights?: string | null;
-            /** @description Every subset of the pool (with the always terms) is a candidate. */
-            pool: components["schemas"]["Term"][];
-            /**
-             * @description Terms in every candidate.
-             * @default []
-             */
-            always: components["schemas"]["Term"][];
-            /**
-             * @description Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a×b needs a and b).
-             * @default false
-             */
-            hierarchy: boolean;
-            /** @default true */
-            intercept: boolean;
-            /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
-            rankBy?: components["schemas"]["SearchCriterion"];
-            /**
-             * @description How many of the best subsets to return, refitted.
-             * @default 20
-             */
-            top: number;
-            /**
-             * @description Refuse (422) rather than fall back to branch and bound when scoring every subset is beyond the compute budget; with branch and bound the best models are exact when `proven` is true (the best found so far when the node budget ran out first), and weights cover only the evaluated subsets.
-             * @default false
-             */
-            exhaustive: boolean;
-            label?: string;
         };
         SearchModel: {
             name: string;
@@ -3337,6 +3881,15 @@ export interface components {
                 hash: string;
             };
             dataset: components["schemas"]["Dataset"];
+            /** @description The transform of the response every subset describes (the request's responseTransform), with its log-Jacobian; null when the subsets describe the response itself. */
+            responseTransform: {
+                /** @enum {string} */
+                fn: "log" | "sqrt" | "boxcox";
+                /** @description Box–Cox λ (required for boxcox): (y^λ − 1)/λ, ln y at λ = 0. */
+                lambda?: number;
+                /** @description Σ ln g'(y) over the rows, added to every subset's log-likelihood. */
+                jacobian: number;
+            } | null;
             /** @enum {string} */
             method: "exhaustive" | "branchAndBound";
             /** @description Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded). */
@@ -3373,6 +3926,45 @@ export interface components {
                 weight: number;
             }[];
             cautions: components["schemas"]["Caution"][];
+        };
+        /** @enum {string} */
+        SearchCriterion: "aicc" | "aic" | "bic" | "hqc";
+        SearchRequest: {
+            /** @description The rows (data.columns) or a data summary (data.summary); with a summary every term is a summarised column name. */
+            data: components["schemas"]["Data"] | components["schemas"]["SummaryData"];
+            /** @description The name of a column of data.columns. */
+            response: string;
+            /** @description A weights column of data.columns (0 leaves a row out); a weighted summary carries its weights itself. */
+            weights?: string | null;
+            /** @description Every subset of the pool (with the always terms) is a candidate. */
+            pool: components["schemas"]["Term"][];
+            /**
+             * @description Terms in every candidate.
+             * @default []
+             */
+            always: components["schemas"]["Term"][];
+            /**
+             * @description Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a×b needs a and b).
+             * @default false
+             */
+            hierarchy: boolean;
+            /** @default true */
+            intercept: boolean;
+            /** @description Every subset describes g(response) instead of the response: fitted to the transformed values, scored with the Jacobian so AIC, AICc, BIC and HQC stay on the scale of the response (comparable with a search or comparison of the response itself). Needs data.columns: the Jacobian sums over the rows. */
+            responseTransform?: components["schemas"]["ResponseTransform"];
+            /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
+            rankBy?: components["schemas"]["SearchCriterion"];
+            /**
+             * @description How many of the best subsets to return, refitted.
+             * @default 20
+             */
+            top: number;
+            /**
+             * @description Refuse (422) rather than fall back to branch and bound when scoring every subset is beyond the compute budget; with branch and bound the best models are exact when `proven` is true (the best found so far when the node budget ran out first), and weights cover only the evaluated subsets.
+             * @default false
+             */
+            exhaustive: boolean;
+            label?: string;
         };
     };
     responses: never;

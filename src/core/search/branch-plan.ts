@@ -43,7 +43,7 @@ export function planBranchAndBound(problem: SubsetProblem, settings: SearchSetti
   const order = branchOrder(problem);
   const stepwise = stepwiseStart(problem, settings, order);
   const base = baseMatrix(problem);
-  const bound = new SubsetBound(problem, base, subsetScorer(settings.criterion, problem.observations, problem.logWeightSum), settings);
+  const bound = new SubsetBound(problem, base, subsetScorer(settings.criterion, problem.observations, problem.logWeightSum, problem.logJacobian), settings);
   const root = { decided: [] as number[], lower: emptyLayer(d), upper: emptyLayer(d) };
   const rootState = prefixState(problem, { order, decided: [] });
   prefixLayers(problem, base, { order, decided: [] }, root.lower, root.upper);

@@ -11,6 +11,7 @@ import { fitCandidate } from '../models/linear/fitted-model.ts';
 import type { ModelResult } from '../models/model-result.ts';
 import { conventions, ROWS_RANK_RULE, SWEEP_RANK_RULE, type Conventions } from '../comparison/conventions.ts';
 import type { Caution } from '../scoring/cautions.ts';
+import type { ResponseTransformSpec } from '../models/response-transform.ts';
 import { fitFromSummary, summaryModelResult } from '../summary/index.ts';
 import { subsetName, type PreparedSearch } from './request-problem.ts';
 import type { SearchOutcome } from './result.ts';
@@ -24,6 +25,8 @@ export interface SearchReport {
   conventions: Conventions;
   policy: { name: string; hash: string };
   dataset: { fingerprint: string; observations: number; rowsDropped: number; response: string; weights: string | null };
+  /** The transform every subset describes, with its Jacobian Σ ln g'(y); null for the response itself. */
+  responseTransform: (ResponseTransformSpec & { jacobian: number }) | null;
   models: SearchModel[];
   importance: { term: Term; label: string; weight: number }[];
   cautions: Caution[];
@@ -47,7 +50,8 @@ function refit(prepared: PreparedSearch, terms: Term[], poolIndices: number[]): 
     const built = buildDesign(source.columns, terms, input.intercept, source.rows);
     // The same design the search summarised, so it cannot fail here.
     if ('issues' in built) throw new Error(`refit of ${name}: ${built.issues[0].message}`);
-    return fitCandidate({ name, terms, intercept: input.intercept }, built.design, { values: source.y, jacobian: 0 }, source.weights).result;
+    const candidate = { name, terms, intercept: input.intercept, ...(input.responseTransform ? { response: input.responseTransform } : {}) };
+    return fitCandidate(candidate, built.design, { values: source.y, jacobian: source.jacobian }, source.weights).result;
   }
   const predictors = [...poolIndices.map((t) => source.pool[t]), ...source.always];
   const fit = fitFromSummary(source.summary, input.response, predictors, input.intercept);
@@ -115,6 +119,7 @@ export function searchReport(
       response: input.response,
       weights: source.kind === 'rows' ? input.weights : source.summary.weights ? '(summary)' : null,
     },
+    responseTransform: input.responseTransform && source.kind === 'rows' ? { ...input.responseTransform, jacobian: source.jacobian } : null,
     models,
     importance: perTerm.map((w, term) => ({
       term: input.pool[term],

@@ -7,6 +7,7 @@ import { datasetFingerprint } from '../fingerprint.ts';
 import { issue, type Issue, type IssueFacts, type IssuePath } from '../issues.ts';
 import type { Columns, DesignMatrix, Term } from '../types.ts';
 import { summaryFingerprint, summaryIssues, summaryPredictors, summaryResponseIssues, validateSummary, type DataSummary } from '../summary/index.ts';
+import { transformResponse, type ResponseTransformSpec } from '../models/response-transform.ts';
 import { hierarchyRules, noHierarchy, type HierarchyRules } from './hierarchy.ts';
 import { subsetProblemFromDesign, subsetProblemFromSummary } from './problem.ts';
 import type { SubsetProblem } from './types.ts';
@@ -22,11 +23,15 @@ export interface SearchRequestInput {
   hierarchy: boolean;
   intercept: boolean;
   top: number;
+  /** Every subset describes g(response) (needs rows: the Jacobian sums over them); null for the response itself. */
+  responseTransform?: ResponseTransformSpec | null;
 }
 
 export type SearchSource =
   | {
-      kind: 'rows'; columns: Columns; rows: number[]; y: Float64Array; weights: { values: Float64Array; sumLogWeights: number } | null;
+      kind: 'rows'; columns: Columns; rows: number[]; weights: { values: Float64Array; sumLogWeights: number } | null;
+      /** The response on the subsets' scale (transformed when the request says so) and Σ ln g'(y) (0 without a transform). */
+      y: Float64Array; jacobian: number;
       /** Rows left out, for a missing value or a zero weight; zeroWeights counts the latter. */
       dropped: number; zeroWeights: number;
     }
@@ -62,12 +67,18 @@ function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyR
   const varying = codingIssues(input, columns, rows, built.design);
   if (varying.length > 0) return { issues: varying };
   const weights = sample.weights;
-  const values = sample.y;
+  let scale = { values: sample.y, jacobian: 0 };
+  if (input.responseTransform) {
+    const transformed = transformResponse(sample.y, rows, input.responseTransform, ['responseTransform']);
+    if ('issues' in transformed) return transformed;
+    scale = transformed;
+  }
+  const problem = subsetProblemFromDesign(built.design, scale.values, weights?.values ?? null, input.pool.length, rules);
   return {
     input,
     rules,
-    problem: subsetProblemFromDesign(built.design, values, weights?.values ?? null, input.pool.length, rules),
-    source: { kind: 'rows', columns, rows, y: values, weights, dropped, zeroWeights },
+    problem: { ...problem, logJacobian: scale.jacobian },
+    source: { kind: 'rows', columns, rows, y: scale.values, jacobian: scale.jacobian, weights, dropped, zeroWeights },
     fingerprint: datasetFingerprint({ columns, response: input.response, weights: input.weights, used, rows }),
   };
 }
@@ -119,6 +130,10 @@ function codingIssues(input: SearchRequestInput, columns: Columns, rows: number[
 }
 
 function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
+  if (input.responseTransform) {
+    // The summary holds cross products of y, not of g(y), and the Jacobian sums ln g'(y) over rows it does not carry.
+    return { issues: [issue('summary_rows_needed', ['responseTransform'], { form: 'a response transform', reason: 'its Jacobian sums ln g\'(y) over the rows' })] };
+  }
   const invalid = validateSummary(summary);
   if (invalid.length > 0) return { issues: summaryIssues(invalid) };
   const issues = summaryResponseIssues(summary, input.response);

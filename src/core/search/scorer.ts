@@ -20,9 +20,9 @@ export type SubsetScorer = (rss: number, parameters: number) => number;
 const NO_R2 = { undefinedBecause: 'r2_unavailable' } as const;
 
 /** The criterion through the shared code, for any rss > 0; NaN when undefined. */
-export function sharedCriterion(criterion: SearchCriterion, observations: number, logWeightSum: number, rss: number, k: number): number {
+export function sharedCriterion(criterion: SearchCriterion, observations: number, logWeightSum: number, rss: number, k: number, logJacobian = 0): number {
   const summary: FitSummary = {
-    logLikelihood: gaussianLogLikelihood({ n: observations, rss, sumLogWeights: logWeightSum }),
+    logLikelihood: gaussianLogLikelihood({ n: observations, rss, sumLogWeights: logWeightSum, jacobian: logJacobian }),
     parameters: k,
     observations,
     rss,
@@ -34,13 +34,14 @@ export function sharedCriterion(criterion: SearchCriterion, observations: number
   return 'value' in out ? out.value : NaN;
 }
 
-export function subsetScorer(criterion: SearchCriterion, observations: number, logWeightSum: number): SubsetScorer {
+/** The Jacobian of a response transform is a constant of the log-likelihood, so it lives in the offsets with the other constants. */
+export function subsetScorer(criterion: SearchCriterion, observations: number, logWeightSum: number, logJacobian = 0): SubsetScorer {
   const n = observations;
   const offsets: number[] = [];
   const offset = (k: number): number => {
     let v = offsets[k];
     if (v === undefined) {
-      v = sharedCriterion(criterion, n, logWeightSum, 1, k);
+      v = sharedCriterion(criterion, n, logWeightSum, 1, k, logJacobian);
       offsets[k] = v;
     }
     return v;

@@ -38,7 +38,7 @@ export class SubsetTally {
   ) {
     this.top = new TopModels(settings.top);
     this.sums = new WeightSums(problem.poolBlocks.length);
-    this.score = subsetScorer(settings.criterion, problem.observations, problem.logWeightSum);
+    this.score = subsetScorer(settings.criterion, problem.observations, problem.logWeightSum, problem.logJacobian);
   }
 
   /**

@@ -14,6 +14,12 @@ export interface SubsetProblem {
   observations: number;
   /** sum(ln w) for weighted least squares, 0 without weights. */
   logWeightSum: number;
+  /**
+   * Σ ln g'(y) when the subsets describe a transformed response g(y) (0 or
+   * absent otherwise): added to every subset's log-likelihood so the scores
+   * are on the scale of y, as a comparison's are (comparison/response-transform.ts).
+   */
+  logJacobian?: number;
   intercept: boolean;
   dimension: number;
   crossProducts: Float64Array;

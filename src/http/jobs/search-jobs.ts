@@ -62,7 +62,7 @@ export function searchPrepareJob(job: SearchPrepareJob): { prepared: PreparedInT
   const largestK = problem.dimension - 1 + (problem.intercept ? 1 : 0) + 1;
   const choice = searchRankBy(job.body.rankBy, job.policy.policy, problem.observations / largestK);
   const inTransit: SourceInTransit = source.kind === 'rows'
-    ? { kind: 'rows', rows: Int32Array.from(source.rows), y: source.y, weights: source.weights, dropped: source.dropped, zeroWeights: source.zeroWeights }
+    ? { kind: 'rows', rows: Int32Array.from(source.rows), y: source.y, jacobian: source.jacobian, weights: source.weights, dropped: source.dropped, zeroWeights: source.zeroWeights }
     : source;
   return { prepared: { ...rest, problem, source: inTransit, choice, plan } };
 }

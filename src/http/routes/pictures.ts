@@ -18,7 +18,7 @@ import { createHash } from 'node:crypto';
 import type { FastifyReply, FastifyRequest, FastifySchemaCompiler } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import type { AuditStore } from '../../audit/store.ts';
+import type { AuditStore, RecordKind, StoredRecord } from '../../audit/store.ts';
 import {
   chartContentSecurityPolicy,
   criterionNames,
@@ -57,7 +57,7 @@ export const reportPolicyHeader = `${reportContentSecurityPolicy}; frame-ancesto
 // own parseChartOptions (which also knows which criteria the record ranked),
 // so the route lets the query through unvalidated and validates the id as usual.
 const presetNames = Object.keys(sizePresets) as [string, ...string[]];
-const PictureQuery = z.strictObject({
+export const PictureQuery = z.strictObject({
   criterion: z.enum(criterionNames).optional().meta({
     description: 'The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy).',
   }),
@@ -71,11 +71,23 @@ const PictureQuery = z.strictObject({
 });
 
 // Typed loosely: fastify types a route-level compiler by that route's inferred schema.
-const paramsOnly: FastifySchemaCompiler<any> = (route) =>
+export const paramsOnly: FastifySchemaCompiler<any> = (route) =>
   route.httpPart === 'querystring' ? (data) => ({ value: data }) : zodValidatorCompiler(route);
 
 const problemResponses = { 400: ProblemSchema, 404: ProblemSchema, 422: ProblemSchema, 500: ProblemSchema, 503: ProblemSchema };
 const notModified = z.null().meta({ description: 'Not modified: the copy the client holds (If-None-Match) is current. No body.' });
+
+/** The answers of every chart.svg and every report, a comparison's or a search's. */
+export const chartResponses = {
+  200: { description: 'The chart as SVG: no scripts and no external references; its title and desc say the ranking in words.', content: { 'image/svg+xml': { schema: z.string() } } },
+  304: notModified,
+  ...problemResponses,
+};
+export const reportResponses = {
+  200: { description: 'The report (HTML5, UTF-8, printable).', content: { 'text/html': { schema: z.string() } } },
+  304: notModified,
+  ...problemResponses,
+};
 
 function optionsProblem(reply: FastifyReply, issues: ChartOptionIssue[]): FastifyReply {
   // A record without any ranking is not the caller's fault: nothing in the query could fix it.
@@ -88,17 +100,23 @@ function optionsProblem(reply: FastifyReply, issues: ChartOptionIssue[]): Fastif
     problem(400, problemTypes.invalidRequest, 'The request does not match the schema', detail, { errors: issues }));
 }
 
-/** The record and the chart options, or null with the problem already sent. */
-async function recordAndOptions(
+/**
+ * The record read as `kind` (integrity checked), turned into its view, and the
+ * chart options checked against the rankings that view draws; or null with the
+ * problem already sent.
+ */
+export async function recordAndOptions<V>(
   store: AuditStore,
-  id: string,
-  query: unknown,
+  request: { params: { id: string }; query: unknown },
   reply: FastifyReply,
-): Promise<{ view: StoredComparisonView; options: ChartOptions; integrity: RecordIntegrity } | null> {
-  const read = await readRecord(store, id, reply, 'comparison');
+  kind: RecordKind,
+  viewOf: (record: StoredRecord, result: Record<string, unknown>, integrity: RecordIntegrity) => V,
+  drawn: (view: V) => StoredComparisonView,
+): Promise<{ view: V; options: ChartOptions; integrity: RecordIntegrity } | null> {
+  const read = await readRecord(store, request.params.id, reply, kind);
   if (!read) return null;
-  const view = storedComparisonView(read.record, answeredResult(read.record), read.integrity);
-  const parsed = parseChartOptions((query ?? {}) as Record<string, unknown>, view);
+  const view = viewOf(read.record, answeredResult(read.record), read.integrity);
+  const parsed = parseChartOptions((request.query ?? {}) as Record<string, unknown>, drawn(view));
   if (!parsed.ok) {
     optionsProblem(reply, parsed.issues);
     return null;
@@ -106,7 +124,10 @@ async function recordAndOptions(
   return { view, options: parsed.options, integrity: read.integrity };
 }
 
-function sendPicture(request: FastifyRequest, reply: FastifyReply, body: string, contentType: string, policy: string, intact: boolean): FastifyReply {
+const comparisonPicture = (store: AuditStore, request: { params: { id: string }; query: unknown }, reply: FastifyReply) =>
+  recordAndOptions(store, request, reply, 'comparison', storedComparisonView, (view) => view);
+
+export function sendPicture(request: FastifyRequest, reply: FastifyReply, body: string, contentType: string, policy: string, intact: boolean): FastifyReply {
   const etag = `"${createHash('sha256').update(body).digest('base64url').slice(0, 32)}"`;
   const scope = request.headers.authorization === undefined ? 'public' : 'private';
   reply.header('cache-control', intact ? `${scope}, ${IMMUTABLE}` : 'no-store').header('etag', etag).header('content-security-policy', policy);
@@ -133,14 +154,10 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
-      response: {
-        200: { description: 'The chart as SVG: no scripts and no external references; its title and desc say the ranking in words.', content: { 'image/svg+xml': { schema: z.string() } } },
-        304: notModified,
-        ...problemResponses,
-      },
+      response: chartResponses,
     },
   }, async (request, reply) => {
-    const found = await recordAndOptions(store, request.params.id, request.query, reply);
+    const found = await comparisonPicture(store, request, reply);
     if (!found) return reply;
     return sendPicture(request, reply, renderChartSvg(found.view, found.options), SVG_CONTENT_TYPE, chartPolicyHeader, found.integrity.ok);
   });
@@ -158,14 +175,10 @@ export const pictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async
       ].join('\n\n'),
       params: RecordParams,
       querystring: PictureQuery,
-      response: {
-        200: { description: 'The report (HTML5, UTF-8, printable).', content: { 'text/html': { schema: z.string() } } },
-        304: notModified,
-        ...problemResponses,
-      },
+      response: reportResponses,
     },
   }, async (request, reply) => {
-    const found = await recordAndOptions(store, request.params.id, request.query, reply);
+    const found = await comparisonPicture(store, request, reply);
     if (!found) return reply;
     const html = renderReportHtml(found.view, { chartSvg: renderChartSvg(found.view, found.options) });
     return sendPicture(request, reply, html, HTML_CONTENT_TYPE, reportPolicyHeader, found.integrity.ok);

@@ -1,5 +1,5 @@
 // Reading the audit record back: one stored comparison or search, each checked
-// for integrity as it is read, and pages of comparisons.
+// for integrity as it is read, and pages of comparisons or of searches.
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { AuditCursorInvalid, AuditQueryInvalid, AuditRecordCorrupt, AuditUnavailable } from '../../audit/errors.ts';
@@ -7,7 +7,7 @@ import { recordIntegrity, type RecordIntegrity } from '../../audit/integrity.ts'
 import type { AuditStore, RecordKind, StoredRecord } from '../../audit/store.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
-import { ComparisonList, ListQuerySchema, RecordParams, StoredComparison, StoredSearch } from '../schemas/record.ts';
+import { ComparisonList, ListQuerySchema, RecordParams, SearchList, StoredComparison, StoredSearch } from '../schemas/record.ts';
 
 /**
  * A store failure while reading, as a reply: an unreachable store is 503 (try
@@ -165,42 +165,45 @@ export const recordRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = async 
   });
 
 
-  app.get('/v1/comparisons', {
-    schema: {
-      tags: ['audit'],
-      summary: 'Stored comparisons, newest first, in pages',
-      description:
-        'Filters combine (AND). Follow nextCursor until it is null to walk every match; a page may be shorter than limit only at the end.',
-      querystring: ListQuerySchema,
-      response: { 200: ComparisonList, 400: ProblemSchema, 503: ProblemSchema },
-    },
-  }, async (request, reply) => {
-    const q = request.query;
-    let page;
-    try {
-      page = await store.list({ ...q, kind: 'comparison' });
-    } catch (error) {
-      if (error instanceof AuditCursorInvalid) return queryProblem(reply, 'cursor', 'not a cursor this service issued; start again without one');
-      if (error instanceof AuditQueryInvalid) {
-        const [field, ...rest] = error.problems[0].split(': ');
-        return queryProblem(reply, field, rest.join(': ') || error.message);
+  for (const kind of ['comparison', 'search'] as const) {
+    app.get(recordPaths[kind], {
+      schema: {
+        tags: [kind === 'comparison' ? 'audit' : 'searches'],
+        summary: `Stored ${kind === 'comparison' ? 'comparisons' : 'searches'}, newest first, in pages`,
+        description: [
+          'Filters combine (AND). Follow nextCursor until it is null to walk every match; a page may be shorter than limit only at the end.',
+          `Only ${kind === 'comparison' ? 'comparisons' : 'searches'} are listed here; ${kind === 'comparison' ? 'searches are at GET /v1/searches' : 'comparisons are at GET /v1/comparisons'}, with the same filters and paging.`,
+        ].join('\n\n'),
+        querystring: ListQuerySchema,
+        response: { 200: kind === 'comparison' ? ComparisonList : SearchList, 400: ProblemSchema, 503: ProblemSchema },
+      },
+    }, async (request, reply) => {
+      let page;
+      try {
+        page = await store.list({ ...request.query, kind });
+      } catch (error) {
+        if (error instanceof AuditCursorInvalid) return queryProblem(reply, 'cursor', 'not a cursor this service issued; start again without one');
+        if (error instanceof AuditQueryInvalid) {
+          const [field, ...rest] = error.problems[0].split(': ');
+          return queryProblem(reply, field, rest.join(': ') || error.message);
+        }
+        return replyToStoreReadError(error, reply);
       }
-      return replyToStoreReadError(error, reply);
-    }
-    return reply.code(200).send({
-      records: page.records.map((r) => ({
-        id: r.id,
-        createdAt: r.createdAt,
-        kind: 'comparison' as const,
-        caller: r.caller,
-        label: r.label,
-        datasetFingerprint: r.datasetFingerprint,
-        best: r.best,
-        seq: r.seq,
-        hash: r.hash,
-      })),
-      unreadable: page.corrupt.map((c) => ({ seq: c.seq, id: c.id })),
-      nextCursor: page.nextCursor,
+      return reply.code(200).send({
+        records: page.records.map((r) => ({
+          id: r.id,
+          createdAt: r.createdAt,
+          kind,
+          caller: r.caller,
+          label: r.label,
+          datasetFingerprint: r.datasetFingerprint,
+          best: r.best,
+          seq: r.seq,
+          hash: r.hash,
+        })),
+        unreadable: page.corrupt.map((c) => ({ seq: c.seq, id: c.id })),
+        nextCursor: page.nextCursor,
+      });
     });
-  });
+  }
 };

@@ -13,19 +13,14 @@ import { SearchRequest } from '../schemas/search-request.ts';
 import { SearchResult } from '../schemas/search-response.ts';
 import { requestDigestOfParsed, type JsonValue } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
-import type { ComputeSession } from '../../compute/index.ts';
-import type { Issue } from '../../core/issues.ts';
-import { DEFAULT_SEARCH_BUDGET, type SearchBudget } from '../../core/search/index.ts';
-import { runSearch, type SearchProgress } from '../../search/workers/index.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 import { serviceVersion } from '../../version.ts';
 import { keptRequest } from '../audit-append.ts';
 import { watchClient } from '../compute/client-gone.ts';
 import { priceSearchRequest } from '../compute/price-request.ts';
 import { CLIENT_GONE, inSession, type ComputeService } from '../compute/run.ts';
-import type { JobResults } from '../jobs/index.ts';
-import { budgetIssue, type SearchAnswer } from '../jobs/search-jobs.ts';
-import { forWorker } from '../jobs/transport.ts';
+import type { SearchAnswer } from '../jobs/search-jobs.ts';
+import { computeSearch } from '../compute/search-run.ts';
 import { Refusal } from '../plugins/refusal.ts';
 import { issuesProblem, problem, problemTypes, PROBLEM_CONTENT_TYPE, type Problem } from '../problems.ts';
 import { EventStream, wantsEventStream } from '../sse.ts';
@@ -42,36 +37,6 @@ const PROGRESS_INTERVAL_MS = 250;
 
 const storeProblem = (): Problem =>
   problem(503, problemTypes.storeUnavailable, 'Audit store unavailable', 'the search was computed but could not be recorded, so no result is returned; retry later');
-
-type Computed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Problem };
-
-type Prepared = Extract<JobResults['searchPrepare'], { prepared: unknown }>['prepared'];
-
-/** Score and report a prepared search, every piece on the pool's workers. */
-async function scoreAndReport(session: ComputeSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<Computed> {
-  const { problem: subsets, choice } = prepared;
-  const started = performance.now();
-  // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
-  const run = await runSearch(subsets, { criterion: choice.rankBy, top: body.top, rankDeficient: 'skip' }, {
-    run: (task) => session.runOn({ kind: 'searchTask', task }),
-    parallelism: compute.pool.size,
-    budget,
-    exhaustive: body.exhaustive,
-    onProgress,
-  });
-  if (!run.ok) {
-    // A node budget narrowed by the price comes from the work cap: name its setting too.
-    const narrowed = run.issue.facts.budget === 'maxNodes' && budget.maxNodes < DEFAULT_SEARCH_BUDGET.maxNodes;
-    return { issues: [narrowed ? { ...budgetIssue(run.issue), setting: 'MAX_REQUEST_WORK' } as Issue : budgetIssue(run.issue)] };
-  }
-  const elapsedMs = performance.now() - started;
-  const report = await session.run<JobResults['searchReport']>(forWorker({
-    kind: 'searchReport', body, policy, prepared, outcome: run.outcome,
-    run: { threads: run.threads, elapsedMs, budget: run.budget, estimatedFlops: run.estimatedFlops },
-    resultCap: compute.caps.resultBytes,
-  }));
-  return 'result' in report ? { answer: report.result } : report;
-}
 
 export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (app, { store, config, policy, compute }) => {
   app.post('/v1/searches', {
@@ -98,23 +63,23 @@ export const searchRoutes: FastifyPluginAsyncZod<SearchRouteOptions> = async (ap
       return reply;
     };
     try {
-      const computed = await inSession(compute.pool, reply, watch, async (session): Promise<Computed> => {
-        const prepared = await session.run<JobResults['searchPrepare']>(forWorker({ kind: 'searchPrepare', body, policy, budget: priced.budget }));
-        if ('issues' in prepared) return prepared;
+      let lastProgress = 0;
+      const computed = await inSession(compute.pool, reply, watch, (session) => computeSearch(session, { body, policy, budget: priced.budget, compute }, {
         // Admitted and prepared: only now does the answer become a stream, so a full queue is still a plain 503
         // and a request that cannot start a plain 422.
-        const stream = wantsEventStream(request.headers.accept) ? new EventStream(reply, () => session.cancel()) : null;
-        answering.stream = stream;
-        let lastProgress = 0;
-        stream?.send('progress', { covered: 0, total: 2 ** body.pool.length, nodes: 0, bound: null });
-        return scoreAndReport(session, prepared.prepared, body, policy, priced.budget, compute, (p) => {
+        onPrepared: () => {
+          const stream = wantsEventStream(request.headers.accept) ? new EventStream(reply, () => session.cancel()) : null;
+          answering.stream = stream;
+          stream?.send('progress', { covered: 0, total: 2 ** body.pool.length, nodes: 0, bound: null });
+        },
+        onProgress: (p) => {
           const now = performance.now();
-          if (stream && now - lastProgress >= PROGRESS_INTERVAL_MS) {
+          if (answering.stream && now - lastProgress >= PROGRESS_INTERVAL_MS) {
             lastProgress = now;
-            stream.send('progress', { covered: p.covered, total: p.total, nodes: p.nodes, bound: p.bound });
+            answering.stream.send('progress', { covered: p.covered, total: p.total, nodes: p.nodes, bound: p.bound });
           }
-        });
-      });
+        },
+      }));
       if (computed === CLIENT_GONE || watch.gone) {
         request.log.info('search abandoned: the client went away before its answer; nothing recorded');
         return reply;

@@ -111,29 +111,39 @@ export const StoredSearch = StoredComparison.extend({
   result: jsonObject.meta({ description: 'The result exactly as POST /v1/searches answered it.' }),
 }).meta({ id: 'StoredSearch' });
 
-export const ComparisonListItem = z
-  .strictObject({
-    id: z.string(),
-    createdAt: z.string(),
-    kind: z.literal('comparison'),
-    caller: z.string(),
-    label: z.string().nullable(),
-    datasetFingerprint: z.string().nullable(),
-    best: z.string().nullable().meta({ description: 'verdict.chosen: the best model under the request\'s rankBy.' }),
-    seq: z.number().int(),
-    hash: hex64,
-  })
-  .meta({ id: 'ComparisonListItem' });
+/** One row of a listing: read from the narrow listing table, never from the stored request or result. */
+function listItem(kind: 'comparison' | 'search', best: string, id: string) {
+  return z
+    .strictObject({
+      id: z.string(),
+      createdAt: z.string(),
+      kind: z.literal(kind),
+      caller: z.string(),
+      label: z.string().nullable(),
+      datasetFingerprint: z.string().nullable(),
+      best: z.string().nullable().meta({ description: best }),
+      seq: z.number().int(),
+      hash: hex64,
+    })
+    .meta({ id });
+}
 
-export const ComparisonList = z
-  .strictObject({
-    records: z.array(ComparisonListItem).meta({ description: 'Newest first (descending chain position).' }),
-    unreadable: z
-      .array(z.strictObject({ seq: z.number().int(), id: z.string().nullable() }))
-      .meta({ description: 'Rows on this page that no longer read back as records (damaged in the database); run GET /v1/audit/verify. Normally empty.' }),
-    nextCursor: z.string().nullable().meta({ description: 'Pass as cursor for the next, older page; null on the last page.' }),
-  })
-  .meta({ id: 'ComparisonList' });
+function recordList(item: ReturnType<typeof listItem>, id: string) {
+  return z
+    .strictObject({
+      records: z.array(item).meta({ description: 'Newest first (descending chain position).' }),
+      unreadable: z
+        .array(z.strictObject({ seq: z.number().int(), id: z.string().nullable() }))
+        .meta({ description: 'Rows on this page that no longer read back as records (damaged in the database); run GET /v1/audit/verify. Normally empty.' }),
+      nextCursor: z.string().nullable().meta({ description: 'Pass as cursor for the next, older page; null on the last page.' }),
+    })
+    .meta({ id });
+}
+
+export const ComparisonListItem = listItem('comparison', 'verdict.chosen: the best model under the request\'s rankBy.', 'ComparisonListItem');
+export const ComparisonList = recordList(ComparisonListItem, 'ComparisonList');
+export const SearchListItem = listItem('search', 'The name of models[0]: the best subset under conventions.rankBy.', 'SearchListItem');
+export const SearchList = recordList(SearchListItem, 'SearchList');
 
 export const VerifyReportSchema = z
   .strictObject({
@@ -181,7 +191,7 @@ export const ReplayReport = z
     serviceVersion: VersionPair,
     conventionsVersion: VersionPair,
     policy: z.strictObject({ stored: PolicyRefSchema.nullable(), now: PolicyRefSchema }).meta({
-      description: 'The team policy recorded with the comparison (null for records made before policies) and the one the replay ran under.',
+      description: 'The team policy recorded with the comparison or search (null for records made before policies) and the one the replay ran under.',
     }),
     identical: z.boolean().meta({ description: 'Every value of the result is reproduced exactly.' }),
     valuesCompared: z.number().int(),

@@ -2,7 +2,7 @@
 // of terms every subset of which is a candidate, and how to rank them.
 import { z } from 'zod';
 import { ColumnName, Term } from './common.ts';
-import { DataSchema, WeightsColumn } from './comparison-request.ts';
+import { DataSchema, ResponseTransform, WeightsColumn } from './comparison-request.ts';
 import { SummaryData } from './summary.ts';
 
 export const MAX_POOL_TERMS = 60;
@@ -25,6 +25,9 @@ export const SearchRequest = z
     always: z.array(Term).max(200).default([]).meta({ description: 'Terms in every candidate.' }),
     hierarchy: z.boolean().default(false).meta({ description: 'Admit a power or product only with every lower-order term it is built from (x^3 needs x and x^2; a×b needs a and b).' }),
     intercept: z.boolean().default(true),
+    responseTransform: ResponseTransform.optional().meta({
+      description: 'Every subset describes g(response) instead of the response: fitted to the transformed values, scored with the Jacobian so AIC, AICc, BIC and HQC stay on the scale of the response (comparable with a search or comparison of the response itself). Needs data.columns: the Jacobian sums over the rows.',
+    }),
     rankBy: SearchCriterionSchema.optional().meta({ description: 'Default from the team policy (aicc when the policy ranks by adjustedR2).' }),
     top: z.number().int().min(1).max(100).default(20).meta({ description: 'How many of the best subsets to return, refitted.' }),
     exhaustive: z.boolean().default(false).meta({

@@ -3,6 +3,7 @@
 // evaluated subset; term importance; the budget the search ran under.
 import { z } from 'zod';
 import { Term } from './common.ts';
+import { ResponseTransform } from './comparison-request.ts';
 import { Caution, Conventions, Dataset, ModelResult } from './comparison-response.ts';
 
 export const SearchModel = ModelResult.extend({
@@ -30,6 +31,9 @@ export const SearchResult = z
     conventions: Conventions,
     policy: z.strictObject({ name: z.string(), hash: z.string() }),
     dataset: Dataset,
+    responseTransform: ResponseTransform.extend({ jacobian: z.number().meta({ description: 'Σ ln g\'(y) over the rows, added to every subset\'s log-likelihood.' }) })
+      .nullable()
+      .meta({ description: 'The transform of the response every subset describes (the request\'s responseTransform), with its log-Jacobian; null when the subsets describe the response itself.' }),
     method: z.enum(['exhaustive', 'branchAndBound']),
     evaluated: z.number().int().meta({ description: 'Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded).' }),
     subsets: z.number().int().meta({ description: '2^m: every subset of the pool.' }),

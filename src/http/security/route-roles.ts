@@ -27,12 +27,16 @@ export const routeRoles: Readonly<Record<string, Access>> = Object.freeze({
   'POST /v1/summaries': role('score'),
   'GET /v1/comparisons': role('read'),
   'GET /v1/comparisons/:id': role('read'),
+  'GET /v1/searches': role('read'),
   'GET /v1/searches/:id': role('read'),
+  'GET /v1/searches/:id/chart.svg': role('read'),
+  'GET /v1/searches/:id/report': role('read'),
   'GET /v1/audit/records/:id': role('read'),
   'GET /v1/comparisons/:id/chart.svg': role('read'),
   'GET /v1/comparisons/:id/report': role('read'),
   'GET /v1/audit/verify': role('admin'),
   'POST /v1/comparisons/:id/replay': role('admin'),
+  'POST /v1/searches/:id/replay': role('admin'),
 });
 
 /** Everything the interactive documentation serves (its page, assets, JSON and YAML). */
