@@ -10,9 +10,11 @@ import { datasetFingerprint } from '../fingerprint.ts';
 import { chooseRankBy, type Policy } from '../scoring/policy.ts';
 import type { Columns } from '../types.ts';
 import type { ModelResult } from '../models/model-result.ts';
-import { scoreCandidates, type CandidateInput } from '../models/registry.ts';
+import { kindConventions, scoreCandidates, type CandidateInput } from '../models/registry.ts';
 import type { ScoringContext } from '../models/scoring-context.ts';
 import { estimationIssues } from './estimation-rules.ts';
+import { measureMixIssue } from './measure-mix.ts';
+import { glmExtraColumns } from '../models/glm/candidate.ts';
 import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
 import { checksCaution, comparisonCautions, type Caution } from '../scoring/cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
@@ -51,6 +53,14 @@ export interface ComparisonOutcome {
   cautions: Caution[];
 }
 
+/** The data columns a candidate reads besides the response and weights: its terms, and a GLM's offset and trials. */
+function candidateColumns(c: CandidateInput): string[] {
+  if (c.form === 'fit') return columnsUsedBy(c.terms);
+  if (c.form === 'glm') return [...columnsUsedBy(c.terms), ...glmExtraColumns(c)];
+  if (c.form === 'fitted') return glmExtraColumns(c);
+  return [];
+}
+
 type Rows = { ctx: ScoringContext; dropped: number; used: string[]; missingWeights: number; zeroWeights: number };
 
 /** The rows, response and weights every candidate is scored on. */
@@ -58,7 +68,8 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
   const { columns, candidates } = input;
   if (!columns || input.response === null) {
     candidates.forEach((c, i) => {
-      if (c.form === 'fit' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'fit' ? 'a candidate fitted here' : 'a response transform' }));
+      if (c.form === 'fit' || c.form === 'glm' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
+      if (c.form === 'fitted') issues.push(issue('data_required', ['candidates', i], { form: 'a candidate sent by its fitted means' }));
     });
     if (input.weights) issues.push(issue('data_required', ['weights'], { form: 'a weights column' }));
     const first = candidates[0];
@@ -66,7 +77,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
     const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
     return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [], missingWeights: 0, zeroWeights: 0 };
   }
-  const termColumns = [...new Set(candidates.flatMap((c) => (c.form === 'fit' ? columnsUsedBy(c.terms) : [])))];
+  const termColumns = [...new Set(candidates.flatMap(candidateColumns))];
   const sample = sampleRows(columns, input.response, input.weights, termColumns);
   if ('issues' in sample) {
     issues.push(...sample.issues);
@@ -100,6 +111,8 @@ export function compareModels(
 
   const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
+  const mixed = issues.length === 0 ? measureMixIssue(scored) : null;
+  if (mixed) issues.push(mixed);
 
   if (issues.length > 0) return { issues };
   // Only once every used column is known to exist and hold values on the used rows.
@@ -125,7 +138,7 @@ export function compareModels(
 
   return {
     result: {
-      conventions: conventions(choice, confidenceLevel, intervalLevel),
+      conventions: { ...conventions(choice, confidenceLevel, intervalLevel), ...kindConventions(input.candidates) },
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,

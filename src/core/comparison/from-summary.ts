@@ -98,7 +98,9 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
     }
     const scored = c.form === 'residuals'
         ? { issues: [issue('summary_rows_needed', ['candidates', i, 'residuals'], { form: 'a residuals candidate', reason: 'residuals line up with rows, which a summary does not have; send its rss instead' })] }
-        : scoreExternalCandidate(c, ['candidates', i], ctx);
+        : c.form === 'glm' || c.form === 'fitted'
+          ? { issues: [issue('summary_rows_needed', ['candidates', i], { form: 'a generalised linear model', reason: 'its likelihood sums over the rows, which a summary does not have' })] }
+          : scoreExternalCandidate(c, ['candidates', i], ctx);
     if ('issues' in scored) issues.push(...scored.issues);
     else models.push(scored.result);
   });

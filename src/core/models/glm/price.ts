@@ -1,0 +1,36 @@
+// The price of this kind's candidates from the request's shape alone, in the
+// cost model's unit (multiply-adds): priceGlm counts floating-point
+// operations, a multiply-add pair counted as 2, so it is halved here.
+import { designWidth } from '../../pricing/design-width.ts';
+import { ANSWER_BYTES, FIXED_WORK, NO_COST } from '../../pricing/least-squares-cost.ts';
+import { scoredElsewhere, type CandidateContext, type CandidateCost } from '../../pricing/candidate-cost.ts';
+import type { FittedMeansCandidateInput, GlmCandidateInput } from './candidate.ts';
+import { priceGlm } from './pricing.ts';
+
+/** Floating-point operations per multiply-add (DEVELOPERS.md, "Its price"). */
+const FLOPS_PER_MULTIPLY_ADD = 2;
+
+export function priceGlmCandidate(c: GlmCandidateInput, ctx: CandidateContext): CandidateCost {
+  const width = designWidth(ctx.shape, c.terms, c.intercept, ctx.maxDesignColumns);
+  const p = width.columns;
+  const n = ctx.shape.rows;
+  const widest = Math.max(0, ...width.perTerm);
+  const common = { designColumns: p, widestTerm: widest > 1 ? width.perTerm.indexOf(widest) : null, atLeast: width.atLeast };
+  const work = priceGlm({ rows: n, columns: p, family: c.family, link: c.link }) / FLOPS_PER_MULTIPLY_ADD;
+  return {
+    fit: {
+      work: FIXED_WORK.modelFittedHere + work,
+      // Held until the answer: the design, response, prior weights, offset, μ, η, IRLS weights and the p×p covariance.
+      heldBytes: 8 * n * p + 56 * n + 8 * p * p,
+      // While it runs: the weighted copy of the design and its QR, plus the least-squares solve's double-double copy.
+      passingBytes: 32 * n * p,
+      resultBytes: ANSWER_BYTES.model + p * ANSWER_BYTES.coefficient,
+    },
+    // Predictions from a generalised linear model are not offered yet.
+    prediction: NO_COST,
+    ...common,
+  };
+}
+
+/** Means fitted elsewhere: one pass over them (a log-gamma per row for the negative binomial and gamma). */
+export const priceFittedMeansCandidate = (c: FittedMeansCandidateInput): CandidateCost => scoredElsewhere(c.fitted.length * 20);
