@@ -146,3 +146,25 @@ t.test('refusals name the field: a link the family does not admit, separation, a
   t.equal(off.json().errors[0].code, 'glm_column_not_numeric');
   t.equal(off.json().errors[0].path, 'candidates/0/offset');
 });
+
+t.test('a GLM comparison inline and on a worker of the pool: the same answer, and a replay reproduces it', async (t) => {
+  const c = referenceCase('valves-negative-binomial');
+  const payload = {
+    data: { columns: c.data }, response: c.response,
+    candidates: [
+      { name: 'nb', terms: c.terms, family: 'negativeBinomial', offset: 'logValves' },
+      { name: 'poisson', terms: c.terms, family: 'poisson', offset: 'logValves' },
+    ],
+  };
+  const inline = await buildTestApp(t, { computeInlineWork: 1e12 });
+  const pooled = await buildTestApp(t, { computeInlineWork: 0 });
+  const a = await inline.app.inject({ method: 'POST', url: '/v1/comparisons', payload });
+  const b = await pooled.app.inject({ method: 'POST', url: '/v1/comparisons', payload });
+  t.equal(a.statusCode, 200, a.body.slice(0, 200));
+  t.equal(b.statusCode, 200, b.body.slice(0, 200));
+  const strip = (r: Record<string, unknown>) => ({ ...r, id: undefined, createdAt: undefined });
+  t.same(strip(b.json()), strip(a.json()), 'the same answer');
+  const replay = await pooled.app.inject({ method: 'POST', url: `/v1/comparisons/${b.json().id}/replay` });
+  t.equal(replay.statusCode, 200);
+  t.equal(replay.json().identical, true, 'a replay in the pool reproduces the stored result');
+});
