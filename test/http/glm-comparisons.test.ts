@@ -5,6 +5,7 @@
 // unchanged, mass and density never ranked together, refusals naming fields.
 import t from 'tap';
 import { buildTestApp } from '../helper.ts';
+import { inlineAndPooled } from './limits/inline-and-pooled.ts';
 import { REFERENCE, referenceCase, relativeError, worstRelativeError } from '../core/models/glm/reference-data.ts';
 
 type Case = ReturnType<typeof referenceCase>;
@@ -156,14 +157,7 @@ t.test('a GLM comparison inline and on a worker of the pool: the same answer, an
       { name: 'poisson', terms: c.terms, family: 'poisson', offset: 'logValves' },
     ],
   };
-  const inline = await buildTestApp(t, { computeInlineWork: 1e12 });
-  const pooled = await buildTestApp(t, { computeInlineWork: 0 });
-  const a = await inline.app.inject({ method: 'POST', url: '/v1/comparisons', payload });
-  const b = await pooled.app.inject({ method: 'POST', url: '/v1/comparisons', payload });
-  t.equal(a.statusCode, 200, a.body.slice(0, 200));
-  t.equal(b.statusCode, 200, b.body.slice(0, 200));
-  const strip = (r: Record<string, unknown>) => ({ ...r, id: undefined, createdAt: undefined });
-  t.same(strip(b.json()), strip(a.json()), 'the same answer');
+  const { b, pooled } = await inlineAndPooled(t, payload);
   const replay = await pooled.app.inject({ method: 'POST', url: `/v1/comparisons/${b.json().id}/replay` });
   t.equal(replay.statusCode, 200);
   t.equal(replay.json().identical, true, 'a replay in the pool reproduces the stored result');

@@ -10,7 +10,7 @@ import type { ModelResult } from '../model-result.ts';
 import type { ScoringContext } from '../scoring-context.ts';
 import { transformResponse, type ResponseTransformSpec } from '../response-transform.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { criteriaFields, transformCaution } from '../model-fields.ts';
+import { criteriaFields, NOT_CHECKED, transformCaution } from '../model-fields.ts';
 import { alignToUsedRows } from '../aligned-rows.ts';
 
 export type ExternalCandidateInput =
@@ -99,11 +99,7 @@ export function scoreExternalCandidate(
       coefficients: [],
       aliased: [],
       conditionNumber: null,
-      press: null,
-      looRmse: null,
-      diagnostics: null,
-      predictions: null,
-      predictionScale: null,
+      ...NOT_CHECKED,
       cautions,
     },
   };

@@ -2,14 +2,14 @@
 // built on the common rows (every bad term named before any fit), the offset
 // and trials columns read there, each model fitted by fitGlm; and means
 // fitted elsewhere scored by the same log-likelihood.
-import { buildDesign } from '../../design/index.ts';
 import { unknownColumn } from '../../design/columns.ts';
 import { issue, type Issue, type IssuePath } from '../../issues.ts';
-import type { Columns, DesignMatrix } from '../../types.ts';
+import type { Columns } from '../../types.ts';
+import { candidateDesigns } from '../candidate-designs.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../../inference/coefficient-tests.ts';
 import { computeCriteria } from '../../scoring/criteria.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { criteriaFields, finiteOrNull } from '../model-fields.ts';
+import { criteriaFields, finiteOrNull, NOT_CHECKED } from '../model-fields.ts';
 import type { ModelResult } from '../model-result.ts';
 import { scoredModel, type ScoredModel } from '../scored-model.ts';
 import type { ScoringContext } from '../scoring-context.ts';
@@ -50,17 +50,7 @@ export function scoreGlmCandidates(candidates: ReadonlyMap<number, GlmCandidateI
   const scored = new Map<number, ScoredModel>();
   if (!columns || !ctx.rows || !ctx.y) return scored;
   const rows = ctx.rows;
-  const designs = new Map<number, DesignMatrix>();
-  for (const [i, c] of candidates) {
-    const built = buildDesign(columns, c.terms, c.intercept, rows, ['candidates', i]);
-    if ('issues' in built) {
-      issues.push(...built.issues);
-      continue;
-    }
-    const p = built.design.labels.length;
-    if (p > rows.length) issues.push(issue('too_few_rows', ['candidates', i], { rows: rows.length, parameters: p }));
-    designs.set(i, built.design);
-  }
+  const designs = candidateDesigns(candidates, columns, rows, issues);
   if (issues.length > 0) return scored;
   for (const [i, design] of designs) {
     const c = candidates.get(i)!;
@@ -149,11 +139,7 @@ function fittedMeansResult(c: FittedMeansCandidateInput, logLikelihood: number |
     coefficients: [],
     aliased: [],
     conditionNumber: null,
-    press: null,
-    looRmse: null,
-    diagnostics: null,
-    predictions: null,
-    predictionScale: null,
+    ...NOT_CHECKED,
     cautions,
     family: c.family,
     link: null,

@@ -7,7 +7,7 @@ import { chiSquareUpperTail, normalQuantile } from '../../inference/distribution
 import { coefficientTest, twoSidedCritical, type CoefficientTest } from '../../inference/coefficient-tests.ts';
 import { computeCriteria } from '../../scoring/criteria.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { criteriaFields, finiteOrNull } from '../model-fields.ts';
+import { criteriaFields, finiteOrNull, NOT_CHECKED } from '../model-fields.ts';
 import type { CoefficientResult, ModelResult } from '../model-result.ts';
 import type { GlmFamilyName, GlmFit } from './types.ts';
 
@@ -62,11 +62,7 @@ export function glmModelResult(name: string, fit: GlmFit, intercept: boolean, in
     coefficients,
     aliased: fit.aliased,
     conditionNumber: fit.conditionNumber,
-    press: null,
-    looRmse: null,
-    diagnostics: null,
-    predictions: null,
-    predictionScale: null,
+    ...NOT_CHECKED,
     cautions,
     family: fit.family,
     link: fit.link,
