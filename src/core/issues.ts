@@ -116,6 +116,7 @@ export interface IssueFacts {
   glm_fitted_missing: { row: number };
   glm_fitted_at_dropped_row: { row: number; rows: number[]; count: number };
   glm_column_not_numeric: { column: string; row: number; value: string | null };
+  overdispersion_no_model: Record<string, never>;
   /** Candidates whose likelihoods are a probability mass beside ones that are a density: never ranked together. */
   measures_mixed: { mass: string[]; density: string[] };
   // Nonlinear mean functions (models/nonlinear): the expression, its
@@ -350,6 +351,8 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
     `${at} has fitted means at ${f.count === 1 ? 'data row' : `${f.count} data rows`} ${f.rows.join(', ')}${f.count > f.rows.length ? ', …' : ''}, which the comparison drops (a missing value, or a zero weight, in a column some candidate uses); the model's likelihood would then cover rows the other candidates are not scored on — refit it on the common rows and send its means there.`,
   glm_column_not_numeric: (f, at) =>
     `${at} names column ${JSON.stringify(f.column)}, which holds ${f.value === null ? 'no number' : `the string ${JSON.stringify(f.value)}`} at row ${f.row}; it must hold numbers.`,
+  overdispersion_no_model: (_f, at) =>
+    `${at} is "estimate", but no generalised linear model fitted here has residual degrees of freedom and a positive Pearson χ² to estimate ĉ from; give ĉ as a number, or add the most general count model as a candidate.`,
   measures_mixed: (f, at) =>
     `${at}: ${quoteList(f.mass)} ${f.mass.length === 1 ? 'has a likelihood that is a probability mass' : 'have likelihoods that are probability masses'} (counts or pass/fail outcomes) and ${quoteList(f.density)} ${f.density.length === 1 ? 'one that is a density' : 'ones that are densities'} (continuous measurements); a mass and a density are on different scales, so their criteria cannot be compared. Compare the count or pass/fail models among themselves and the continuous ones among themselves.`,
   // Nonlinear mean functions.

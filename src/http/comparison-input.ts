@@ -53,6 +53,7 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
       average: body.options.average,
       predict: body.options.predict ? { columns: ownColumns(body.options.predict.columns) } : undefined,
     },
+    overdispersion: body.options.overdispersion,
     policy: policy.policy,
     policyHash: policy.hash,
   };

@@ -162,3 +162,47 @@ t.test('a GLM comparison inline and on a worker of the pool: the same answer, an
   t.equal(replay.statusCode, 200);
   t.equal(replay.json().identical, true, 'a replay in the pool reproduces the stored result');
 });
+
+t.test('options.overdispersion: QAIC and QAICc under ĉ from the most general model (Burnham & Anderson 2002, §2.5), by hand from R\'s numbers', async (t) => {
+  const { app } = await buildTestApp(t);
+  const c = referenceCase('seams-poisson-offset');
+  const n = c.data.defects.length;
+  const payload = (cHat: number | 'estimate') => ({
+    data: { columns: c.data }, response: c.response,
+    candidates: [{ name: 'full', terms: c.terms, family: 'poisson', offset: 'logLength' }, { name: 'current', terms: ['current'], family: 'poisson', offset: 'logLength' }],
+    options: { overdispersion: { cHat } },
+  });
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: payload('estimate') });
+  t.equal(res.statusCode, 200, res.body.slice(0, 400));
+  const body = res.json();
+  // ĉ = Pearson χ² / (n − rank) of the candidate with the most parameters (rank = k for the Poisson).
+  const cHat = c.pearsonChiSquare / (n - c.parameters);
+  t.ok(relativeError(body.overdispersion.cHat, cHat) < 1e-10, `ĉ ${body.overdispersion.cHat} vs ${cHat}`);
+  t.equal(body.overdispersion.source, 'full');
+  t.equal(body.overdispersion.df, n - c.parameters);
+  const k = c.parameters + 1; // k counts ĉ
+  const qaic = (-2 * c.logLikelihood) / cHat + 2 * k;
+  const full = body.models.find((m: { name: string }) => m.name === 'full');
+  t.ok(relativeError(full.qaic, qaic) < 1e-10, `QAIC ${full.qaic} vs ${qaic}`);
+  t.ok(relativeError(full.qaicc, qaic + (2 * k * (k + 1)) / (n - k - 1)) < 1e-10, 'QAICc');
+  const ranking = body.rankings.qaic;
+  t.equal(ranking.length, 2);
+  t.ok(Math.abs(ranking.reduce((s: number, e: { weight: number }) => s + e.weight, 0) - 1) < 1e-12, 'weights sum to 1');
+  t.ok(body.rankings.qaicc.every((e: { band: string | null }) => typeof e.band === 'string'), 'Δ worded by the Akaike bands');
+
+  const given = (await app.inject({ method: 'POST', url: '/v1/comparisons', payload: payload(1.8) })).json();
+  t.same(given.overdispersion, { cHat: 1.8, source: 'given', df: null, belowOne: false });
+  t.ok(relativeError(given.models[0].qaic, (-2 * c.logLikelihood) / 1.8 + 2 * k) < 1e-10);
+
+  const plain = (await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { ...payload(1), options: {} } })).json();
+  t.equal(plain.rankings.qaic, undefined, 'no QAIC unless asked');
+  t.equal(plain.models[0].qaic, undefined);
+
+  const ls = { data: { columns: c.data }, response: c.response, candidates: [{ name: 'line', terms: ['current'] }], options: { overdispersion: { cHat: 'estimate' } } };
+  const refused = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: ls });
+  t.equal(refused.statusCode, 422);
+  t.equal(refused.json().errors[0].code, 'overdispersion_no_model');
+  t.equal(refused.json().errors[0].path, 'options/overdispersion/cHat');
+  const zero = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: payload(0) });
+  t.equal(zero.statusCode, 400, 'ĉ must be positive');
+});

@@ -14,6 +14,7 @@ import { kindConventions, scoreCandidates, type CandidateInput } from '../models
 import type { ScoringContext } from '../models/scoring-context.ts';
 import { estimationIssues } from './estimation-rules.ts';
 import { measureMixIssue } from './measure-mix.ts';
+import { overdispersionCriteria, type OverdispersionRequest, type OverdispersionResult } from './overdispersion.ts';
 import { glmExtraColumns } from '../models/glm/candidate.ts';
 import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
 import { checksCaution, comparisonCautions, type Caution } from '../scoring/cautions.ts';
@@ -37,6 +38,8 @@ export interface ComparisonInput {
   intervalLevel?: number;
   expectedFingerprint?: string;
   extras?: ExtrasOptions;
+  /** QAIC and QAICc under one ĉ, given or estimated (options.overdispersion). */
+  overdispersion?: OverdispersionRequest;
   policy: Policy;
   policyHash: string;
 }
@@ -46,7 +49,8 @@ export interface ComparisonOutcome {
   policy: { name: string; hash: string };
   dataset: { fingerprint: string | null; observations: number; rowsDropped: number; response: string | null; weights: string | null };
   models: ModelResult[];
-  rankings: Record<CriterionName | 'loo', BandedEntry[]>;
+  rankings: Record<CriterionName | 'loo', BandedEntry[]> & Partial<Record<'qaic' | 'qaicc', BandedEntry[]>>;
+  overdispersion?: Omit<OverdispersionResult, 'values' | 'rankings'>;
   verdict: Verdict;
   nestedTests: Extras['nestedTests'];
   averaged: Extras['averaged'];
@@ -128,6 +132,9 @@ export function compareModels(
   const choice = chooseRankBy(input.rankBy, input.policy, ratio);
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
   const rankings = rankAll(models, confidenceLevel, input.policy);
+  const quasi = input.overdispersion ? overdispersionCriteria(models, input.overdispersion, confidenceLevel, input.policy) : null;
+  if (quasi && 'code' in quasi) return { issues: [quasi] };
+  if (quasi) quasi.values.forEach((v, i) => Object.assign(models[i], { qaic: v.qaic, qaicc: v.qaicc }));
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
@@ -142,7 +149,8 @@ export function compareModels(
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
-      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })) },
+      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })), ...(quasi ? quasi.rankings : {}) },
+      ...(quasi ? { overdispersion: { cHat: quasi.cHat, source: quasi.source, df: quasi.df, belowOne: quasi.belowOne } } : {}),
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
       nestedTests: extras.nestedTests,
       averaged: extras.averaged,

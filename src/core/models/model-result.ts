@@ -49,4 +49,7 @@ export interface ModelResult extends Partial<GlmReportFields> {
   /** How the predictions relate to the response as sent (back-transformed for a transformed response); null without predictions. */
   predictionScale: PredictionScale | null;
   cautions: Caution[];
+  /** QAIC and QAICc under the request's ĉ (options.overdispersion); absent when it asks for none. */
+  qaic?: number | null;
+  qaicc?: number | null;
 }

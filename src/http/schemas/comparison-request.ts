@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
-import { FittedMeansCandidate, GlmCandidateFields, TrialsColumn } from './glm.ts';
+import { FittedMeansCandidate, GlmCandidateFields, OverdispersionOption, TrialsColumn } from './glm.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
@@ -191,6 +191,7 @@ export const ComparisonOptions = z
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
     tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
+    overdispersion: OverdispersionOption.optional(),
     predict: z
       .strictObject({ columns: z.record(ColumnName, z.array(z.union([FiniteNumber, z.string().max(200), z.null()])).max(100_000)) })
       .optional()

@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
-import { GlmConventions, GlmModelFields } from './glm.ts';
+import { GlmConventions, GlmModelFields, OverdispersionResult } from './glm.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -68,6 +68,8 @@ export const ModelResult = z
       .meta({ description: 'How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response\'s original scale.' }),
     cautions: z.array(Caution),
     ...GlmModelFields,
+    qaic: nullableNumber.optional().meta({ description: 'QAIC under options.overdispersion; absent without it.' }),
+    qaicc: nullableNumber.optional(),
   })
   .meta({ id: 'ModelResult' });
 
@@ -156,7 +158,10 @@ export const ComparisonResult = z
       hqc: Ranking,
       adjustedR2: Ranking,
       loo: Ranking.meta({ description: 'By looRmse, smaller is better; no weights.' }),
+      qaic: Ranking.optional().meta({ description: 'By QAIC, with options.overdispersion only.' }),
+      qaicc: Ranking.optional().meta({ description: 'By QAICc, with options.overdispersion only.' }),
     }),
+    overdispersion: OverdispersionResult.optional().meta({ description: 'The ĉ behind rankings.qaic and rankings.qaicc.' }),
     verdict: Verdict,
     nestedTests: z.array(NestedTest),
     averaged: Averaged.nullable(),

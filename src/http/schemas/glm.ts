@@ -68,3 +68,20 @@ export const GlmModelFields = {
 export const GlmConventions = z
   .strictObject(Object.fromEntries(Object.keys(GLM_CONVENTIONS).map((k) => [k, z.string()])) as Record<keyof typeof GLM_CONVENTIONS, z.ZodString>)
   .meta({ id: 'GlmConventions' });
+
+export const OverdispersionOption = z
+  .strictObject({
+    cHat: z.union([FiniteNumber.positive(), z.literal('estimate')]).meta({
+      description: 'ĉ, the variance inflation of counts: a number, or "estimate" for Pearson χ²/(n − rank) of the fitted generalised linear candidate with the most parameters.',
+    }),
+  })
+  .meta({ id: 'OverdispersionOption', description: 'Adds QAIC = −2 logL/ĉ + 2k and QAICc = QAIC + 2k(k+1)/(n − k − 1), k counting ĉ (Burnham & Anderson 2002), per model and as rankings.qaic and rankings.qaicc.' });
+
+export const OverdispersionResult = z
+  .strictObject({
+    cHat: z.number(),
+    source: z.string().meta({ description: '"given", or the name of the candidate whose Pearson χ²/(n − rank) it is.' }),
+    df: z.number().int().nullable().meta({ description: 'Residual degrees of freedom of the estimate; null when given.' }),
+    belowOne: z.boolean().meta({ description: 'An estimate below 1: ĉ = 1 is the usual choice then (no underdispersion to correct); the service leaves that to the caller.' }),
+  })
+  .meta({ id: 'OverdispersionResult' });
