@@ -206,3 +206,15 @@ t.test('options.overdispersion: QAIC and QAICc under ĉ from the most general mo
   const zero = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: payload(0) });
   t.equal(zero.statusCode, 400, 'ĉ must be positive');
 });
+
+t.test('a request-level field at fault is named once, however many GLM candidates read it', async (t) => {
+  const { app } = await buildTestApp(t);
+  const c = referenceCase('seams-poisson-offset');
+  const payload = {
+    data: { columns: { ...c.data, w: c.data.defects.map(() => 2) } }, response: c.response, weights: 'w',
+    candidates: [{ name: 'a', terms: ['current'], family: 'poisson' }, { name: 'b', terms: c.terms, family: 'poisson' }],
+  };
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload });
+  t.equal(res.statusCode, 422);
+  t.same(res.json().errors.map((e: { code: string; path: string }) => [e.code, e.path]), [['glm_weights_not_supported', 'weights']]);
+});

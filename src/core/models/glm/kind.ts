@@ -38,6 +38,8 @@ export function numericColumn(columns: Columns, name: string, rows: readonly num
   return out;
 }
 
+const samePath = (a: IssuePath, b: IssuePath) => a.length === b.length && a.every((x, i) => x === b[i]);
+
 function optionalColumn(columns: Columns, name: string | undefined, rows: readonly number[], at: IssuePath, issues: Issue[]): Float64Array | null {
   if (name === undefined) return null;
   const read = numericColumn(columns, name, rows, at);
@@ -66,7 +68,8 @@ export function scoreGlmCandidates(candidates: ReadonlyMap<number, GlmCandidateI
       family: c.family, link: c.link, design, response: ctx.y, trials, offset, weights: ctx.weights?.values ?? null, rows, at,
     });
     if ('issues' in fit) {
-      issues.push(...fit.issues);
+      // A request-level field at fault (weights, trials, the response) is named once, not once per candidate.
+      for (const found of fit.issues) if (!issues.some((i) => i.code === found.code && samePath(i.path, found.path))) issues.push(found);
       continue;
     }
     // No leave-one-out, residual checks, predictions, nested tests or averaging yet: those capabilities are absent, so their fields stay null.
