@@ -85,7 +85,21 @@ const means = srows.map((c) => c.reduce((a, b) => a + b, 0) / sRows);
 const cross = srows.map((a, i) => srows.map((b, j) => a.reduce((s, v, r) => s + (v - means[i]) * (b[r] - means[j]), 0)));
 const summary = { rows: sRows, columns: srows.map((_, j) => (j === summaryColumns - 1 ? 'y' : `s${j}`)), means, centredCrossProducts: cross };
 
+// Pass/fail and count responses on the same 100,000 × 30 design, for the generalised linear kind.
+const linear = bigColumns.y as number[];
+const passFail = linear.map((v) => (uniform() < 1 / (1 + Math.exp(-0.1 * v)) ? 1 : 0));
+/** A Poisson draw by counting unit-rate arrivals (mean exp(0.5 + 0.02 v) stays small here). */
+const poissonDraw = (mean: number) => {
+  let k = 0;
+  for (let s = -Math.log(1 - uniform()); s < mean; s -= Math.log(1 - uniform())) k++;
+  return k;
+};
+const counts = linear.map((v) => poissonDraw(Math.exp(0.5 + 0.02 * v)));
+const glmColumns = { ...bigColumns, passFail, counts };
+
 const cases = [
+  comparisonCase('comparison: logistic GLM, 100,000 rows × 31 columns', { data: { columns: glmColumns }, response: 'passFail', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`), family: 'binomial' }] }),
+  comparisonCase('comparison: Poisson GLM, 100,000 rows × 31 columns', { data: { columns: glmColumns }, response: 'counts', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`), family: 'poisson' }] }),
   comparisonCase('comparison: 100,000 rows × 31 columns, 1 model', { data: { columns: bigColumns }, response: 'y', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`) }] }),
   comparisonCase('comparison: one factor of 300 levels, 3000 rows', { data: { columns: { y: response(rowsF, xF), x: xF, batch: factor } }, response: 'y', candidates: [{ name: 'batch', terms: ['x', 'batch'] }, { name: 'x', terms: ['x'] }] }),
   comparisonCase('comparison: 60 small models, 120 rows', { data: { columns: smallColumns }, response: 'y', candidates: Array.from({ length: 60 }, (_, i) => ({ name: `m${i}`, terms: smallTerms(1 + (i % 10)) })) }),

@@ -110,9 +110,15 @@ export interface IssueFacts {
   glm_separation: { family: string; terms: string[]; rows: number };
   glm_theta_unbounded: { theta: number };
   glm_dispersion_degenerate: { family: string; parameter: string };
-  glm_fitted_count_mismatch: { fitted: number; rows: number };
+  glm_fitted_count_mismatch: { fitted: number; rows: number; dataRows: number };
   glm_fitted_mean_invalid: { family: string; row: number; value: number; support: string };
   glm_distribution_parameter_invalid: { family: string; parameter: string; value: number | null };
+  glm_fitted_missing: { row: number };
+  glm_fitted_at_dropped_row: { row: number; rows: number[]; count: number };
+  glm_column_not_numeric: { column: string; row: number; value: string | null };
+  overdispersion_no_model: Record<string, never>;
+  /** Candidates whose likelihoods are a probability mass beside ones that are a density: never ranked together. */
+  measures_mixed: { mass: string[]; density: string[] };
   // Nonlinear mean functions (models/nonlinear): the expression, its
   // parameters, start vectors and bounds, and fits that end without a
   // solution. Offsets count characters (Unicode code points) from 0.
@@ -334,11 +340,21 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   glm_dispersion_degenerate: (f, at) =>
     `${at}: the ${f.family} fit reproduces the response exactly (deviance 0), so the maximum-likelihood ${f.parameter} is unbounded and the likelihood has no finite value.`,
   glm_fitted_count_mismatch: (f, at) =>
-    `${at} has ${f.fitted} fitted means for ${f.rows} rows; send one per row the comparison uses.`,
+    `${at} has ${f.fitted} fitted means; send one per row the comparison uses (${f.rows}) or one per data row (${f.dataRows}) with null where a row is dropped.`,
   glm_fitted_mean_invalid: (f, at) =>
     `${at} is ${f.value} at row ${f.row}; a ${f.family} fitted mean must be ${f.support}.`,
   glm_distribution_parameter_invalid: (f, at) =>
     `${at}: the ${f.family} family needs its ${f.parameter} as a positive finite number${f.value === null ? '' : `, not ${f.value}`}.`,
+  glm_fitted_missing: (f, at) =>
+    `${at} is null at data row ${f.row}, which the comparison uses; every used row needs a fitted mean.`,
+  glm_fitted_at_dropped_row: (f, at) =>
+    `${at} has fitted means at ${f.count === 1 ? 'data row' : `${f.count} data rows`} ${f.rows.join(', ')}${f.count > f.rows.length ? ', …' : ''}, which the comparison drops (a missing value, or a zero weight, in a column some candidate uses); the model's likelihood would then cover rows the other candidates are not scored on — refit it on the common rows and send its means there.`,
+  glm_column_not_numeric: (f, at) =>
+    `${at} names column ${JSON.stringify(f.column)}, which holds ${f.value === null ? 'no number' : `the string ${JSON.stringify(f.value)}`} at row ${f.row}; it must hold numbers.`,
+  overdispersion_no_model: (_f, at) =>
+    `${at} is "estimate", but no generalised linear model fitted here has residual degrees of freedom and a positive Pearson χ² to estimate ĉ from; give ĉ as a number, or add the most general count model as a candidate.`,
+  measures_mixed: (f, at) =>
+    `${at}: ${quoteList(f.mass)} ${f.mass.length === 1 ? 'has a likelihood that is a probability mass' : 'have likelihoods that are probability masses'} (counts or pass/fail outcomes) and ${quoteList(f.density)} ${f.density.length === 1 ? 'one that is a density' : 'ones that are densities'} (continuous measurements); a mass and a density are on different scales, so their criteria cannot be compared. Compare the count or pass/fail models among themselves and the continuous ones among themselves.`,
   // Nonlinear mean functions.
   expression_syntax: (f, at) => `${at} cannot be read at offset ${f.offset}: expected ${f.expected}, found ${f.found}.`,
   expression_unknown_function: (f, at) =>

@@ -15,8 +15,21 @@ export function ownColumns(columns: Record<string, ReadonlyArray<number | string
 
 type RequestCandidate = ComparisonRequest['candidates'][number];
 
-function candidateInput(c: RequestCandidate): CandidateInput {
-  if ('terms' in c) return { form: 'fit', name: c.name, terms: c.terms, intercept: c.intercept, response: c.response };
+/** True for a fitted candidate that is least squares as before: no family other than gaussian, no link other than identity, no offset. */
+const isLeastSquares = (c: { family?: string; link?: string; offset?: string }) =>
+  (c.family ?? 'gaussian') === 'gaussian' && (c.link ?? 'identity') === 'identity' && c.offset === undefined;
+
+function candidateInput(c: RequestCandidate, trials: string | undefined): CandidateInput {
+  if ('terms' in c) {
+    if (isLeastSquares(c)) return { form: 'fit', name: c.name, terms: c.terms, intercept: c.intercept, response: c.response };
+    return { form: 'glm', name: c.name, terms: c.terms, intercept: c.intercept, family: c.family ?? 'gaussian', link: c.link, offset: c.offset, trials };
+  }
+  if ('fitted' in c) {
+    return {
+      form: 'fitted', name: c.name, family: c.family, fitted: c.fitted, parameters: c.parameters,
+      theta: c.theta, shape: c.shape, dispersion: c.dispersion, trials,
+    };
+  }
   if ('residuals' in c) return { form: 'residuals', name: c.name, residuals: c.residuals, parameters: c.parameters, response: c.response };
   if ('rss' in c) return { form: 'rss', name: c.name, rss: c.rss, parameters: c.parameters, observations: c.observations, response: c.response };
   return {
@@ -30,7 +43,7 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     columns: body.data && 'columns' in body.data ? ownColumns(body.data.columns) : null,
     response: body.response ?? null,
     weights: body.weights ?? null,
-    candidates: body.candidates.map(candidateInput),
+    candidates: body.candidates.map((c) => candidateInput(c, body.trials)),
     rankBy: body.options.rankBy ?? body.rankBy,
     confidenceLevel: body.options.confidenceLevel,
     intervalLevel: body.options.intervalLevel,
@@ -40,6 +53,7 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
       average: body.options.average,
       predict: body.options.predict ? { columns: ownColumns(body.options.predict.columns) } : undefined,
     },
+    overdispersion: body.options.overdispersion,
     policy: policy.policy,
     policyHash: policy.hash,
   };

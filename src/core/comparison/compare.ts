@@ -10,9 +10,12 @@ import { datasetFingerprint } from '../fingerprint.ts';
 import { chooseRankBy, type Policy } from '../scoring/policy.ts';
 import type { Columns } from '../types.ts';
 import type { ModelResult } from '../models/model-result.ts';
-import { scoreCandidates, type CandidateInput } from '../models/registry.ts';
+import { kindConventions, scoreCandidates, type CandidateInput } from '../models/registry.ts';
 import type { ScoringContext } from '../models/scoring-context.ts';
 import { estimationIssues } from './estimation-rules.ts';
+import { measureMixIssue } from './measure-mix.ts';
+import { overdispersionCriteria, type OverdispersionRequest, type OverdispersionResult } from './overdispersion.ts';
+import { glmExtraColumns } from '../models/glm/candidate.ts';
 import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
 import { checksCaution, comparisonCautions, type Caution } from '../scoring/cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
@@ -35,6 +38,8 @@ export interface ComparisonInput {
   intervalLevel?: number;
   expectedFingerprint?: string;
   extras?: ExtrasOptions;
+  /** QAIC and QAICc under one ĉ, given or estimated (options.overdispersion). */
+  overdispersion?: OverdispersionRequest;
   policy: Policy;
   policyHash: string;
 }
@@ -44,11 +49,20 @@ export interface ComparisonOutcome {
   policy: { name: string; hash: string };
   dataset: { fingerprint: string | null; observations: number; rowsDropped: number; response: string | null; weights: string | null };
   models: ModelResult[];
-  rankings: Record<CriterionName | 'loo', BandedEntry[]>;
+  rankings: Record<CriterionName | 'loo', BandedEntry[]> & Partial<Record<'qaic' | 'qaicc', BandedEntry[]>>;
+  overdispersion?: Omit<OverdispersionResult, 'values' | 'rankings'>;
   verdict: Verdict;
   nestedTests: Extras['nestedTests'];
   averaged: Extras['averaged'];
   cautions: Caution[];
+}
+
+/** The data columns a candidate reads besides the response and weights: its terms, and a GLM's offset and trials. */
+function candidateColumns(c: CandidateInput): string[] {
+  if (c.form === 'fit') return columnsUsedBy(c.terms);
+  if (c.form === 'glm') return [...columnsUsedBy(c.terms), ...glmExtraColumns(c)];
+  if (c.form === 'fitted') return glmExtraColumns(c);
+  return [];
 }
 
 type Rows = { ctx: ScoringContext; dropped: number; used: string[]; missingWeights: number; zeroWeights: number };
@@ -58,7 +72,8 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
   const { columns, candidates } = input;
   if (!columns || input.response === null) {
     candidates.forEach((c, i) => {
-      if (c.form === 'fit' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'fit' ? 'a candidate fitted here' : 'a response transform' }));
+      if (c.form === 'fit' || c.form === 'glm' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
+      if (c.form === 'fitted') issues.push(issue('data_required', ['candidates', i], { form: 'a candidate sent by its fitted means' }));
     });
     if (input.weights) issues.push(issue('data_required', ['weights'], { form: 'a weights column' }));
     const first = candidates[0];
@@ -66,7 +81,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
     const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
     return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [], missingWeights: 0, zeroWeights: 0 };
   }
-  const termColumns = [...new Set(candidates.flatMap((c) => (c.form === 'fit' ? columnsUsedBy(c.terms) : [])))];
+  const termColumns = [...new Set(candidates.flatMap(candidateColumns))];
   const sample = sampleRows(columns, input.response, input.weights, termColumns);
   if ('issues' in sample) {
     issues.push(...sample.issues);
@@ -100,6 +115,8 @@ export function compareModels(
 
   const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
+  const mixed = issues.length === 0 ? measureMixIssue(scored) : null;
+  if (mixed) issues.push(mixed);
 
   if (issues.length > 0) return { issues };
   // Only once every used column is known to exist and hold values on the used rows.
@@ -115,6 +132,9 @@ export function compareModels(
   const choice = chooseRankBy(input.rankBy, input.policy, ratio);
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
   const rankings = rankAll(models, confidenceLevel, input.policy);
+  const quasi = input.overdispersion ? overdispersionCriteria(models, input.overdispersion, confidenceLevel, input.policy) : null;
+  if (quasi && 'code' in quasi) return { issues: [quasi] };
+  if (quasi) quasi.values.forEach((v, i) => Object.assign(models[i], { qaic: v.qaic, qaicc: v.qaicc }));
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
@@ -125,11 +145,12 @@ export function compareModels(
 
   return {
     result: {
-      conventions: conventions(choice, confidenceLevel, intervalLevel),
+      conventions: { ...conventions(choice, confidenceLevel, intervalLevel), ...kindConventions(input.candidates) },
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
-      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })) },
+      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })), ...(quasi ? quasi.rankings : {}) },
+      ...(quasi ? { overdispersion: { cHat: quasi.cHat, source: quasi.source, df: quasi.df, belowOne: quasi.belowOne } } : {}),
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
       nestedTests: extras.nestedTests,
       averaged: extras.averaged,

@@ -38,6 +38,8 @@ export interface SummaryComparisonInput {
   rankBy?: CriterionName;
   confidenceLevel?: number;
   intervalLevel?: number;
+  /** Refused from a summary (see below). */
+  overdispersion?: unknown;
   expectedFingerprint?: string;
   extras?: ExtrasOptions;
   policy: Policy;
@@ -98,7 +100,9 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
     }
     const scored = c.form === 'residuals'
         ? { issues: [issue('summary_rows_needed', ['candidates', i, 'residuals'], { form: 'a residuals candidate', reason: 'residuals line up with rows, which a summary does not have; send its rss instead' })] }
-        : scoreExternalCandidate(c, ['candidates', i], ctx);
+        : c.form === 'glm' || c.form === 'fitted'
+          ? { issues: [issue('summary_rows_needed', ['candidates', i], { form: 'a generalised linear model', reason: 'its likelihood sums over the rows, which a summary does not have' })] }
+          : scoreExternalCandidate(c, ['candidates', i], ctx);
     if ('issues' in scored) issues.push(...scored.issues);
     else models.push(scored.result);
   });
@@ -111,6 +115,8 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
   const ratio = largestK > 0 ? summary.rows / largestK : null;
   const choice = chooseRankBy(input.rankBy, input.policy, ratio);
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
+  // No model from a summary has a Pearson χ², and QAIC is for the counts a summary cannot carry.
+  if (input.overdispersion) return { issues: [issue('summary_rows_needed', ['options', 'overdispersion'], { form: 'options.overdispersion', reason: 'QAIC concerns models of counts, whose likelihoods sum over the rows' })] };
   const rankings = rankAll(models, confidenceLevel, input.policy);
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const intervalLevel = input.intervalLevel ?? DEFAULT_INTERVAL_LEVEL;

@@ -6,6 +6,9 @@ import { transformLabel, type ResponseTransformSpec } from './response-transform
 export const finiteOrNull = (x: number | null | undefined): number | null =>
   typeof x === 'number' && Number.isFinite(x) ? x : null;
 
+/** The after-ranking fields before any check or prediction fills them (src/core/comparison/extras). */
+export const NOT_CHECKED = { press: null, looRmse: null, diagnostics: null, predictions: null, predictionScale: null } as const;
+
 export function criteriaFields(logLikelihood: number | null, rss: number | null, criteria: CriteriaValues) {
   return {
     logLikelihood: finiteOrNull(logLikelihood),

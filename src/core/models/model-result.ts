@@ -5,6 +5,7 @@ import type { Caution } from '../scoring/cautions.ts';
 import type { CoefficientTest } from '../inference/coefficient-tests.ts';
 import type { PredictionWithIntervals } from '../inference/prediction-intervals.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
+import type { GlmReportFields } from './glm/types.ts';
 
 /** How a model's predictions relate to the response as sent. */
 export interface PredictionScale {
@@ -15,9 +16,10 @@ export interface PredictionScale {
 /** A coefficient with its t test and confidence interval (null where they do not exist). */
 export type CoefficientResult = { term: string; estimate: number | null; standardError: number | null } & CoefficientTest;
 
-export interface ModelResult {
+/** A generalised linear model adds its own fields (absent for every other kind). */
+export interface ModelResult extends Partial<GlmReportFields> {
   name: string;
-  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood';
+  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood' | 'fitted';
   estimation: 'ml' | 'reml';
   /** Null for a model fitted elsewhere: the service cannot know. */
   intercept: boolean | null;
@@ -47,4 +49,7 @@ export interface ModelResult {
   /** How the predictions relate to the response as sent (back-transformed for a transformed response); null without predictions. */
   predictionScale: PredictionScale | null;
   cautions: Caution[];
+  /** QAIC and QAICc under the request's ĉ (options.overdispersion); absent when it asks for none. */
+  qaic?: number | null;
+  qaicc?: number | null;
 }

@@ -12,9 +12,13 @@ import type { FittedCandidateInput } from './linear/fitted-model.ts';
 import { leastSquaresCapabilities } from './linear/capabilities.ts';
 import { priceLeastSquaresCandidate } from './linear/price.ts';
 import type { ScoringContext } from './scoring-context.ts';
+import type { FittedMeansCandidateInput, GlmCandidateInput } from './glm/candidate.ts';
+import { scoreFittedMeansCandidates, scoreGlmCandidates } from './glm/kind.ts';
+import { priceFittedMeansCandidate, priceGlmCandidate } from './glm/price.ts';
+import { GLM_CONVENTIONS } from './glm/conventions.ts';
 import { scoredModel, type ScoredModel } from './scored-model.ts';
 
-export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
+export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput | GlmCandidateInput | FittedMeansCandidateInput;
 export type CandidateForm = CandidateInput['form'];
 export type OfForm<F extends CandidateForm> = Extract<CandidateInput, { form: F }>;
 
@@ -34,6 +38,8 @@ export interface CandidateKind<C extends CandidateInput> {
   score(candidates: ReadonlyMap<number, C>, sample: ScoringSample, issues: Issue[]): Map<number, ScoredModel>;
   /** The candidate's price from the request's shape alone. */
   price(candidate: C, ctx: CandidateContext): CandidateCost;
+  /** The kind's own convention in words, added to the response's conventions under `key` when the comparison has such a candidate. */
+  conventions?: { key: string; text: Readonly<Record<string, string>> };
 }
 
 /** Least squares fitted here on the comparison's rows. */
@@ -64,12 +70,22 @@ const external: CandidateKind<ExternalCandidateInput> = {
   price: (c) => scoredElsewhere(c.form === 'residuals' ? c.residuals.length : 1),
 };
 
+/** Generalised linear models fitted here (family, link, offset). */
+const glm: CandidateKind<GlmCandidateInput> = { score: scoreGlmCandidates, price: priceGlmCandidate, conventions: { key: 'glm', text: GLM_CONVENTIONS } };
+
+/** Means of a generalised linear model fitted elsewhere, scored by its family's full log-likelihood. */
+const fittedMeans: CandidateKind<FittedMeansCandidateInput> = {
+  score: scoreFittedMeansCandidates, price: priceFittedMeansCandidate, conventions: { key: 'glm', text: GLM_CONVENTIONS },
+};
+
 /** Each form's kind; the kinds score in the order of first appearance here. */
 export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> } = {
   fit: linear,
   residuals: external,
   rss: external,
   logLikelihood: external,
+  glm,
+  fitted: fittedMeans,
 };
 
 /**
@@ -90,4 +106,14 @@ export function scoreCandidates(candidates: readonly CandidateInput[], sample: S
     for (const [i, s] of kind.score(own, sample, issues)) scored.set(i, s);
   }
   return candidates.flatMap((_, i) => (scored.has(i) ? [scored.get(i)!] : []));
+}
+
+/** The conventions of the kinds the candidates belong to, keyed as each kind states (e.g. { glm: {...} }). */
+export function kindConventions(candidates: readonly CandidateInput[]): Record<string, Readonly<Record<string, string>>> {
+  const out: Record<string, Readonly<Record<string, string>>> = {};
+  for (const c of candidates) {
+    const own = CANDIDATE_KINDS[c.form].conventions;
+    if (own) out[own.key] = own.text;
+  }
+  return out;
 }

@@ -18,6 +18,8 @@ export const CANDIDATE_PRICES: { [F in CandidateForm]: CandidatePricer<F> } = {
   residuals: CANDIDATE_KINDS.residuals.price,
   rss: CANDIDATE_KINDS.rss.price,
   logLikelihood: CANDIDATE_KINDS.logLikelihood.price,
+  glm: CANDIDATE_KINDS.glm.price,
+  fitted: CANDIDATE_KINDS.fitted.price,
 };
 
 export function priceCandidate(candidate: CandidateInput, ctx: CandidateContext): CandidateCost {

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
+import { FittedMeansCandidate, GlmCandidateFields, OverdispersionOption, TrialsColumn } from './glm.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
@@ -116,8 +117,15 @@ export const FittedCandidate = z
     terms: z.array(Term).max(200),
     intercept: z.boolean().default(true),
     response: ResponseTransform.optional(),
+    ...GlmCandidateFields,
   })
-  .meta({ id: 'FittedCandidate', description: 'A model the service fits by least squares.' });
+  .superRefine((c, ctx) => {
+    // A response transform changes the scale of a Gaussian least-squares model; a GLM models the response through its link instead.
+    if (c.response && ((c.family ?? 'gaussian') !== 'gaussian' || c.link !== undefined || c.offset !== undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['response'], message: 'a response transform applies to least-squares candidates only; a generalised linear model relates the response to its terms through its link' });
+    }
+  })
+  .meta({ id: 'FittedCandidate', description: 'A model the service fits: least squares by default, a generalised linear model with family (and link, offset).' });
 
 export const ResidualsCandidate = z
   .strictObject({
@@ -163,7 +171,7 @@ const CRITERION_KEYS = ['aic', 'aicc', 'bic', 'hqc', 'AIC', 'AICc', 'BIC', 'HQC'
  * for a candidate sent by a criterion value, the likelihood to send instead.
  */
 function candidateFormsMessage(input: unknown): string {
-  const forms = 'a candidate is one of: { name, terms, intercept?, response? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }';
+  const forms = 'a candidate is one of: { name, terms, intercept?, response?, family?, link?, offset? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, family, fitted, parameters, theta? | shape? | dispersion? }';
   if (input === null || typeof input !== 'object' || Array.isArray(input)) return `${forms}.`;
   const sent = CRITERION_KEYS.find((k) => Object.prototype.hasOwnProperty.call(input, k));
   if (sent) {
@@ -173,8 +181,8 @@ function candidateFormsMessage(input: unknown): string {
 }
 
 export const Candidate = z
-  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
-  .meta({ id: 'Candidate', description: 'One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood.' });
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, FittedMeansCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
+  .meta({ id: 'Candidate', description: 'One of the five candidate forms: terms (fitted here), residuals, rss, logLikelihood, or fitted (means of a generalised linear model fitted elsewhere).' });
 
 export const ComparisonOptions = z
   .strictObject({
@@ -183,6 +191,7 @@ export const ComparisonOptions = z
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
     tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
+    overdispersion: OverdispersionOption.optional(),
     predict: z
       .strictObject({ columns: z.record(ColumnName, z.array(z.union([FiniteNumber, z.string().max(200), z.null()])).max(100_000)) })
       .optional()
@@ -197,6 +206,7 @@ export const ComparisonRequest = z
     }),
     response: ColumnName.optional().meta({ description: 'The numeric response column (required with data).' }),
     weights: WeightsColumn,
+    trials: TrialsColumn,
     rankBy: Criterion.optional().meta({ description: 'The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused.' }),
     candidates: z.array(Candidate).min(1, 'at least one candidate is needed').max(200),
     datasetFingerprint: z.string().regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits').optional().meta({

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
+import { GlmConventions, GlmModelFields, OverdispersionResult } from './glm.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -28,8 +29,8 @@ export const Coefficient = z
 export const ModelResult = z
   .strictObject({
     name: z.string(),
-    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood']).meta({
-      description: '"fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.',
+    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood', 'fitted']).meta({
+      description: '"fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).',
     }),
     estimation: z.enum(['ml', 'reml']),
     intercept: z.boolean().nullable().meta({ description: 'Null for a model fitted elsewhere.' }),
@@ -66,6 +67,9 @@ export const ModelResult = z
       .nullable()
       .meta({ description: 'How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response\'s original scale.' }),
     cautions: z.array(Caution),
+    ...GlmModelFields,
+    qaic: nullableNumber.optional().meta({ description: 'QAIC under options.overdispersion; absent without it.' }),
+    qaicc: nullableNumber.optional(),
   })
   .meta({ id: 'ModelResult' });
 
@@ -124,6 +128,7 @@ export const Conventions = z
     inference: z.string().meta({ description: 'How coefficients are tested and their intervals built.' }),
     predictions: z.string().meta({ description: 'How predictions, their intervals, back-transforms and averages are made.' }),
     intervalLevel: z.number().meta({ description: 'Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95).' }),
+    glm: GlmConventions.optional().meta({ description: 'The convention of generalised linear models, present when the comparison has one.' }),
   })
   .meta({ id: 'Conventions' });
 
@@ -153,7 +158,10 @@ export const ComparisonResult = z
       hqc: Ranking,
       adjustedR2: Ranking,
       loo: Ranking.meta({ description: 'By looRmse, smaller is better; no weights.' }),
+      qaic: Ranking.optional().meta({ description: 'By QAIC, with options.overdispersion only.' }),
+      qaicc: Ranking.optional().meta({ description: 'By QAICc, with options.overdispersion only.' }),
     }),
+    overdispersion: OverdispersionResult.optional().meta({ description: 'The ĉ behind rankings.qaic and rankings.qaicc.' }),
     verdict: Verdict,
     nestedTests: z.array(NestedTest),
     averaged: Averaged.nullable(),

@@ -4,19 +4,12 @@
 // request (scripts/demo-data.ts), with predictions so a body with numeric and
 // text columns crosses to the worker and back.
 import t from 'tap';
-import { buildTestApp } from '../../helper.ts';
+import { inlineAndPooled } from './inline-and-pooled.ts';
 import { demoComparison } from '../../../scripts/demo-data.ts';
 
 t.test('inline and pooled comparisons agree exactly, and so do their replays', async (t) => {
   const payload = { ...demoComparison(), options: { predict: { columns: { peakTemp: [1190, 1230], moisture: [5.5, 6.5], kiln: ['east', 'west'], holdMinutes: [30, 45] } } } };
-  const inline = await buildTestApp(t, { computeInlineWork: 1e12 });
-  const pooled = await buildTestApp(t, { computeInlineWork: 0 });
-  const a = await inline.app.inject({ method: 'POST', url: '/v1/comparisons', payload });
-  const b = await pooled.app.inject({ method: 'POST', url: '/v1/comparisons', payload });
-  t.equal(a.statusCode, 200, a.body.slice(0, 200));
-  t.equal(b.statusCode, 200, b.body.slice(0, 200));
-  const strip = (r: Record<string, unknown>) => ({ ...r, id: undefined, createdAt: undefined });
-  t.same(strip(b.json()), strip(a.json()), 'the same answer');
+  const { b, pooled } = await inlineAndPooled(t, payload);
   t.ok(b.json().models[0].predictions.length === 2, 'predictions made on the worker');
   const replay = await pooled.app.inject({ method: 'POST', url: `/v1/comparisons/${b.json().id}/replay` });
   t.equal(replay.statusCode, 200);

@@ -10,7 +10,8 @@ import type { ModelResult } from '../model-result.ts';
 import type { ScoringContext } from '../scoring-context.ts';
 import { transformResponse, type ResponseTransformSpec } from '../response-transform.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { criteriaFields, transformCaution } from '../model-fields.ts';
+import { criteriaFields, NOT_CHECKED, transformCaution } from '../model-fields.ts';
+import { alignToUsedRows } from '../aligned-rows.ts';
 
 export type ExternalCandidateInput =
   | { form: 'residuals'; name: string; residuals: (number | null)[]; parameters: number; response?: ResponseTransformSpec }
@@ -20,42 +21,14 @@ export type ExternalCandidateInput =
       estimation: 'ml' | 'reml'; fixedEffects?: string[]; response?: ResponseTransformSpec;
     };
 
-/** Rows named in one issue; beyond this, counted. */
-const LISTED_ROWS = 20;
-
-/** Residuals lined up with the used rows: one per used row, or one per data row with null at dropped rows. */
+/** Residuals lined up with the used rows, or the issue saying how they are not. */
 function alignedResiduals(values: (number | null)[], ctx: ScoringContext, at: IssuePath): Float64Array | Issue {
   const path = [...at, 'residuals'];
-  if (values.length === ctx.n) {
-    const out = new Float64Array(ctx.n);
-    for (let i = 0; i < ctx.n; i++) {
-      const v = values[i];
-      if (v === null) return issue('residual_missing', [...path, i], { row: ctx.rows ? ctx.rows[i] : i });
-      out[i] = v;
-    }
-    return out;
-  }
-  if (ctx.rows && ctx.dataRows !== null && values.length === ctx.dataRows) {
-    const used = new Set(ctx.rows);
-    const out = new Float64Array(ctx.n);
-    const atDropped: number[] = [];
-    let k = 0;
-    for (let r = 0; r < values.length; r++) {
-      const v = values[r];
-      if (used.has(r)) {
-        if (v === null) return issue('residual_missing', [...path, r], { row: r });
-        out[k++] = v;
-      } else if (v !== null) {
-        atDropped.push(r);
-      }
-    }
-    // Every such row named (up to a limit), so one answer shows the whole mismatch.
-    if (atDropped.length > 0) {
-      return issue('residual_at_dropped_row', [...path, atDropped[0]], {
-        row: atDropped[0], rows: atDropped.slice(0, LISTED_ROWS), count: atDropped.length,
-      });
-    }
-    return out;
+  const aligned = alignToUsedRows(values, ctx);
+  if (aligned instanceof Float64Array) return aligned;
+  if (aligned.problem === 'missing') return issue('residual_missing', [...path, aligned.index], { row: aligned.row });
+  if (aligned.problem === 'atDropped') {
+    return issue('residual_at_dropped_row', [...path, aligned.row], { row: aligned.row, rows: aligned.rows, count: aligned.count });
   }
   return issue('residuals_count_mismatch', path, { residuals: values.length, rows: ctx.n, dataRows: ctx.dataRows ?? ctx.n });
 }
@@ -126,11 +99,7 @@ export function scoreExternalCandidate(
       coefficients: [],
       aliased: [],
       conditionNumber: null,
-      press: null,
-      looRmse: null,
-      diagnostics: null,
-      predictions: null,
-      predictionScale: null,
+      ...NOT_CHECKED,
       cautions,
     },
   };

@@ -58,7 +58,7 @@ export function scoreFittedMeans(input: FittedMeansInput): FittedMeansScore | { 
   const { y, prior } = checked.rows;
   const n = y.length;
   const mu = input.fitted;
-  if (mu.length !== n) return { issues: [issue('glm_fitted_count_mismatch', [...at, 'fitted'], { fitted: mu.length, rows: n })] };
+  if (mu.length !== n) return { issues: [issue('glm_fitted_count_mismatch', [...at, 'fitted'], { fitted: mu.length, rows: n, dataRows: n })] };
   const range = MEAN_RANGE[input.family];
   const bad = mu.findIndex((m) => !range.test(m));
   if (bad >= 0) {

@@ -98,3 +98,17 @@ export interface GlmFit {
   cautions: GlmCaution[];
   working: GlmWorkingState;
 }
+
+/** The per-model fields of a generalised linear model (names fixed by the public contract). */
+export interface GlmReportFields {
+  family: GlmFamilyName;
+  /** Null for means fitted elsewhere (the service does not know the link). */
+  link: GlmLinkName | null;
+  deviance: number | null;
+  nullDeviance: number | null;
+  pearsonChiSquare: number | null;
+  distributionParameters: DistributionParameter[];
+  /** Null for means fitted elsewhere. */
+  convergence: { converged: boolean; iterations: number; stepHalvings: number; rule: string } | null;
+  devianceExplained: number | null;
+}

@@ -1,9 +1,9 @@
 // The candidates fitted here: each design on the common rows, and each fit on
 // the response's scale the candidate asks for. What this may cost was settled
 // before any of it was built (src/core/pricing), so nothing here counts work.
-import { buildDesign } from '../../design/index.ts';
-import { issue, type Issue } from '../../issues.ts';
-import type { Columns, DesignMatrix } from '../../types.ts';
+import type { Issue } from '../../issues.ts';
+import type { Columns } from '../../types.ts';
+import { candidateDesigns } from '../candidate-designs.ts';
 import { fitCandidate, type FittedCandidateInput, type FittedModel } from './fitted-model.ts';
 import type { ScoringContext } from '../scoring-context.ts';
 import { transformResponse, type TransformedResponse } from '../response-transform.ts';
@@ -19,18 +19,7 @@ export function fitAll(
   issues: Issue[],
 ): Map<number, FittedModel> {
   const rows = ctx.rows!;
-  const designs = new Map<number, DesignMatrix>();
-  candidates.forEach((c, i) => {
-    const built = buildDesign(columns, c.terms, c.intercept, rows, ['candidates', i]);
-    if ('issues' in built) {
-      issues.push(...built.issues);
-      return;
-    }
-    const p = built.design.labels.length;
-    // More coefficients than rows: nothing can be estimated, let alone scored.
-    if (p > rows.length) issues.push(issue('too_few_rows', ['candidates', i], { rows: rows.length, parameters: p }));
-    designs.set(i, built.design);
-  });
+  const designs = candidateDesigns(candidates, columns, rows, issues);
   const fitted = new Map<number, FittedModel>();
   if (issues.length > 0) return fitted;
 

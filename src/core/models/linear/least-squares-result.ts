@@ -7,7 +7,7 @@ import { computeCriteria } from '../../scoring/criteria.ts';
 import type { Caution } from '../../scoring/cautions.ts';
 import type { ModelResult } from '../model-result.ts';
 import type { ResponseTransformSpec } from '../response-transform.ts';
-import { criteriaFields, finiteOrNull, transformCaution } from '../model-fields.ts';
+import { criteriaFields, finiteOrNull, NOT_CHECKED, transformCaution } from '../model-fields.ts';
 import { coefficientTest, twoSidedCritical } from '../../inference/coefficient-tests.ts';
 
 export interface LeastSquaresFacts {
@@ -98,11 +98,7 @@ export function leastSquaresModelResult(f: LeastSquaresFacts): ModelResult {
     }),
     aliased: f.aliased,
     conditionNumber: finiteOrNull(f.conditionNumber),
-    press: null,
-    looRmse: null,
-    diagnostics: null,
-    predictions: null,
-    predictionScale: null,
+    ...NOT_CHECKED,
     cautions,
   };
 }

@@ -1,0 +1,45 @@
+// The price of this kind's candidates from the request's shape alone, in the
+// cost model's unit: priceGlm counts floating-point operations of a fit run
+// to its iteration cap, so it is divided by GLM_FLOPS_PER_UNIT, set from
+// scripts/bench-pricing.ts (see there).
+import { designWidth } from '../../pricing/design-width.ts';
+import { ANSWER_BYTES, FIXED_WORK, NO_COST } from '../../pricing/least-squares-cost.ts';
+import { scoredElsewhere, type CandidateContext, type CandidateCost } from '../../pricing/candidate-cost.ts';
+import type { FittedMeansCandidateInput, GlmCandidateInput } from './candidate.ts';
+import { priceGlm } from './pricing.ts';
+
+/**
+ * priceGlm's floating-point operations per unit of the cost model. Two per
+ * multiply-add, times the ratio scripts/bench-pricing.ts measured: at 2, a
+ * logistic and a Poisson fit of 100,000 × 31 took 0.58 and 0.46 ns per unit
+ * against a median of 11.5 for the other kinds (a busy shared machine), the
+ * unit being a calibrated multiply-add rather than a bare one. At 20 a typical
+ * fit (5 to 7 weighted solves) sits near half the median rate, so a fit that
+ * runs to its 25-solve cap costs at most about twice its priced time.
+ */
+export const GLM_FLOPS_PER_UNIT = 20;
+
+export function priceGlmCandidate(c: GlmCandidateInput, ctx: CandidateContext): CandidateCost {
+  const width = designWidth(ctx.shape, c.terms, c.intercept, ctx.maxDesignColumns);
+  const p = width.columns;
+  const n = ctx.shape.rows;
+  const widest = Math.max(0, ...width.perTerm);
+  const common = { designColumns: p, widestTerm: widest > 1 ? width.perTerm.indexOf(widest) : null, atLeast: width.atLeast };
+  const work = priceGlm({ rows: n, columns: p, family: c.family, link: c.link }) / GLM_FLOPS_PER_UNIT;
+  return {
+    fit: {
+      work: FIXED_WORK.modelFittedHere + work,
+      // Held until the answer: the design, response, prior weights, offset, μ, η, IRLS weights and the p×p covariance.
+      heldBytes: 8 * n * p + 56 * n + 8 * p * p,
+      // While it runs: the weighted copy of the design and its QR, plus the least-squares solve's double-double copy.
+      passingBytes: 32 * n * p,
+      resultBytes: ANSWER_BYTES.model + p * ANSWER_BYTES.coefficient,
+    },
+    // Predictions from a generalised linear model are not offered yet.
+    prediction: NO_COST,
+    ...common,
+  };
+}
+
+/** Means fitted elsewhere: one pass over them (a log-gamma per row for the negative binomial and gamma). */
+export const priceFittedMeansCandidate = (c: FittedMeansCandidateInput): CandidateCost => scoredElsewhere(c.fitted.length * 20);
