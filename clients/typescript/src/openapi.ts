@@ -2394,6 +2394,59 @@ export interface components {
             rowsDropped: number;
             bytes: number;
         };
+        /**
+         * @description The distribution of the response. gaussian (the default) with the identity link and no offset is least squares, unchanged.
+         * @enum {string}
+         */
+        GlmFamilyInput: "gaussian" | "binomial" | "poisson" | "negativeBinomial" | "gamma" | "inverseGaussian";
+        /**
+         * @description Default: the family's canonical link (identity for gaussian, logit for binomial, log for poisson and negativeBinomial, inverse for gamma, inverseSquare for inverseGaussian). A link the family does not admit is a 422.
+         * @enum {string}
+         */
+        GlmLinkInput: "identity" | "log" | "logit" | "probit" | "cloglog" | "inverse" | "sqrt" | "inverseSquare";
+        /** @description A generalised linear model fitted elsewhere, sent by its fitted means; the full log-likelihood of its family is computed here from the response. */
+        FittedMeansCandidateInput: {
+            name: string;
+            family: components["schemas"]["GlmFamilyInput"];
+            /** @description The fitted mean of each row (success probabilities for binomial), aligned like residuals: one per row the comparison uses, or one per data row with null exactly where the comparison drops a row. */
+            fitted: (number | null)[];
+            /** @description k: every parameter the model estimated, θ, shape or dispersion included. */
+            parameters: number;
+            /** @description negativeBinomial: θ, with variance μ + μ²/θ (required). */
+            theta?: number;
+            /** @description gamma: the shape, with variance μ²/shape (required). */
+            shape?: number;
+            /** @description inverseGaussian: φ, with variance φμ³ (required). */
+            dispersion?: number;
+        };
+        GlmConventionsInput: {
+            logLikelihood: string;
+            parameterCount: string;
+            observations: string;
+            measure: string;
+            distributionParameters: string;
+            standardErrors: string;
+            gaussianIdentity: string;
+            convergence: string;
+            separation: string;
+            nullDeviance: string;
+            fittedElsewhere: string;
+            overdispersion: string;
+        };
+        /** @description Adds QAIC = −2 logL/ĉ + 2k and QAICc = QAIC + 2k(k+1)/(n − k − 1), k counting ĉ (Burnham & Anderson 2002), per model and as rankings.qaic and rankings.qaicc. */
+        OverdispersionOptionInput: {
+            /** @description ĉ, the variance inflation of counts: a number, or "estimate" for Pearson χ²/(n − rank) of the fitted generalised linear candidate with the most parameters. */
+            cHat: number | "estimate";
+        };
+        OverdispersionResultInput: {
+            cHat: number;
+            /** @description "given", or the name of the candidate whose Pearson χ²/(n − rank) it is. */
+            source: string;
+            /** @description Residual degrees of freedom of the estimate; null when given. */
+            df: number | null;
+            /** @description An estimate below 1: ĉ = 1 is the usual choice then (no underdispersion to correct); the service leaves that to the caller. */
+            belowOne: boolean;
+        };
         DataInput: {
             /** @description Equal-length arrays: numbers, strings (categorical) or null (missing). */
             columns: {
@@ -2407,13 +2460,17 @@ export interface components {
             /** @description Box–Cox λ (required for boxcox): (y^λ − 1)/λ, ln y at λ = 0. */
             lambda?: number;
         };
-        /** @description A model the service fits by least squares. */
+        /** @description A model the service fits: least squares by default, a generalised linear model with family (and link, offset). */
         FittedCandidateInput: {
             name: string;
             terms: components["schemas"]["TermInput"][];
             /** @default true */
             intercept?: boolean;
             response?: components["schemas"]["ResponseTransformInput"];
+            family?: components["schemas"]["GlmFamilyInput"];
+            link?: components["schemas"]["GlmLinkInput"];
+            /** @description A numeric column added to the linear predictor as it is (for example the log of an exposure); rows where it is missing are left out for every candidate. */
+            offset?: string;
         };
         /** @description A Gaussian model fitted elsewhere, sent by its residuals; the log-likelihood is computed here. */
         ResidualsCandidateInput: {
@@ -2453,8 +2510,8 @@ export interface components {
             fixedEffects?: string[];
             response?: components["schemas"]["ResponseTransformInput"];
         };
-        /** @description One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood. */
-        CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"];
+        /** @description One of the five candidate forms: terms (fitted here), residuals, rss, logLikelihood, or fitted (means of a generalised linear model fitted elsewhere). */
+        CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"];
         ComparisonOptionsInput: {
             /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["CriterionInput"];
@@ -2473,6 +2530,7 @@ export interface components {
              * @enum {string}
              */
             average?: "all" | "confidenceSet";
+            overdispersion?: components["schemas"]["OverdispersionOptionInput"];
             /** @description New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). */
             predict?: {
                 columns: {
@@ -2487,6 +2545,8 @@ export interface components {
             response?: string;
             /** @description The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out). */
             weights?: string | null;
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            trials?: string;
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
             rankBy?: components["schemas"]["CriterionInput"];
             candidates: components["schemas"]["CandidateInput"][];
@@ -2524,10 +2584,10 @@ export interface components {
         ModelResultInput: {
             name: string;
             /**
-             * @description "fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.
+             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -2576,6 +2636,34 @@ export interface components {
                 description: string;
             } | null;
             cautions: components["schemas"]["CautionInput"][];
+            family?: components["schemas"]["GlmFamilyInput"];
+            /** @description Null for means fitted elsewhere. */
+            link?: components["schemas"]["GlmLinkInput"] | null;
+            /** @description Σ prior weight × unit deviance at the fitted means. */
+            deviance?: number | null;
+            /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
+            nullDeviance?: number | null;
+            pearsonChiSquare?: number | null;
+            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            distributionParameters?: {
+                /** @enum {string} */
+                name: "theta" | "shape" | "dispersion";
+                estimate: number;
+                /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
+                standardError: number | null;
+            }[];
+            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: {
+                converged: boolean;
+                iterations: number;
+                stepHalvings: number;
+                rule: string;
+            } | null;
+            /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
+            devianceExplained?: number | null;
+            /** @description QAIC under options.overdispersion; absent without it. */
+            qaic?: number | null;
+            qaicc?: number | null;
         };
         RankingEntryInput: {
             /** @description Competition rank (ties share a rank); null when the model has no value. */
@@ -2636,6 +2724,8 @@ export interface components {
             predictions: string;
             /** @description Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95). */
             intervalLevel: number;
+            /** @description The convention of generalised linear models, present when the comparison has one. */
+            glm?: components["schemas"]["GlmConventionsInput"];
         };
         DatasetInput: {
             /** @description "sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent. */
@@ -2665,7 +2755,13 @@ export interface components {
                 adjustedR2: components["schemas"]["RankingEntryInput"][];
                 /** @description By looRmse, smaller is better; no weights. */
                 loo: components["schemas"]["RankingEntryInput"][];
+                /** @description By QAIC, with options.overdispersion only. */
+                qaic?: components["schemas"]["RankingEntryInput"][];
+                /** @description By QAICc, with options.overdispersion only. */
+                qaicc?: components["schemas"]["RankingEntryInput"][];
             };
+            /** @description The ĉ behind rankings.qaic and rankings.qaicc. */
+            overdispersion?: components["schemas"]["OverdispersionResultInput"];
             verdict: components["schemas"]["VerdictInput"];
             nestedTests: components["schemas"]["NestedTestInput"][];
             averaged: components["schemas"]["AveragedInput"] | null;
@@ -2902,10 +2998,10 @@ export interface components {
         SearchModelInput: {
             name: string;
             /**
-             * @description "fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.
+             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -2954,6 +3050,34 @@ export interface components {
                 description: string;
             } | null;
             cautions: components["schemas"]["CautionInput"][];
+            family?: components["schemas"]["GlmFamilyInput"];
+            /** @description Null for means fitted elsewhere. */
+            link?: components["schemas"]["GlmLinkInput"] | null;
+            /** @description Σ prior weight × unit deviance at the fitted means. */
+            deviance?: number | null;
+            /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
+            nullDeviance?: number | null;
+            pearsonChiSquare?: number | null;
+            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            distributionParameters?: {
+                /** @enum {string} */
+                name: "theta" | "shape" | "dispersion";
+                estimate: number;
+                /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
+                standardError: number | null;
+            }[];
+            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: {
+                converged: boolean;
+                iterations: number;
+                stepHalvings: number;
+                rule: string;
+            } | null;
+            /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
+            devianceExplained?: number | null;
+            /** @description QAIC under options.overdispersion; absent without it. */
+            qaic?: number | null;
+            qaicc?: number | null;
             /** @description The subset's terms in the request's forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit. */
             terms: components["schemas"]["TermInput"][];
             /** @description Criterion value minus the best over all evaluated subsets (>= 0). */
@@ -3290,6 +3414,59 @@ export interface components {
             rowsDropped: number;
             bytes: number;
         };
+        /**
+         * @description The distribution of the response. gaussian (the default) with the identity link and no offset is least squares, unchanged.
+         * @enum {string}
+         */
+        GlmFamily: "gaussian" | "binomial" | "poisson" | "negativeBinomial" | "gamma" | "inverseGaussian";
+        /**
+         * @description Default: the family's canonical link (identity for gaussian, logit for binomial, log for poisson and negativeBinomial, inverse for gamma, inverseSquare for inverseGaussian). A link the family does not admit is a 422.
+         * @enum {string}
+         */
+        GlmLink: "identity" | "log" | "logit" | "probit" | "cloglog" | "inverse" | "sqrt" | "inverseSquare";
+        /** @description A generalised linear model fitted elsewhere, sent by its fitted means; the full log-likelihood of its family is computed here from the response. */
+        FittedMeansCandidate: {
+            name: string;
+            family: components["schemas"]["GlmFamily"];
+            /** @description The fitted mean of each row (success probabilities for binomial), aligned like residuals: one per row the comparison uses, or one per data row with null exactly where the comparison drops a row. */
+            fitted: (number | null)[];
+            /** @description k: every parameter the model estimated, θ, shape or dispersion included. */
+            parameters: number;
+            /** @description negativeBinomial: θ, with variance μ + μ²/θ (required). */
+            theta?: number;
+            /** @description gamma: the shape, with variance μ²/shape (required). */
+            shape?: number;
+            /** @description inverseGaussian: φ, with variance φμ³ (required). */
+            dispersion?: number;
+        };
+        GlmConventions: {
+            logLikelihood: string;
+            parameterCount: string;
+            observations: string;
+            measure: string;
+            distributionParameters: string;
+            standardErrors: string;
+            gaussianIdentity: string;
+            convergence: string;
+            separation: string;
+            nullDeviance: string;
+            fittedElsewhere: string;
+            overdispersion: string;
+        };
+        /** @description Adds QAIC = −2 logL/ĉ + 2k and QAICc = QAIC + 2k(k+1)/(n − k − 1), k counting ĉ (Burnham & Anderson 2002), per model and as rankings.qaic and rankings.qaicc. */
+        OverdispersionOption: {
+            /** @description ĉ, the variance inflation of counts: a number, or "estimate" for Pearson χ²/(n − rank) of the fitted generalised linear candidate with the most parameters. */
+            cHat: number | "estimate";
+        };
+        OverdispersionResult: {
+            cHat: number;
+            /** @description "given", or the name of the candidate whose Pearson χ²/(n − rank) it is. */
+            source: string;
+            /** @description Residual degrees of freedom of the estimate; null when given. */
+            df: number | null;
+            /** @description An estimate below 1: ĉ = 1 is the usual choice then (no underdispersion to correct); the service leaves that to the caller. */
+            belowOne: boolean;
+        };
         Data: {
             /** @description Equal-length arrays: numbers, strings (categorical) or null (missing). */
             columns: {
@@ -3303,13 +3480,17 @@ export interface components {
             /** @description Box–Cox λ (required for boxcox): (y^λ − 1)/λ, ln y at λ = 0. */
             lambda?: number;
         };
-        /** @description A model the service fits by least squares. */
+        /** @description A model the service fits: least squares by default, a generalised linear model with family (and link, offset). */
         FittedCandidate: {
             name: string;
             terms: components["schemas"]["Term"][];
             /** @default true */
             intercept: boolean;
             response?: components["schemas"]["ResponseTransform"];
+            family?: components["schemas"]["GlmFamily"];
+            link?: components["schemas"]["GlmLink"];
+            /** @description A numeric column added to the linear predictor as it is (for example the log of an exposure); rows where it is missing are left out for every candidate. */
+            offset?: string;
         };
         /** @description A Gaussian model fitted elsewhere, sent by its residuals; the log-likelihood is computed here. */
         ResidualsCandidate: {
@@ -3349,8 +3530,8 @@ export interface components {
             fixedEffects?: string[];
             response?: components["schemas"]["ResponseTransform"];
         };
-        /** @description One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood. */
-        Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"];
+        /** @description One of the five candidate forms: terms (fitted here), residuals, rss, logLikelihood, or fitted (means of a generalised linear model fitted elsewhere). */
+        Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"];
         ComparisonOptions: {
             /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["Criterion"];
@@ -3369,6 +3550,7 @@ export interface components {
              * @enum {string}
              */
             average: "all" | "confidenceSet";
+            overdispersion?: components["schemas"]["OverdispersionOption"];
             /** @description New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). */
             predict?: {
                 columns: {
@@ -3383,6 +3565,8 @@ export interface components {
             response?: string;
             /** @description The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out). */
             weights?: string | null;
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            trials?: string;
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
             rankBy?: components["schemas"]["Criterion"];
             candidates: components["schemas"]["Candidate"][];
@@ -3420,10 +3604,10 @@ export interface components {
         ModelResult: {
             name: string;
             /**
-             * @description "fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.
+             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -3472,6 +3656,34 @@ export interface components {
                 description: string;
             } | null;
             cautions: components["schemas"]["Caution"][];
+            family?: components["schemas"]["GlmFamily"];
+            /** @description Null for means fitted elsewhere. */
+            link?: components["schemas"]["GlmLink"] | null;
+            /** @description Σ prior weight × unit deviance at the fitted means. */
+            deviance?: number | null;
+            /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
+            nullDeviance?: number | null;
+            pearsonChiSquare?: number | null;
+            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            distributionParameters?: {
+                /** @enum {string} */
+                name: "theta" | "shape" | "dispersion";
+                estimate: number;
+                /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
+                standardError: number | null;
+            }[];
+            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: {
+                converged: boolean;
+                iterations: number;
+                stepHalvings: number;
+                rule: string;
+            } | null;
+            /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
+            devianceExplained?: number | null;
+            /** @description QAIC under options.overdispersion; absent without it. */
+            qaic?: number | null;
+            qaicc?: number | null;
         };
         RankingEntry: {
             /** @description Competition rank (ties share a rank); null when the model has no value. */
@@ -3532,6 +3744,8 @@ export interface components {
             predictions: string;
             /** @description Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95). */
             intervalLevel: number;
+            /** @description The convention of generalised linear models, present when the comparison has one. */
+            glm?: components["schemas"]["GlmConventions"];
         };
         Dataset: {
             /** @description "sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent. */
@@ -3561,7 +3775,13 @@ export interface components {
                 adjustedR2: components["schemas"]["RankingEntry"][];
                 /** @description By looRmse, smaller is better; no weights. */
                 loo: components["schemas"]["RankingEntry"][];
+                /** @description By QAIC, with options.overdispersion only. */
+                qaic?: components["schemas"]["RankingEntry"][];
+                /** @description By QAICc, with options.overdispersion only. */
+                qaicc?: components["schemas"]["RankingEntry"][];
             };
+            /** @description The ĉ behind rankings.qaic and rankings.qaicc. */
+            overdispersion?: components["schemas"]["OverdispersionResult"];
             verdict: components["schemas"]["Verdict"];
             nestedTests: components["schemas"]["NestedTest"][];
             averaged: components["schemas"]["Averaged"] | null;
@@ -3798,10 +4018,10 @@ export interface components {
         SearchModel: {
             name: string;
             /**
-             * @description "fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.
+             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -3850,6 +4070,34 @@ export interface components {
                 description: string;
             } | null;
             cautions: components["schemas"]["Caution"][];
+            family?: components["schemas"]["GlmFamily"];
+            /** @description Null for means fitted elsewhere. */
+            link?: components["schemas"]["GlmLink"] | null;
+            /** @description Σ prior weight × unit deviance at the fitted means. */
+            deviance?: number | null;
+            /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
+            nullDeviance?: number | null;
+            pearsonChiSquare?: number | null;
+            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            distributionParameters?: {
+                /** @enum {string} */
+                name: "theta" | "shape" | "dispersion";
+                estimate: number;
+                /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
+                standardError: number | null;
+            }[];
+            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: {
+                converged: boolean;
+                iterations: number;
+                stepHalvings: number;
+                rule: string;
+            } | null;
+            /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
+            devianceExplained?: number | null;
+            /** @description QAIC under options.overdispersion; absent without it. */
+            qaic?: number | null;
+            qaicc?: number | null;
             /** @description The subset's terms in the request's forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit. */
             terms: components["schemas"]["Term"][];
             /** @description Criterion value minus the best over all evaluated subsets (>= 0). */
