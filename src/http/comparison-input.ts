@@ -16,6 +16,7 @@ export function ownColumns(columns: Record<string, ReadonlyArray<number | string
 type RequestCandidate = ComparisonRequest['candidates'][number];
 
 function candidateInput(c: RequestCandidate): CandidateInput {
+  if ('distribution' in c) return { form: 'lifetime', name: c.name, distribution: c.distribution, terms: c.terms };
   if ('terms' in c) return { form: 'fit', name: c.name, terms: c.terms, intercept: c.intercept, response: c.response };
   if ('residuals' in c) return { form: 'residuals', name: c.name, residuals: c.residuals, parameters: c.parameters, response: c.response };
   if ('rss' in c) return { form: 'rss', name: c.name, rss: c.rss, parameters: c.parameters, observations: c.observations, response: c.response };
@@ -35,6 +36,8 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     confidenceLevel: body.options.confidenceLevel,
     intervalLevel: body.options.intervalLevel,
     expectedFingerprint: body.datasetFingerprint,
+    censoring: body.censoring ?? null,
+    percentiles: body.options.percentiles,
     extras: {
       tests: body.options.tests,
       average: body.options.average,

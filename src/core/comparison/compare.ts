@@ -19,6 +19,9 @@ import { conventions, type Conventions } from './conventions.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 import { averagingCautions } from './extras/averaging.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
+import type { CensoringColumns } from '../models/lifetime/index.ts';
+import { censoredSample, censoringRowColumns } from './censored-sample.ts';
+import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
 
@@ -34,6 +37,10 @@ export interface ComparisonInput {
   /** Confidence level of coefficient and prediction intervals (default 0.95). */
   intervalLevel?: number;
   expectedFingerprint?: string;
+  /** Request-level censoring: the status column and the upper column of interval rows. */
+  censoring?: CensoringColumns | null;
+  /** options.percentiles, read by lifetime models. */
+  percentiles?: readonly number[];
   extras?: ExtrasOptions;
   policy: Policy;
   policyHash: string;
@@ -58,7 +65,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
   const { columns, candidates } = input;
   if (!columns || input.response === null) {
     candidates.forEach((c, i) => {
-      if (c.form === 'fit' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'fit' ? 'a candidate fitted here' : 'a response transform' }));
+      if (c.form === 'fit' || c.form === 'lifetime' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
     });
     if (input.weights) issues.push(issue('data_required', ['weights'], { form: 'a weights column' }));
     const first = candidates[0];
@@ -66,7 +73,10 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
     const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
     return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [], missingWeights: 0, zeroWeights: 0 };
   }
-  const termColumns = [...new Set(candidates.flatMap((c) => (c.form === 'fit' ? columnsUsedBy(c.terms) : [])))];
+  const termColumns = [...new Set([
+    ...candidates.flatMap((c) => (c.form === 'fit' || c.form === 'lifetime' ? columnsUsedBy(c.terms) : [])),
+    ...censoringRowColumns(input.censoring ?? null),
+  ])];
   const sample = sampleRows(columns, input.response, input.weights, termColumns);
   if ('issues' in sample) {
     issues.push(...sample.issues);
@@ -98,13 +108,16 @@ export function compareModels(
     name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
   }))));
 
-  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel }, issues);
+  const censored = censoredSample({ ...input, censoring: input.censoring ?? null }, ctx, issues);
+  if (issues.length > 0) return { issues };
+  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
 
   if (issues.length > 0) return { issues };
   // Only once every used column is known to exist and hold values on the used rows.
   const fingerprint = input.columns && ctx.rows
-    ? datasetFingerprint({ columns: input.columns, response: input.response!, weights: input.weights, used, rows: ctx.rows })
+    // The upper column decides interval rows' likelihood, so it is part of the data the answer rests on.
+    ? datasetFingerprint({ columns: input.columns, response: input.response!, weights: input.weights, used: [...used, ...(input.censoring?.upper ? [input.censoring.upper] : [])], rows: ctx.rows })
     : null;
   if (input.expectedFingerprint && input.expectedFingerprint !== fingerprint) {
     return { issues: [issue('fingerprint_mismatch', ['datasetFingerprint'], { expected: input.expectedFingerprint, actual: fingerprint })] };
@@ -125,7 +138,7 @@ export function compareModels(
 
   return {
     result: {
-      conventions: conventions(choice, confidenceLevel, intervalLevel),
+      conventions: { ...conventions(choice, confidenceLevel, intervalLevel), ...lifetimeConventions(input.candidates) },
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
@@ -140,6 +153,7 @@ export function compareModels(
         }),
         ...checksCaution(models),
         ...averagingCautions(extras.averaged, rankings[choice.rankBy]),
+        ...lifetimeCautions(input.candidates),
       ],
     },
   };

@@ -5,6 +5,7 @@ import type { Caution } from '../scoring/cautions.ts';
 import type { CoefficientTest } from '../inference/coefficient-tests.ts';
 import type { PredictionWithIntervals } from '../inference/prediction-intervals.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
+import type { LifetimeReportFields } from './lifetime/candidate.ts';
 
 /** How a model's predictions relate to the response as sent. */
 export interface PredictionScale {
@@ -15,9 +16,10 @@ export interface PredictionScale {
 /** A coefficient with its t test and confidence interval (null where they do not exist). */
 export type CoefficientResult = { term: string; estimate: number | null; standardError: number | null } & CoefficientTest;
 
-export interface ModelResult {
+/** Fields only some kinds report (a life model's distribution, percentiles...): absent on the others. */
+export interface ModelResult extends Partial<LifetimeReportFields> {
   name: string;
-  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood';
+  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood' | 'lifetime';
   estimation: 'ml' | 'reml';
   /** Null for a model fitted elsewhere: the service cannot know. */
   intercept: boolean | null;

@@ -12,9 +12,12 @@ import type { FittedCandidateInput } from './linear/fitted-model.ts';
 import { leastSquaresCapabilities } from './linear/capabilities.ts';
 import { priceLeastSquaresCandidate } from './linear/price.ts';
 import type { ScoringContext } from './scoring-context.ts';
+import type { CensoredResponse } from './lifetime/censoring.ts';
+import type { LifetimeCandidateInput } from './lifetime/candidate.ts';
+import { priceLifetimeCandidate, scoreLifetimeCandidates } from './lifetime/kind.ts';
 import { scoredModel, type ScoredModel } from './scored-model.ts';
 
-export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
+export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput | LifetimeCandidateInput;
 export type CandidateForm = CandidateInput['form'];
 export type OfForm<F extends CandidateForm> = Extract<CandidateInput, { form: F }>;
 
@@ -23,6 +26,10 @@ export interface ScoringSample {
   columns: Columns | null;
   ctx: ScoringContext;
   intervalLevel: number | undefined;
+  /** The response with its censoring (request-level `censoring`) on the rows; null when no lifetime candidate needs it. */
+  censored?: CensoredResponse | null;
+  /** options.percentiles: life percentiles a lifetime model without terms reports. */
+  percentiles?: readonly number[];
 }
 
 export interface CandidateKind<C extends CandidateInput> {
@@ -64,12 +71,20 @@ const external: CandidateKind<ExternalCandidateInput> = {
   price: (c) => scoredElsewhere(c.form === 'residuals' ? c.residuals.length : 1),
 };
 
+/** Life distributions fitted by maximum likelihood to censored (or exact) times. */
+const lifetime: CandidateKind<LifetimeCandidateInput> = {
+  score: (candidates, { columns, ctx, censored, percentiles, intervalLevel }, issues) =>
+    scoreLifetimeCandidates(candidates, { columns, rows: ctx.rows, censored: censored ?? null, percentiles, intervalLevel }, issues),
+  price: priceLifetimeCandidate,
+};
+
 /** Each form's kind; the kinds score in the order of first appearance here. */
 export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> } = {
   fit: linear,
   residuals: external,
   rss: external,
   logLikelihood: external,
+  lifetime,
 };
 
 /**

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
+import { Censoring, LifetimeCandidate, Percentiles } from './lifetime.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
@@ -163,7 +164,7 @@ const CRITERION_KEYS = ['aic', 'aicc', 'bic', 'hqc', 'AIC', 'AICc', 'BIC', 'HQC'
  * for a candidate sent by a criterion value, the likelihood to send instead.
  */
 function candidateFormsMessage(input: unknown): string {
-  const forms = 'a candidate is one of: { name, terms, intercept?, response? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }';
+  const forms = 'a candidate is one of: { name, terms, intercept?, response? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, distribution, terms? } (a life distribution fitted here)';
   if (input === null || typeof input !== 'object' || Array.isArray(input)) return `${forms}.`;
   const sent = CRITERION_KEYS.find((k) => Object.prototype.hasOwnProperty.call(input, k));
   if (sent) {
@@ -173,8 +174,8 @@ function candidateFormsMessage(input: unknown): string {
 }
 
 export const Candidate = z
-  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
-  .meta({ id: 'Candidate', description: 'One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood.' });
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, LifetimeCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
+  .meta({ id: 'Candidate', description: 'One of the candidate forms: terms (fitted here by least squares), residuals, rss, logLikelihood, or distribution (a life distribution fitted here).' });
 
 export const ComparisonOptions = z
   .strictObject({
@@ -182,6 +183,7 @@ export const ComparisonOptions = z
     confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
     tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
+    percentiles: Percentiles.optional(),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
     predict: z
       .strictObject({ columns: z.record(ColumnName, z.array(z.union([FiniteNumber, z.string().max(200), z.null()])).max(100_000)) })
@@ -197,6 +199,7 @@ export const ComparisonRequest = z
     }),
     response: ColumnName.optional().meta({ description: 'The numeric response column (required with data).' }),
     weights: WeightsColumn,
+    censoring: Censoring.optional(),
     rankBy: Criterion.optional().meta({ description: 'The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused.' }),
     candidates: z.array(Candidate).min(1, 'at least one candidate is needed').max(200),
     datasetFingerprint: z.string().regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits').optional().meta({

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
+import { LIFETIME_MODEL_FIELDS, LifetimeConventions } from './lifetime.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -28,8 +29,8 @@ export const Coefficient = z
 export const ModelResult = z
   .strictObject({
     name: z.string(),
-    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood']).meta({
-      description: '"fit": fitted here by least squares; otherwise the form in which a model fitted elsewhere was sent.',
+    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood', 'lifetime']).meta({
+      description: '"fit": fitted here by least squares; "lifetime": a life distribution fitted here by maximum likelihood; otherwise the form in which a model fitted elsewhere was sent.',
     }),
     estimation: z.enum(['ml', 'reml']),
     intercept: z.boolean().nullable().meta({ description: 'Null for a model fitted elsewhere.' }),
@@ -66,6 +67,7 @@ export const ModelResult = z
       .nullable()
       .meta({ description: 'How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response\'s original scale.' }),
     cautions: z.array(Caution),
+    ...LIFETIME_MODEL_FIELDS,
   })
   .meta({ id: 'ModelResult' });
 
@@ -124,6 +126,7 @@ export const Conventions = z
     inference: z.string().meta({ description: 'How coefficients are tested and their intervals built.' }),
     predictions: z.string().meta({ description: 'How predictions, their intervals, back-transforms and averages are made.' }),
     intervalLevel: z.number().meta({ description: 'Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95).' }),
+    lifetime: LifetimeConventions,
   })
   .meta({ id: 'Conventions' });
 
