@@ -100,6 +100,8 @@ export interface IssueFacts {
   /** A candidate whose likelihood takes every response value as observed, on rows that are censored. */
   censored_response_refused: { name: string; form: string; censored: number; rows: number };
   lifetime_weights_not_supported: { candidates: string[] };
+  /** A probability mass and a density in one comparison (path: the first mass candidate). */
+  likelihood_measures_mixed: { mass: string[]; density: string[]; against: string };
   // Generalised linear models (src/core/models/glm).
   glm_link_not_allowed: { family: string; link: string; allowed: string[] };
   glm_trials_invalid: { row: number; value: number };
@@ -313,6 +315,8 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   },
   censored_response_refused: (f, at) =>
     `${at} (${JSON.stringify(f.name)}, ${f.form}) treats every response value as an observed failure time, but ${f.censored} of the ${f.rows} rows are censored (censoring.status): its likelihood would take a censoring time for a failure. Use a candidate with a distribution, or send this model's censored log-likelihood as a logLikelihood candidate.`,
+  likelihood_measures_mixed: (f, at) =>
+    `${at} (${JSON.stringify(f.mass[0])}) has a likelihood that is a probability mass (of counts or outcomes), while ${JSON.stringify(f.against)} has a density (of a continuous response); the two are on different scales and cannot share a ranking. Compare ${quoteList(f.mass)} among themselves and ${quoteList(f.density)} among themselves.`,
   lifetime_weights_not_supported: (f, at) =>
     `${at}: the lifetime candidates ${quoteList(f.candidates)} do not take weights (each row is one unit); leave weights out, or send repeated units as repeated rows.`,
   // Generalised linear models (src/core/models/glm).

@@ -21,6 +21,7 @@ import { averagingCautions } from './extras/averaging.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 import type { CensoringColumns } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
+import { mixedMeasureIssues } from './measure-rule.ts';
 import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
@@ -112,6 +113,7 @@ export function compareModels(
   if (issues.length > 0) return { issues };
   const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
+  issues.push(...mixedMeasureIssues(scored, (name) => input.candidates.findIndex((c) => c.name === name)));
 
   if (issues.length > 0) return { issues };
   // Only once every used column is known to exist and hold values on the used rows.
