@@ -183,3 +183,26 @@ t.test('a life comparison gives the same answer inline and on a worker of the po
   t.same(strip(b.json()), strip(a.json()), 'the same answer to the last digit');
   t.equal(a.json().models[1].percentiles.length, 1, 'the gamma without terms reports its B10 life');
 });
+
+t.test('the exponential inside the Weibull: a likelihood-ratio test from survreg\'s two maxima', async (t) => {
+  const res = await post(t, solderRequest({ candidates: [
+    { name: 'exponential', distribution: 'exponential', terms: SOLDER_TERMS },
+    { name: 'weibull', distribution: 'weibull', terms: SOLDER_TERMS },
+    { name: 'weibull-no-load', distribution: 'weibull', terms: SOLDER_TERMS.slice(0, 2) },
+    { name: 'lognormal', distribution: 'lognormal', terms: SOLDER_TERMS },
+  ] }));
+  t.equal(res.statusCode, 200, res.body.slice(0, 600));
+  const tests: { smaller: string; larger: string; df: number; lrStatistic: number; lrPValue: number; fStatistic: null; reason: string }[] = res.json().nestedTests;
+  const shape = tests.find((x) => x.smaller === 'exponential' && x.larger === 'weibull')!;
+  t.ok(shape, JSON.stringify(tests));
+  t.equal(shape.df, 1);
+  // 2(ℓ_weibull − ℓ_exponential) from survreg's log-likelihoods (survreg-aft.json, "mixed").
+  const lr = 2 * (survreg.mixed.weibull.logLikelihood - survreg.mixed.exponential.logLikelihood);
+  t.ok(Math.abs(shape.lrStatistic - lr) < 1e-8 * lr, `LR ${shape.lrStatistic} vs ${lr}`);
+  // scipy.stats.chi2.sf(28.48875689574936, 1) with scipy 1.10.1.
+  t.ok(relativeError(shape.lrPValue, 9.424417263010856e-08) < 1e-6, `p ${shape.lrPValue}`);
+  t.equal(shape.fStatistic, null);
+  t.match(shape.reason, /Weibull shape fixed at 1/);
+  t.ok(tests.some((x) => x.smaller === 'weibull-no-load' && x.larger === 'weibull' && x.df === 1), 'a subset of the terms nests');
+  t.notOk(tests.some((x) => x.smaller === 'lognormal' || x.larger === 'lognormal'), 'the lognormal nests with none of them');
+});

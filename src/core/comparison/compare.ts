@@ -22,6 +22,7 @@ import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 import type { CensoringColumns } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
 import { mixedMeasureIssues } from './measure-rule.ts';
+import { lifetimeLikelihoodRatioTests } from './lifetime-nested.ts';
 import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
@@ -133,7 +134,8 @@ export function compareModels(
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
-    sample: JSON.stringify([input.response, input.weights]), termColumns: used,
+    // The status column decides rows but is no term: prediction rows need not carry it.
+    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status),
     scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;
@@ -146,7 +148,7 @@ export function compareModels(
       models,
       rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })) },
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
-      nestedTests: extras.nestedTests,
+      nestedTests: [...extras.nestedTests, ...lifetimeLikelihoodRatioTests(scored, JSON.stringify([input.response, input.censoring ?? null]))],
       averaged: extras.averaged,
       cautions: [
         ...comparisonCautions({

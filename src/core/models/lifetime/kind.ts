@@ -11,6 +11,7 @@ import type { CandidateContext, CandidateCost } from '../../pricing/candidate-co
 import { scoredModel, type ScoredModel } from '../scored-model.ts';
 import type { CensoredResponse } from './censoring.ts';
 import { fitLifetime } from './fit-lifetime.ts';
+import { nestingCandidateOf } from './nested.ts';
 import { priceLifetime } from './pricing.ts';
 import { lifetimeReport } from './report.ts';
 import type { LifetimeCandidateInput } from './candidate.ts';
@@ -51,7 +52,7 @@ export function scoreLifetimeCandidates(
     const fit = fitLifetime({ name: c.name, distribution: c.distribution, design }, censored, options, ['candidates', i]);
     if ('issues' in fit) issues.push(...fit.issues);
     // Every lifetime likelihood is a density of a continuous time (or the probability of a censored range of it).
-    else scored.set(i, scoredModel(lifetimeReport(fit), fit.measure));
+    else scored.set(i, scoredModel(lifetimeReport(fit), fit.measure, { lifetimeNesting: (id) => nestingCandidateOf(fit, design, id) }));
   }
   return scored;
 }
