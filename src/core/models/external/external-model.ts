@@ -10,7 +10,7 @@ import type { ModelResult } from '../model-result.ts';
 import type { ScoringContext } from '../scoring-context.ts';
 import { transformResponse, type ResponseTransformSpec } from '../response-transform.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { criteriaFields, transformCaution } from '../model-fields.ts';
+import { criteriaFields, NO_RESIDUAL_FIELDS, transformCaution } from '../model-fields.ts';
 
 export type ExternalCandidateInput =
   | { form: 'residuals'; name: string; residuals: (number | null)[]; parameters: number; response?: ResponseTransformSpec }
@@ -125,12 +125,7 @@ export function scoreExternalCandidate(
       responseTransform: candidate.response ? { ...candidate.response, jacobian } : null,
       coefficients: [],
       aliased: [],
-      conditionNumber: null,
-      press: null,
-      looRmse: null,
-      diagnostics: null,
-      predictions: null,
-      predictionScale: null,
+      ...NO_RESIDUAL_FIELDS,
       cautions,
     },
   };

@@ -4,7 +4,7 @@
 // response is observed) plus the fields of a life model.
 import { computeCriteria } from '../../scoring/criteria.ts';
 import type { CoefficientResult, ModelResult } from '../model-result.ts';
-import { criteriaFields } from '../model-fields.ts';
+import { criteriaFields, NO_RESIDUAL_FIELDS } from '../model-fields.ts';
 import type { LifetimeFit } from './lifetime-result.ts';
 import { waldQuantile } from './life-quantities.ts';
 import { normalLogSurvival } from './normal-tail.ts';
@@ -54,12 +54,8 @@ export function lifetimeReport(fit: LifetimeFit): ModelResult {
     responseTransform: null,
     coefficients: fit.coefficients.map((c) => waldCoefficient(c, q)),
     aliased: fit.aliased,
-    conditionNumber: null,
-    press: null,
-    looRmse: null,
-    diagnostics: null,
-    predictions: null,
-    predictionScale: null,
+    // Censored times have no residuals: no leave-one-out, residual checks or predictions yet.
+    ...NO_RESIDUAL_FIELDS,
     cautions: criteria.cautions.map((c) => ({ code: c.code, message: c.message })),
     distribution: fit.distribution,
     distributionParameters: fit.distributionParameters,
