@@ -129,6 +129,9 @@ t.test('a Weibull beside a lognormal on censored data: ranked, recorded, caution
   const stored = await app.inject({ method: 'GET', url: `/v1/comparisons/${body.id}` });
   t.equal(stored.statusCode, 200);
   t.same(stored.json().result.models, body.models, 'the record holds the life models');
+  const replay = await app.inject({ method: 'POST', url: `/v1/comparisons/${body.id}/replay` });
+  t.equal(replay.statusCode, 200, replay.body.slice(0, 300));
+  t.equal(replay.json().identical, true, 'a replay refits the life models to the last digit');
 });
 
 t.test('censored data are refused where they cannot be scored, naming the field', async (t) => {
@@ -162,10 +165,20 @@ t.test('censored data are refused where they cannot be scored, naming the field'
   t.equal(records.json().records.length, 0, 'nothing was recorded');
 });
 
-t.test('an unknown distribution is refused at its field', async (t) => {
+t.test('life models and censoring need rows, not a summary', async (t) => {
+  const summary = { rows: 10, columns: ['x', 'y'], means: [1, 2], centredCrossProducts: [[2, 1], [1, 3]] };
+  const life = await post(t, { data: { summary }, response: 'y', candidates: [{ name: 'w', distribution: 'weibull' }] });
+  t.equal(life.statusCode, 422, life.body.slice(0, 300));
+  t.equal(life.json().errors[0].path, 'candidates/0/distribution');
+  const censored = await post(t, { data: { summary }, response: 'y', censoring: { status: 's' }, candidates: [{ name: 'ls', terms: ['x'] }] });
+  t.equal(censored.statusCode, 422, censored.body.slice(0, 300));
+  t.equal(censored.json().errors[0].path, 'censoring');
+});
+
+t.test('an unknown distribution is refused at its field, with the known ones', async (t) => {
   const res = await post(t, { data: { columns: { t: [5, 6, 7] } }, response: 't', candidates: [{ name: 'x', distribution: 'frechet' }] });
   t.equal(res.statusCode, 400);
-  t.ok(res.json().errors.some((e: { path: string }) => e.path.startsWith('candidates/0')), res.body.slice(0, 600));
+  t.ok(res.json().errors.some((e: { path: string; message: string }) => e.path === 'candidates/0/distribution' && /"weibull"/.test(e.message)), res.body.slice(0, 600));
 });
 
 t.test('a life comparison gives the same answer inline and on a worker of the pool', async (t) => {

@@ -9,7 +9,9 @@ import { DISTRIBUTION_NAMES } from '../../core/models/lifetime/distributions.ts'
 export const LifetimeCandidate = z
   .strictObject({
     name: z.string().min(1).max(200),
-    distribution: z.enum(DISTRIBUTION_NAMES).meta({
+    // A string first: a candidate without the key then fails like the other
+    // forms (the union's forms message), one with an unknown name at its field.
+    distribution: z.string().pipe(z.enum(DISTRIBUTION_NAMES)).meta({
       description: 'The life distribution fitted by maximum likelihood. exponential, weibull, lognormal, loglogistic and gamma are distributions of positive time (their location is that of ln t); normal, logistic and smallestExtremeValue are on the time scale.',
     }),
     terms: z.array(Term).max(200).default([]).meta({
