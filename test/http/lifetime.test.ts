@@ -132,6 +132,11 @@ t.test('a Weibull beside a lognormal on censored data: ranked, recorded, caution
   const replay = await app.inject({ method: 'POST', url: `/v1/comparisons/${body.id}/replay` });
   t.equal(replay.statusCode, 200, replay.body.slice(0, 300));
   t.equal(replay.json().identical, true, 'a replay refits the life models to the last digit');
+  for (const picture of ['chart.svg', 'report']) {
+    const drawn = await app.inject({ method: 'GET', url: `/v1/comparisons/${body.id}/${picture}` });
+    t.equal(drawn.statusCode, 200, `${picture} of a life comparison: ${drawn.body.slice(0, 200)}`);
+    t.match(drawn.body, /weibull-arrhenius/);
+  }
 });
 
 t.test('censored data are refused where they cannot be scored, naming the field', async (t) => {
