@@ -97,9 +97,33 @@ const poissonDraw = (mean: number) => {
 const counts = linear.map((v) => poissonDraw(Math.exp(0.5 + 0.02 * v)));
 const glmColumns = { ...bigColumns, passFail, counts };
 
+// Life data. A lifetime fit is priced at its iteration cap (2 starts × 50
+// Newton iterations) and these converge in about 5, so expect their column
+// near 0.05×: the estimate is an upper bound, and per iteration used the
+// rate matches the other kinds'. Weibull lives (shape 2) whose log-scale falls with x0 and x1,
+// right-censored at a fixed test end, and every fifth unit read only at
+// inspections (interval-censored between multiples of 2).
+function lives(rows: number) {
+  const x0 = numeric(rows);
+  const x1 = numeric(rows);
+  const time: number[] = [];
+  const upper: (number | null)[] = [];
+  const status: string[] = [];
+  for (let i = 0; i < rows; i++) {
+    const life = Math.exp(3 - 0.01 * x0[i] + 0.005 * x1[i]) * Math.pow(-Math.log(1 - uniform()), 0.5);
+    if (life > 30) { time.push(30); upper.push(null); status.push('right'); } else if (i % 5 === 0) {
+      const start = 2 * Math.floor(life / 2);
+      time.push(start); upper.push(start + 2); status.push('interval');
+    } else { time.push(life); upper.push(null); status.push('exact'); }
+  }
+  return { data: { columns: { time, upper, status, x0, x1 } }, response: 'time', censoring: { status: 'status', upper: 'upper' } };
+}
+
 const cases = [
   comparisonCase('comparison: logistic GLM, 100,000 rows × 31 columns', { data: { columns: glmColumns }, response: 'passFail', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`), family: 'binomial' }] }),
   comparisonCase('comparison: Poisson GLM, 100,000 rows × 31 columns', { data: { columns: glmColumns }, response: 'counts', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`), family: 'poisson' }] }),
+  comparisonCase('lifetime: Weibull and lognormal AFT, 20,000 rows', { ...lives(20_000), candidates: [{ name: 'w', distribution: 'weibull', terms: ['x0', 'x1'] }, { name: 'l', distribution: 'lognormal', terms: ['x0', 'x1'] }] }),
+  comparisonCase('lifetime: gamma AFT, 3,000 censored rows', { ...lives(3_000), candidates: [{ name: 'g', distribution: 'gamma', terms: ['x0', 'x1'] }] }),
   comparisonCase('comparison: 100,000 rows × 31 columns, 1 model', { data: { columns: bigColumns }, response: 'y', candidates: [{ name: 'all', terms: xs.map((_, j) => `x${j}`) }] }),
   comparisonCase('comparison: one factor of 300 levels, 3000 rows', { data: { columns: { y: response(rowsF, xF), x: xF, batch: factor } }, response: 'y', candidates: [{ name: 'batch', terms: ['x', 'batch'] }, { name: 'x', terms: ['x'] }] }),
   comparisonCase('comparison: 60 small models, 120 rows', { data: { columns: smallColumns }, response: 'y', candidates: Array.from({ length: 60 }, (_, i) => ({ name: `m${i}`, terms: smallTerms(1 + (i % 10)) })) }),

@@ -97,6 +97,10 @@ export interface IssueFacts {
     iterations: number;
     reason: 'iteration_limit' | 'no_ascent' | 'information_singular' | 'scale_collapsed' | 'estimates_diverge';
   };
+  /** A candidate whose likelihood takes every response value as observed, on rows that are censored. */
+  censored_response_refused: { name: string; form: string; censored: number; rows: number };
+  lifetime_weights_not_supported: { candidates: string[] };
+  /** A probability mass and a density in one comparison (path: the first mass candidate). */
   // Generalised linear models (src/core/models/glm).
   glm_link_not_allowed: { family: string; link: string; allowed: string[] };
   glm_trials_invalid: { row: number; value: number };
@@ -314,6 +318,10 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
     }[f.reason];
     return `${at} (${JSON.stringify(f.name)}, ${f.distribution}) did not reach a maximum of its likelihood after ${f.iterations} Newton–Raphson iterations: ${why}`;
   },
+  censored_response_refused: (f, at) =>
+    `${at} (${JSON.stringify(f.name)}, ${f.form}) treats every response value as an observed failure time, but ${f.censored} of the ${f.rows} rows are censored (censoring.status): its likelihood would take a censoring time for a failure. Use a candidate with a distribution, or send this model's censored log-likelihood as a logLikelihood candidate.`,
+  lifetime_weights_not_supported: (f, at) =>
+    `${at}: the lifetime candidates ${quoteList(f.candidates)} do not take weights (each row is one unit); leave weights out, or send repeated units as repeated rows.`,
   // Generalised linear models (src/core/models/glm).
   glm_link_not_allowed: (f, at) =>
     `${at} asks for the ${f.link} link with the ${f.family} family, which admits only ${quoteList(f.allowed)}; choose one of those links or leave link out for the family's canonical link.`,

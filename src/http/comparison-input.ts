@@ -20,6 +20,7 @@ const isLeastSquares = (c: { family?: string; link?: string; offset?: string }) 
   (c.family ?? 'gaussian') === 'gaussian' && (c.link ?? 'identity') === 'identity' && c.offset === undefined;
 
 function candidateInput(c: RequestCandidate, trials: string | undefined): CandidateInput {
+  if ('distribution' in c) return { form: 'lifetime', name: c.name, distribution: c.distribution, terms: c.terms };
   if ('terms' in c) {
     if (isLeastSquares(c)) return { form: 'fit', name: c.name, terms: c.terms, intercept: c.intercept, response: c.response };
     return { form: 'glm', name: c.name, terms: c.terms, intercept: c.intercept, family: c.family ?? 'gaussian', link: c.link, offset: c.offset, trials };
@@ -48,6 +49,8 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     confidenceLevel: body.options.confidenceLevel,
     intervalLevel: body.options.intervalLevel,
     expectedFingerprint: body.datasetFingerprint,
+    censoring: body.censoring ?? null,
+    percentiles: body.options.percentiles,
     extras: {
       tests: body.options.tests,
       average: body.options.average,

@@ -2447,6 +2447,24 @@ export interface components {
             /** @description An estimate below 1: ĉ = 1 is the usual choice then (no underdispersion to correct); the service leaves that to the caller. */
             belowOne: boolean;
         };
+        /** @description A life distribution fitted here by maximum likelihood, to exact and censored times (request-level censoring). */
+        LifetimeCandidateInput: {
+            name: string;
+            /** @description The life distribution fitted by maximum likelihood. exponential, weibull, lognormal, loglogistic and gamma are distributions of positive time (their location is that of ln t); normal, logistic and smallestExtremeValue are on the time scale. */
+            distribution: string;
+            /**
+             * @description Terms of the location, built as for least squares (an intercept is always included): an accelerated-failure-time model. None: one distribution for every row.
+             * @default []
+             */
+            terms?: components["schemas"]["TermInput"][];
+        };
+        /** @description Censored observations: "exact" (failed at the response time), "right" (still working at it), "left" (already failed when first looked at, at it), "interval" (failed between it and the upper column). Only lifetime candidates (and a logLikelihood stated by the caller) can use censored rows. */
+        CensoringInput: {
+            /** @description A column whose value on each row is one of "exact", "right", "left", "interval": what the response value means on that row. */
+            status: string;
+            /** @description A numeric column holding the end of the window on interval rows (read on those rows only: null elsewhere drops nothing). */
+            upper?: string;
+        };
         DataInput: {
             /** @description Equal-length arrays: numbers, strings (categorical) or null (missing). */
             columns: {
@@ -2510,8 +2528,8 @@ export interface components {
             fixedEffects?: string[];
             response?: components["schemas"]["ResponseTransformInput"];
         };
-        /** @description One of the five candidate forms: terms (fitted here), residuals, rss, logLikelihood, or fitted (means of a generalised linear model fitted elsewhere). */
-        CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"];
+        /** @description One of the six candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), or distribution (a life distribution fitted here). */
+        CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"] | components["schemas"]["LifetimeCandidateInput"];
         ComparisonOptionsInput: {
             /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["CriterionInput"];
@@ -2524,6 +2542,8 @@ export interface components {
                 smaller: string;
                 larger: string;
             }[];
+            /** @description Probabilities at which a lifetime model without terms reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel. */
+            percentiles?: number[];
             /**
              * @description Average over all fitted candidates or over the confidence set.
              * @default all
@@ -2547,6 +2567,7 @@ export interface components {
             weights?: string | null;
             /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
             trials?: string;
+            censoring?: components["schemas"]["CensoringInput"];
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
             rankBy?: components["schemas"]["CriterionInput"];
             candidates: components["schemas"]["CandidateInput"][];
@@ -2584,10 +2605,10 @@ export interface components {
         ModelResultInput: {
             name: string;
             /**
-             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
+             * @description "fit": fitted here (least squares or a generalised linear model); "lifetime": a life distribution fitted here by maximum likelihood; otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted" | "lifetime";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -2644,26 +2665,50 @@ export interface components {
             /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
             nullDeviance?: number | null;
             pearsonChiSquare?: number | null;
-            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            /** @description The distribution's own parameters, each counted in k: θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²) for generalised linear models; the usual parameters of a life distribution (standard errors by the delta method; those that depend on the location listed only for a model without terms). */
             distributionParameters?: {
-                /** @enum {string} */
-                name: "theta" | "shape" | "dispersion";
+                /** @description theta, shape or dispersion (generalised linear models); shape, scale, sdlog, rate… (life distributions). */
+                name: string;
                 estimate: number;
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
             convergence?: {
                 converged: boolean;
                 iterations: number;
-                stepHalvings: number;
                 rule: string;
+                /** @description Generalised linear models: IRLS steps halved because the deviance rose. */
+                stepHalvings?: number;
+                /** @description Life distributions: the Newton decrement at the estimates. */
+                decrement?: number;
             } | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
             qaic?: number | null;
             qaicc?: number | null;
+            /**
+             * @description Lifetime models: the distribution fitted.
+             * @enum {string}
+             */
+            distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            percentiles?: {
+                probability: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
+            logLikelihoodLogTime?: number | null;
+            /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
+            censoring?: {
+                exact: number;
+                right: number;
+                left: number;
+                interval: number;
+            };
         };
         RankingEntryInput: {
             /** @description Competition rank (ties share a rank); null when the model has no value. */
@@ -2726,6 +2771,10 @@ export interface components {
             intervalLevel: number;
             /** @description The convention of generalised linear models, present when the comparison has one. */
             glm?: components["schemas"]["GlmConventionsInput"];
+            /** @description Present when the comparison has lifetime candidates: how their likelihood, parameters, standard errors, intervals and tests are computed. */
+            lifetime?: {
+                [key: string]: string;
+            };
         };
         DatasetInput: {
             /** @description "sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent. */
@@ -2998,10 +3047,10 @@ export interface components {
         SearchModelInput: {
             name: string;
             /**
-             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
+             * @description "fit": fitted here (least squares or a generalised linear model); "lifetime": a life distribution fitted here by maximum likelihood; otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted" | "lifetime";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -3058,26 +3107,50 @@ export interface components {
             /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
             nullDeviance?: number | null;
             pearsonChiSquare?: number | null;
-            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            /** @description The distribution's own parameters, each counted in k: θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²) for generalised linear models; the usual parameters of a life distribution (standard errors by the delta method; those that depend on the location listed only for a model without terms). */
             distributionParameters?: {
-                /** @enum {string} */
-                name: "theta" | "shape" | "dispersion";
+                /** @description theta, shape or dispersion (generalised linear models); shape, scale, sdlog, rate… (life distributions). */
+                name: string;
                 estimate: number;
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
             convergence?: {
                 converged: boolean;
                 iterations: number;
-                stepHalvings: number;
                 rule: string;
+                /** @description Generalised linear models: IRLS steps halved because the deviance rose. */
+                stepHalvings?: number;
+                /** @description Life distributions: the Newton decrement at the estimates. */
+                decrement?: number;
             } | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
             qaic?: number | null;
             qaicc?: number | null;
+            /**
+             * @description Lifetime models: the distribution fitted.
+             * @enum {string}
+             */
+            distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            percentiles?: {
+                probability: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
+            logLikelihoodLogTime?: number | null;
+            /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
+            censoring?: {
+                exact: number;
+                right: number;
+                left: number;
+                interval: number;
+            };
             /** @description The subset's terms in the request's forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit. */
             terms: components["schemas"]["TermInput"][];
             /** @description Criterion value minus the best over all evaluated subsets (>= 0). */
@@ -3467,6 +3540,27 @@ export interface components {
             /** @description An estimate below 1: ĉ = 1 is the usual choice then (no underdispersion to correct); the service leaves that to the caller. */
             belowOne: boolean;
         };
+        /** @description A life distribution fitted here by maximum likelihood, to exact and censored times (request-level censoring). */
+        LifetimeCandidate: {
+            name: string;
+            /**
+             * @description The life distribution fitted by maximum likelihood. exponential, weibull, lognormal, loglogistic and gamma are distributions of positive time (their location is that of ln t); normal, logistic and smallestExtremeValue are on the time scale.
+             * @enum {string}
+             */
+            distribution: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
+            /**
+             * @description Terms of the location, built as for least squares (an intercept is always included): an accelerated-failure-time model. None: one distribution for every row.
+             * @default []
+             */
+            terms: components["schemas"]["Term"][];
+        };
+        /** @description Censored observations: "exact" (failed at the response time), "right" (still working at it), "left" (already failed when first looked at, at it), "interval" (failed between it and the upper column). Only lifetime candidates (and a logLikelihood stated by the caller) can use censored rows. */
+        Censoring: {
+            /** @description A column whose value on each row is one of "exact", "right", "left", "interval": what the response value means on that row. */
+            status: string;
+            /** @description A numeric column holding the end of the window on interval rows (read on those rows only: null elsewhere drops nothing). */
+            upper?: string;
+        };
         Data: {
             /** @description Equal-length arrays: numbers, strings (categorical) or null (missing). */
             columns: {
@@ -3530,8 +3624,8 @@ export interface components {
             fixedEffects?: string[];
             response?: components["schemas"]["ResponseTransform"];
         };
-        /** @description One of the five candidate forms: terms (fitted here), residuals, rss, logLikelihood, or fitted (means of a generalised linear model fitted elsewhere). */
-        Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"];
+        /** @description One of the six candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), or distribution (a life distribution fitted here). */
+        Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"] | components["schemas"]["LifetimeCandidate"];
         ComparisonOptions: {
             /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["Criterion"];
@@ -3544,6 +3638,8 @@ export interface components {
                 smaller: string;
                 larger: string;
             }[];
+            /** @description Probabilities at which a lifetime model without terms reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel. */
+            percentiles?: number[];
             /**
              * @description Average over all fitted candidates or over the confidence set.
              * @default all
@@ -3567,6 +3663,7 @@ export interface components {
             weights?: string | null;
             /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
             trials?: string;
+            censoring?: components["schemas"]["Censoring"];
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
             rankBy?: components["schemas"]["Criterion"];
             candidates: components["schemas"]["Candidate"][];
@@ -3604,10 +3701,10 @@ export interface components {
         ModelResult: {
             name: string;
             /**
-             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
+             * @description "fit": fitted here (least squares or a generalised linear model); "lifetime": a life distribution fitted here by maximum likelihood; otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted" | "lifetime";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -3664,26 +3761,50 @@ export interface components {
             /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
             nullDeviance?: number | null;
             pearsonChiSquare?: number | null;
-            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            /** @description The distribution's own parameters, each counted in k: θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²) for generalised linear models; the usual parameters of a life distribution (standard errors by the delta method; those that depend on the location listed only for a model without terms). */
             distributionParameters?: {
-                /** @enum {string} */
-                name: "theta" | "shape" | "dispersion";
+                /** @description theta, shape or dispersion (generalised linear models); shape, scale, sdlog, rate… (life distributions). */
+                name: string;
                 estimate: number;
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
             convergence?: {
                 converged: boolean;
                 iterations: number;
-                stepHalvings: number;
                 rule: string;
+                /** @description Generalised linear models: IRLS steps halved because the deviance rose. */
+                stepHalvings?: number;
+                /** @description Life distributions: the Newton decrement at the estimates. */
+                decrement?: number;
             } | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
             qaic?: number | null;
             qaicc?: number | null;
+            /**
+             * @description Lifetime models: the distribution fitted.
+             * @enum {string}
+             */
+            distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            percentiles?: {
+                probability: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
+            logLikelihoodLogTime?: number | null;
+            /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
+            censoring?: {
+                exact: number;
+                right: number;
+                left: number;
+                interval: number;
+            };
         };
         RankingEntry: {
             /** @description Competition rank (ties share a rank); null when the model has no value. */
@@ -3746,6 +3867,10 @@ export interface components {
             intervalLevel: number;
             /** @description The convention of generalised linear models, present when the comparison has one. */
             glm?: components["schemas"]["GlmConventions"];
+            /** @description Present when the comparison has lifetime candidates: how their likelihood, parameters, standard errors, intervals and tests are computed. */
+            lifetime?: {
+                [key: string]: string;
+            };
         };
         Dataset: {
             /** @description "sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent. */
@@ -4018,10 +4143,10 @@ export interface components {
         SearchModel: {
             name: string;
             /**
-             * @description "fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
+             * @description "fit": fitted here (least squares or a generalised linear model); "lifetime": a life distribution fitted here by maximum likelihood; otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).
              * @enum {string}
              */
-            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted";
+            source: "fit" | "residuals" | "rss" | "logLikelihood" | "fitted" | "lifetime";
             /** @enum {string} */
             estimation: "ml" | "reml";
             /** @description Null for a model fitted elsewhere. */
@@ -4078,26 +4203,50 @@ export interface components {
             /** @description Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere. */
             nullDeviance?: number | null;
             pearsonChiSquare?: number | null;
-            /** @description θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k. */
+            /** @description The distribution's own parameters, each counted in k: θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²) for generalised linear models; the usual parameters of a life distribution (standard errors by the delta method; those that depend on the location listed only for a model without terms). */
             distributionParameters?: {
-                /** @enum {string} */
-                name: "theta" | "shape" | "dispersion";
+                /** @description theta, shape or dispersion (generalised linear models); shape, scale, sdlog, rate… (life distributions). */
+                name: string;
                 estimate: number;
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
             convergence?: {
                 converged: boolean;
                 iterations: number;
-                stepHalvings: number;
                 rule: string;
+                /** @description Generalised linear models: IRLS steps halved because the deviance rose. */
+                stepHalvings?: number;
+                /** @description Life distributions: the Newton decrement at the estimates. */
+                decrement?: number;
             } | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
             qaic?: number | null;
             qaicc?: number | null;
+            /**
+             * @description Lifetime models: the distribution fitted.
+             * @enum {string}
+             */
+            distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            percentiles?: {
+                probability: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
+            logLikelihoodLogTime?: number | null;
+            /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
+            censoring?: {
+                exact: number;
+                right: number;
+                left: number;
+                interval: number;
+            };
             /** @description The subset's terms in the request's forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit. */
             terms: components["schemas"]["Term"][];
             /** @description Criterion value minus the best over all evaluated subsets (>= 0). */

@@ -22,6 +22,10 @@ import { conventions, type Conventions } from './conventions.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 import { averagingCautions } from './extras/averaging.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
+import type { CensoringColumns } from '../models/lifetime/index.ts';
+import { censoredSample, censoringRowColumns } from './censored-sample.ts';
+import { lifetimeLikelihoodRatioTests } from './lifetime-nested.ts';
+import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
 
@@ -37,6 +41,10 @@ export interface ComparisonInput {
   /** Confidence level of coefficient and prediction intervals (default 0.95). */
   intervalLevel?: number;
   expectedFingerprint?: string;
+  /** Request-level censoring: the status column and the upper column of interval rows. */
+  censoring?: CensoringColumns | null;
+  /** options.percentiles, read by lifetime models. */
+  percentiles?: readonly number[];
   extras?: ExtrasOptions;
   /** QAIC and QAICc under one ĉ, given or estimated (options.overdispersion). */
   overdispersion?: OverdispersionRequest;
@@ -62,6 +70,7 @@ function candidateColumns(c: CandidateInput): string[] {
   if (c.form === 'fit') return columnsUsedBy(c.terms);
   if (c.form === 'glm') return [...columnsUsedBy(c.terms), ...glmExtraColumns(c)];
   if (c.form === 'fitted') return glmExtraColumns(c);
+  if (c.form === 'lifetime') return columnsUsedBy(c.terms);
   return [];
 }
 
@@ -72,7 +81,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
   const { columns, candidates } = input;
   if (!columns || input.response === null) {
     candidates.forEach((c, i) => {
-      if (c.form === 'fit' || c.form === 'glm' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
+      if (c.form === 'fit' || c.form === 'glm' || c.form === 'lifetime' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
       if (c.form === 'fitted') issues.push(issue('data_required', ['candidates', i], { form: 'a candidate sent by its fitted means' }));
     });
     if (input.weights) issues.push(issue('data_required', ['weights'], { form: 'a weights column' }));
@@ -81,7 +90,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
     const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
     return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [], missingWeights: 0, zeroWeights: 0 };
   }
-  const termColumns = [...new Set(candidates.flatMap(candidateColumns))];
+  const termColumns = [...new Set([...candidates.flatMap(candidateColumns), ...censoringRowColumns(input.censoring ?? null)])];
   const sample = sampleRows(columns, input.response, input.weights, termColumns);
   if ('issues' in sample) {
     issues.push(...sample.issues);
@@ -113,7 +122,9 @@ export function compareModels(
     name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
   }))));
 
-  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel }, issues);
+  const censored = censoredSample({ ...input, censoring: input.censoring ?? null }, ctx, issues);
+  if (issues.length > 0) return { issues };
+  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
   const mixed = issues.length === 0 ? measureMixIssue(scored) : null;
   if (mixed) issues.push(mixed);
@@ -121,7 +132,8 @@ export function compareModels(
   if (issues.length > 0) return { issues };
   // Only once every used column is known to exist and hold values on the used rows.
   const fingerprint = input.columns && ctx.rows
-    ? datasetFingerprint({ columns: input.columns, response: input.response!, weights: input.weights, used, rows: ctx.rows })
+    // The upper column decides interval rows' likelihood, so it is part of the data the answer rests on.
+    ? datasetFingerprint({ columns: input.columns, response: input.response!, weights: input.weights, used: [...used, ...(input.censoring?.upper ? [input.censoring.upper] : [])], rows: ctx.rows })
     : null;
   if (input.expectedFingerprint && input.expectedFingerprint !== fingerprint) {
     return { issues: [issue('fingerprint_mismatch', ['datasetFingerprint'], { expected: input.expectedFingerprint, actual: fingerprint })] };
@@ -138,21 +150,22 @@ export function compareModels(
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
-    sample: JSON.stringify([input.response, input.weights]), termColumns: used,
+    // The status column decides rows but is no term: prediction rows need not carry it.
+    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status),
     scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;
 
   return {
     result: {
-      conventions: { ...conventions(choice, confidenceLevel, intervalLevel), ...kindConventions(input.candidates) },
+      conventions: { ...conventions(choice, confidenceLevel, intervalLevel), ...kindConventions(input.candidates), ...lifetimeConventions(input.candidates) },
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
       rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })), ...(quasi ? quasi.rankings : {}) },
       ...(quasi ? { overdispersion: { cHat: quasi.cHat, source: quasi.source, df: quasi.df, belowOne: quasi.belowOne } } : {}),
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
-      nestedTests: extras.nestedTests,
+      nestedTests: [...extras.nestedTests, ...lifetimeLikelihoodRatioTests(scored, JSON.stringify([input.response, input.censoring ?? null]))],
       averaged: extras.averaged,
       cautions: [
         ...comparisonCautions({
@@ -161,6 +174,7 @@ export function compareModels(
         }),
         ...checksCaution(models),
         ...averagingCautions(extras.averaged, rankings[choice.rankBy]),
+        ...lifetimeCautions(input.candidates),
       ],
     },
   };

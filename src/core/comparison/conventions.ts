@@ -27,6 +27,8 @@ export interface Conventions {
   inference: string;
   predictions: string;
   intervalLevel: number;
+  /** How lifetime candidates are scored; present only when the comparison has some. */
+  lifetime?: Record<string, string>;
 }
 
 /** The rank rule of a fit by QR on the rows (src/core/fit). */

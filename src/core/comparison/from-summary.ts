@@ -35,6 +35,8 @@ export interface SummaryComparisonInput {
   summary: DataSummary;
   response: string;
   candidates: CandidateInput[];
+  /** Refused: censoring belongs to rows. */
+  censoring?: unknown;
   rankBy?: CriterionName;
   confidenceLevel?: number;
   intervalLevel?: number;
@@ -73,6 +75,9 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
   const { summary } = input;
   const invalid = validateSummary(summary);
   if (invalid.length > 0) return { issues: summaryIssues(invalid) };
+  if (input.censoring) {
+    return { issues: [issue('summary_rows_needed', ['censoring'], { form: 'censored observations', reason: 'each unit\'s status belongs to its row' })] };
+  }
   const issues: Issue[] = [...summaryResponseIssues(summary, input.response)];
   issues.push(...estimationIssues(input.candidates.map((c, index) => ({
     name: c.name, index, estimation: c.form === 'logLikelihood' ? c.estimation : 'ml', fixedEffects: c.form === 'logLikelihood' ? c.fixedEffects : undefined,
@@ -96,6 +101,10 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
         models.push(made.result);
         fitted.push(made);
       }
+      return;
+    }
+    if (c.form === 'lifetime') {
+      issues.push(issue('summary_rows_needed', ['candidates', i, 'distribution'], { form: 'a lifetime candidate', reason: 'its likelihood sums over each unit\'s time and censoring' }));
       return;
     }
     const scored = c.form === 'residuals'

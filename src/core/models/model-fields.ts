@@ -28,3 +28,6 @@ export function transformCaution(spec: ResponseTransformSpec): Caution {
     message: `This model describes ${transformLabel(spec)}(response); its log-likelihood includes the Jacobian, so AIC, AICc, BIC and HQC are on the scale of the response and comparable with the other models, but its RSS, R² and adjusted R² are on the transformed scale and are not.`,
   };
 }
+
+/** The report fields that need the rows' residuals (leave-one-out, checks, predictions), for a model that has none. */
+export const NO_RESIDUAL_FIELDS = { conditionNumber: null, ...NOT_CHECKED } as const;

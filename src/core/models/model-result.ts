@@ -6,6 +6,7 @@ import type { CoefficientTest } from '../inference/coefficient-tests.ts';
 import type { PredictionWithIntervals } from '../inference/prediction-intervals.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
 import type { GlmReportFields } from './glm/types.ts';
+import type { LifetimeReportFields } from './lifetime/candidate.ts';
 
 /** How a model's predictions relate to the response as sent. */
 export interface PredictionScale {
@@ -16,10 +17,32 @@ export interface PredictionScale {
 /** A coefficient with its t test and confidence interval (null where they do not exist). */
 export type CoefficientResult = { term: string; estimate: number | null; standardError: number | null } & CoefficientTest;
 
-/** A generalised linear model adds its own fields (absent for every other kind). */
-export interface ModelResult extends Partial<GlmReportFields> {
+/** A distribution's own parameter (θ, shape, dispersion, scale…), as any kind reports it. */
+export interface DistributionParameterResult {
   name: string;
-  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood' | 'fitted';
+  estimate: number;
+  standardError: number | null;
+}
+
+/** How an iterative fit ended, as any kind reports it; the members only one kind has are optional. */
+export interface ConvergenceResult {
+  converged: boolean;
+  iterations: number;
+  rule: string;
+  /** Generalised linear models: IRLS steps halved. */
+  stepHalvings?: number;
+  /** Life distributions: the Newton decrement at the estimates. */
+  decrement?: number;
+}
+
+type SharedKindFields = 'convergence' | 'distributionParameters';
+
+/** Fields only some kinds report (a generalised linear model's family and deviance, a life model's distribution and percentiles): absent on the others. */
+export interface ModelResult extends Partial<Omit<GlmReportFields, SharedKindFields>>, Partial<Omit<LifetimeReportFields, SharedKindFields>> {
+  name: string;
+  distributionParameters?: DistributionParameterResult[];
+  convergence?: ConvergenceResult | null;
+  source: 'fit' | 'residuals' | 'rss' | 'logLikelihood' | 'fitted' | 'lifetime';
   estimation: 'ml' | 'reml';
   /** Null for a model fitted elsewhere: the service cannot know. */
   intercept: boolean | null;

@@ -16,9 +16,12 @@ import type { FittedMeansCandidateInput, GlmCandidateInput } from './glm/candida
 import { scoreFittedMeansCandidates, scoreGlmCandidates } from './glm/kind.ts';
 import { priceFittedMeansCandidate, priceGlmCandidate } from './glm/price.ts';
 import { GLM_CONVENTIONS } from './glm/conventions.ts';
+import type { CensoredResponse } from './lifetime/censoring.ts';
+import type { LifetimeCandidateInput } from './lifetime/candidate.ts';
+import { priceLifetimeCandidate, scoreLifetimeCandidates } from './lifetime/kind.ts';
 import { scoredModel, type ScoredModel } from './scored-model.ts';
 
-export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput | GlmCandidateInput | FittedMeansCandidateInput;
+export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput | GlmCandidateInput | FittedMeansCandidateInput | LifetimeCandidateInput;
 export type CandidateForm = CandidateInput['form'];
 export type OfForm<F extends CandidateForm> = Extract<CandidateInput, { form: F }>;
 
@@ -27,6 +30,10 @@ export interface ScoringSample {
   columns: Columns | null;
   ctx: ScoringContext;
   intervalLevel: number | undefined;
+  /** The response with its censoring (request-level `censoring`) on the rows; null when no lifetime candidate needs it. */
+  censored?: CensoredResponse | null;
+  /** options.percentiles: life percentiles a lifetime model without terms reports. */
+  percentiles?: readonly number[];
 }
 
 export interface CandidateKind<C extends CandidateInput> {
@@ -78,6 +85,13 @@ const fittedMeans: CandidateKind<FittedMeansCandidateInput> = {
   score: scoreFittedMeansCandidates, price: priceFittedMeansCandidate, conventions: { key: 'glm', text: GLM_CONVENTIONS },
 };
 
+/** Life distributions fitted by maximum likelihood to censored (or exact) times. */
+const lifetime: CandidateKind<LifetimeCandidateInput> = {
+  score: (candidates, { columns, ctx, censored, percentiles, intervalLevel }, issues) =>
+    scoreLifetimeCandidates(candidates, { columns, rows: ctx.rows, censored: censored ?? null, percentiles, intervalLevel }, issues),
+  price: priceLifetimeCandidate,
+};
+
 /** Each form's kind; the kinds score in the order of first appearance here. */
 export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> } = {
   fit: linear,
@@ -86,6 +100,7 @@ export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> }
   logLikelihood: external,
   glm,
   fitted: fittedMeans,
+  lifetime,
 };
 
 /**

@@ -5,6 +5,7 @@
 // model for a capability; they never look inside how it was fitted.
 import type { ModelDiagnostics } from '../diagnostics/index.ts';
 import type { NestedCandidate } from '../inference/nested.ts';
+import type { LifetimeNestingCandidate } from './lifetime/nested.ts';
 import type { PredictionWithIntervals, ScaledPrediction } from '../inference/prediction-intervals.ts';
 import type { Issue } from '../issues.ts';
 import type { Columns } from '../types.ts';
@@ -49,6 +50,8 @@ export interface ModelCapabilities {
   predict?: (at: PredictionRequest) => ModelPredictions | { issues: Issue[] };
   /** What a nested-model test needs; `sample` names the response scale and rows it was fitted to. */
   nested?: (sample: string) => NestedCandidate;
+  /** What a likelihood-ratio test between life models needs (their own nesting rules: lifetime/nested.ts). */
+  lifetimeNesting?: (sample: string) => LifetimeNestingCandidate;
   /** Identities of its coefficients' columns, for averaging coefficients across models. */
   columnKeys?: readonly string[];
 }

@@ -20,6 +20,7 @@ export const CANDIDATE_PRICES: { [F in CandidateForm]: CandidatePricer<F> } = {
   logLikelihood: CANDIDATE_KINDS.logLikelihood.price,
   glm: CANDIDATE_KINDS.glm.price,
   fitted: CANDIDATE_KINDS.fitted.price,
+  lifetime: CANDIDATE_KINDS.lifetime.price,
 };
 
 export function priceCandidate(candidate: CandidateInput, ctx: CandidateContext): CandidateCost {

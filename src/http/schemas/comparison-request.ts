@@ -5,6 +5,7 @@ import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
 import { FittedMeansCandidate, GlmCandidateFields, OverdispersionOption, TrialsColumn } from './glm.ts';
+import { Censoring, LifetimeCandidate, Percentiles } from './lifetime.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
@@ -171,7 +172,7 @@ const CRITERION_KEYS = ['aic', 'aicc', 'bic', 'hqc', 'AIC', 'AICc', 'BIC', 'HQC'
  * for a candidate sent by a criterion value, the likelihood to send instead.
  */
 function candidateFormsMessage(input: unknown): string {
-  const forms = 'a candidate is one of: { name, terms, intercept?, response?, family?, link?, offset? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, family, fitted, parameters, theta? | shape? | dispersion? }';
+  const forms = 'a candidate is one of: { name, terms, intercept?, response?, family?, link?, offset? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, family, fitted, parameters, theta? | shape? | dispersion? }; { name, distribution, terms? } (a life distribution fitted here)';
   if (input === null || typeof input !== 'object' || Array.isArray(input)) return `${forms}.`;
   const sent = CRITERION_KEYS.find((k) => Object.prototype.hasOwnProperty.call(input, k));
   if (sent) {
@@ -181,8 +182,8 @@ function candidateFormsMessage(input: unknown): string {
 }
 
 export const Candidate = z
-  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, FittedMeansCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
-  .meta({ id: 'Candidate', description: 'One of the five candidate forms: terms (fitted here), residuals, rss, logLikelihood, or fitted (means of a generalised linear model fitted elsewhere).' });
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, FittedMeansCandidate, LifetimeCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
+  .meta({ id: 'Candidate', description: 'One of the six candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), or distribution (a life distribution fitted here).' });
 
 export const ComparisonOptions = z
   .strictObject({
@@ -190,6 +191,7 @@ export const ComparisonOptions = z
     confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
     tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
+    percentiles: Percentiles.optional(),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
     overdispersion: OverdispersionOption.optional(),
     predict: z
@@ -207,6 +209,7 @@ export const ComparisonRequest = z
     response: ColumnName.optional().meta({ description: 'The numeric response column (required with data).' }),
     weights: WeightsColumn,
     trials: TrialsColumn,
+    censoring: Censoring.optional(),
     rankBy: Criterion.optional().meta({ description: 'The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused.' }),
     candidates: z.array(Candidate).min(1, 'at least one candidate is needed').max(200),
     datasetFingerprint: z.string().regex(/^sha256:[0-9a-f]{64}$/, 'expected "sha256:" and 64 lowercase hex digits').optional().meta({

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
 import { GlmConventions, GlmModelFields, OverdispersionResult } from './glm.ts';
+import { LIFETIME_MODEL_FIELDS, LifetimeConventions } from './lifetime.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -29,8 +30,8 @@ export const Coefficient = z
 export const ModelResult = z
   .strictObject({
     name: z.string(),
-    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood', 'fitted']).meta({
-      description: '"fit": fitted here (least squares or a generalised linear model); otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).',
+    source: z.enum(['fit', 'residuals', 'rss', 'logLikelihood', 'fitted', 'lifetime']).meta({
+      description: '"fit": fitted here (least squares or a generalised linear model); "lifetime": a life distribution fitted here by maximum likelihood; otherwise the form in which a model fitted elsewhere was sent ("fitted": its fitted means).',
     }),
     estimation: z.enum(['ml', 'reml']),
     intercept: z.boolean().nullable().meta({ description: 'Null for a model fitted elsewhere.' }),
@@ -70,6 +71,7 @@ export const ModelResult = z
     ...GlmModelFields,
     qaic: nullableNumber.optional().meta({ description: 'QAIC under options.overdispersion; absent without it.' }),
     qaicc: nullableNumber.optional(),
+    ...LIFETIME_MODEL_FIELDS,
   })
   .meta({ id: 'ModelResult' });
 
@@ -129,6 +131,7 @@ export const Conventions = z
     predictions: z.string().meta({ description: 'How predictions, their intervals, back-transforms and averages are made.' }),
     intervalLevel: z.number().meta({ description: 'Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95).' }),
     glm: GlmConventions.optional().meta({ description: 'The convention of generalised linear models, present when the comparison has one.' }),
+    lifetime: LifetimeConventions,
   })
   .meta({ id: 'Conventions' });
 

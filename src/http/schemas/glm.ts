@@ -4,6 +4,7 @@
 // fields in the answer.
 import { z } from 'zod';
 import { ColumnName, FiniteNumber } from './common.ts';
+import { Convergence, DistributionParameters } from './model-kind-fields.ts';
 import { FAMILY_NAMES, GLM_CONVENTIONS, LINK_NAMES } from '../../core/models/glm/index.ts';
 
 export const GlmFamily = z.enum(FAMILY_NAMES).meta({
@@ -43,11 +44,6 @@ export const FittedMeansCandidate = z
   })
   .meta({ id: 'FittedMeansCandidate', description: 'A generalised linear model fitted elsewhere, sent by its fitted means; the full log-likelihood of its family is computed here from the response.' });
 
-const DistributionParameter = z.strictObject({
-  name: z.enum(['theta', 'shape', 'dispersion']),
-  estimate: z.number(),
-  standardError: z.number().nullable().meta({ description: 'Null when the parameter was stated by the caller (means fitted elsewhere).' }),
-});
 
 /** Per model, present for generalised linear models only. */
 export const GlmModelFields = {
@@ -56,12 +52,8 @@ export const GlmModelFields = {
   deviance: z.number().nullable().optional().meta({ description: 'Σ prior weight × unit deviance at the fitted means.' }),
   nullDeviance: z.number().nullable().optional().meta({ description: 'Deviance of the intercept-only model with the same offset (offset-only without an intercept); null for means fitted elsewhere.' }),
   pearsonChiSquare: z.number().nullable().optional(),
-  distributionParameters: z.array(DistributionParameter).optional().meta({ description: 'θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²), each counted in k.' }),
-  convergence: z
-    .strictObject({ converged: z.boolean(), iterations: z.number().int(), stepHalvings: z.number().int(), rule: z.string() })
-    .nullable()
-    .optional()
-    .meta({ description: 'How the fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked.' }),
+  distributionParameters: DistributionParameters,
+  convergence: Convergence,
   devianceExplained: z.number().nullable().optional().meta({ description: '1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why).' }),
 };
 

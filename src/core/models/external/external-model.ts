@@ -10,7 +10,7 @@ import type { ModelResult } from '../model-result.ts';
 import type { ScoringContext } from '../scoring-context.ts';
 import { transformResponse, type ResponseTransformSpec } from '../response-transform.ts';
 import type { Caution } from '../../scoring/cautions.ts';
-import { criteriaFields, NOT_CHECKED, transformCaution } from '../model-fields.ts';
+import { criteriaFields, NO_RESIDUAL_FIELDS, transformCaution } from '../model-fields.ts';
 import { alignToUsedRows } from '../aligned-rows.ts';
 
 export type ExternalCandidateInput =
@@ -98,8 +98,7 @@ export function scoreExternalCandidate(
       responseTransform: candidate.response ? { ...candidate.response, jacobian } : null,
       coefficients: [],
       aliased: [],
-      conditionNumber: null,
-      ...NOT_CHECKED,
+      ...NO_RESIDUAL_FIELDS,
       cautions,
     },
   };

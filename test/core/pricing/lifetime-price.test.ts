@@ -1,0 +1,53 @@
+// The lifetime kind's price (src/core/models/lifetime/kind.ts): the core's
+// operation count halved to multiply-adds at the iteration cap, the design's
+// width as buildDesign builds it, and a refusal that names the candidate.
+import t from 'tap';
+import { buildDesign } from '../../../src/core/design/index.ts';
+import { priceLifetime } from '../../../src/core/models/lifetime/index.ts';
+import { CANDIDATE_PRICES, priceComparison, priceIssues, type PriceCaps } from '../../../src/core/pricing/index.ts';
+import { shapeOfColumns } from '../../../src/core/pricing/data-shape.ts';
+import { FIXED_WORK } from '../../../src/core/pricing/least-squares-cost.ts';
+import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
+import type { Columns, Term } from '../../../src/core/types.ts';
+
+const rows = 400;
+const columns: Columns = {
+  hours: Array.from({ length: rows }, (_, i) => 100 + ((i * 37) % 53)),
+  status: Array.from({ length: rows }, (_, i) => (i % 4 === 0 ? 'right' : 'exact')),
+  kelvin: Array.from({ length: rows }, (_, i) => [398, 423, 448][i % 3]),
+  finish: Array.from({ length: rows }, (_, i) => ['matte', 'gloss', 'satin'][(i * 7) % 3]),
+};
+const terms: Term[] = [{ kind: 'transform', of: 'kelvin', fn: 'reciprocal' }, 'finish'];
+const ctx = { shape: shapeOfColumns(columns), fromSummary: false, predictionRows: 0, maxDesignColumns: 2000 };
+
+t.test('a lifetime candidate costs its core operation count in multiply-adds, at the iteration cap', async (t) => {
+  const cost = CANDIDATE_PRICES.lifetime({ form: 'lifetime', name: 'w', distribution: 'weibull', terms }, ctx);
+  const built = buildDesign(columns, terms, true, columns.hours.map((_, i) => i));
+  if ('issues' in built) throw new Error('design');
+  t.equal(cost.designColumns, built.design.labels.length, 'the width buildDesign builds (intercept, 1/kelvin, two finish columns)');
+  t.equal(cost.designColumns, 4);
+  t.equal(cost.fit.work, FIXED_WORK.modelFittedHere + priceLifetime({ rows, designColumns: 4, distribution: 'weibull' }) / 2);
+  t.equal(cost.widestTerm, 1, 'the factor makes the widest term');
+  t.equal(cost.prediction.work, 0, 'no predictions at new rows');
+  const gamma = CANDIDATE_PRICES.lifetime({ form: 'lifetime', name: 'g', distribution: 'gamma', terms }, ctx);
+  t.ok(gamma.fit.work > cost.fit.work, 'a gamma pays for its incomplete gamma functions on censored rows');
+});
+
+t.test('a life comparison over the work cap is refused before anything is fitted', async (t) => {
+  const input = {
+    columns, response: 'hours', weights: null, censoring: { status: 'status' },
+    candidates: [{ form: 'lifetime' as const, name: 'w', distribution: 'weibull' as const, terms }],
+    policy: DEFAULT_POLICY, policyHash: 'x',
+  };
+  const price = priceComparison(input, null, 2000);
+  const caps: PriceCaps = {
+    work: { limit: price.work / 2, setting: 'MAX_REQUEST_WORK' },
+    memoryBytes: { limit: 512 * 2 ** 20, setting: 'MAX_REQUEST_MEMORY_BYTES' },
+    resultBytes: { limit: 16 * 2 ** 20, setting: 'MAX_RESULT_BYTES' },
+    designColumns: { limit: 2000, setting: 'MAX_DESIGN_COLUMNS' },
+  };
+  const issues = priceIssues(price, caps);
+  t.equal(issues.length, 1);
+  t.match(issues[0].message, /MAX_REQUEST_WORK/);
+  t.match(JSON.stringify(issues[0]), /candidate 0/);
+});
