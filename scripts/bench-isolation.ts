@@ -108,7 +108,7 @@ service.child.kill('SIGTERM');
 await service.exited;
 rmSync(dir, { recursive: true, force: true });
 
-console.log(`isolation: ${clients} hostile clients for ${hostileSeconds} s against ${idleSeconds} s idle, /healthz every 20 ms (figures from a busy shared machine)`);
+console.log(`isolation: ${clients} hostile clients for ${hostileSeconds} s against ${idleSeconds} s idle, /healthz every 20 ms`);
 console.log(`${'phase'.padEnd(8)} ${'loop delay p99'.padStart(15)} ${'/healthz p99'.padStart(13)} ${'probes'.padStart(7)} ${'failed'.padStart(7)} ${'peak RSS'.padStart(9)} ${'main thread busy'.padStart(17)}`);
 for (const [name, p] of [['idle', idle], ['hostile', hostile]] as const) {
   console.log(`${name.padEnd(8)} ${p.loopP99.toFixed(1).padStart(12)} ms ${p.healthP99.toFixed(1).padStart(10)} ms ${String(p.probes).padStart(7)} ${String(p.failures).padStart(7)} ${mib(p.rssPeak).padStart(5)} MiB ${(100 * p.mainBusy).toFixed(0).padStart(15)} %`);
