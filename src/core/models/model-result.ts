@@ -5,6 +5,7 @@ import type { Caution } from '../scoring/cautions.ts';
 import type { CoefficientTest } from '../inference/coefficient-tests.ts';
 import type { PredictionWithIntervals } from '../inference/prediction-intervals.ts';
 import type { ResponseTransformSpec } from './response-transform.ts';
+import type { NonlinearConvergence } from './nonlinear/result.ts';
 
 /** How a model's predictions relate to the response as sent. */
 export interface PredictionScale {
@@ -47,4 +48,7 @@ export interface ModelResult {
   /** How the predictions relate to the response as sent (back-transformed for a transformed response); null without predictions. */
   predictionScale: PredictionScale | null;
   cautions: Caution[];
+  /** A nonlinear candidate: its expression as sent, and how its fit converged. */
+  expression?: string;
+  convergence?: NonlinearConvergence;
 }

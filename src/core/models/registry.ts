@@ -11,10 +11,16 @@ import { fitAll } from './linear/fit-all.ts';
 import type { FittedCandidateInput } from './linear/fitted-model.ts';
 import { leastSquaresCapabilities } from './linear/capabilities.ts';
 import { priceLeastSquaresCandidate } from './linear/price.ts';
+import type { NonlinearCandidateSpec } from './nonlinear/candidate.ts';
+import { priceNonlinearCandidate } from './nonlinear/price-candidate.ts';
+import { scoreNonlinearCandidates } from './nonlinear/score.ts';
 import type { ScoringContext } from './scoring-context.ts';
 import { scoredModel, type ScoredModel } from './scored-model.ts';
 
-export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput;
+export type CandidateInput =
+  | ({ form: 'fit' } & FittedCandidateInput)
+  | ExternalCandidateInput
+  | ({ form: 'expression' } & NonlinearCandidateSpec);
 export type CandidateForm = CandidateInput['form'];
 export type OfForm<F extends CandidateForm> = Extract<CandidateInput, { form: F }>;
 
@@ -64,12 +70,22 @@ const external: CandidateKind<ExternalCandidateInput> = {
   price: (c) => scoredElsewhere(c.form === 'residuals' ? c.residuals.length : 1),
 };
 
+/** Nonlinear mean functions written as expressions, fitted here by Levenberg–Marquardt under the Gaussian convention. */
+const nonlinear: CandidateKind<OfForm<'expression'>> = {
+  score(candidates, { columns, ctx, intervalLevel }, issues) {
+    if (!columns) return new Map();
+    return scoreNonlinearCandidates(candidates, columns, ctx, intervalLevel, issues);
+  },
+  price: priceNonlinearCandidate,
+};
+
 /** Each form's kind; the kinds score in the order of first appearance here. */
 export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> } = {
   fit: linear,
   residuals: external,
   rss: external,
   logLikelihood: external,
+  expression: nonlinear,
 };
 
 /**

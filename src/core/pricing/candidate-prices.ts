@@ -18,6 +18,7 @@ export const CANDIDATE_PRICES: { [F in CandidateForm]: CandidatePricer<F> } = {
   residuals: CANDIDATE_KINDS.residuals.price,
   rss: CANDIDATE_KINDS.rss.price,
   logLikelihood: CANDIDATE_KINDS.logLikelihood.price,
+  expression: CANDIDATE_KINDS.expression.price,
 };
 
 export function priceCandidate(candidate: CandidateInput, ctx: CandidateContext): CandidateCost {

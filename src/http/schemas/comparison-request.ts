@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
+import { nonlinearCandidate } from './nonlinear-candidate.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
@@ -119,6 +120,8 @@ export const FittedCandidate = z
   })
   .meta({ id: 'FittedCandidate', description: 'A model the service fits by least squares.' });
 
+export const NonlinearCandidate = nonlinearCandidate(ResponseTransform);
+
 export const ResidualsCandidate = z
   .strictObject({
     name: CandidateName,
@@ -163,7 +166,7 @@ const CRITERION_KEYS = ['aic', 'aicc', 'bic', 'hqc', 'AIC', 'AICc', 'BIC', 'HQC'
  * for a candidate sent by a criterion value, the likelihood to send instead.
  */
 function candidateFormsMessage(input: unknown): string {
-  const forms = 'a candidate is one of: { name, terms, intercept?, response? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }';
+  const forms = 'a candidate is one of: { name, terms, intercept?, response? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, expression, start | starts, bounds?, response? } (nonlinear, fitted here)';
   if (input === null || typeof input !== 'object' || Array.isArray(input)) return `${forms}.`;
   const sent = CRITERION_KEYS.find((k) => Object.prototype.hasOwnProperty.call(input, k));
   if (sent) {
@@ -173,8 +176,8 @@ function candidateFormsMessage(input: unknown): string {
 }
 
 export const Candidate = z
-  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
-  .meta({ id: 'Candidate', description: 'One of the four candidate forms: terms (fitted here), residuals, rss, or logLikelihood.' });
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, NonlinearCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
+  .meta({ id: 'Candidate', description: 'One of the candidate forms: terms (fitted here), residuals, rss, logLikelihood, or expression (nonlinear, fitted here).' });
 
 export const ComparisonOptions = z
   .strictObject({

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
+import { NonlinearConvergence, NonlinearConventions } from './nonlinear-candidate.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -66,6 +67,8 @@ export const ModelResult = z
       .nullable()
       .meta({ description: 'How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response\'s original scale.' }),
     cautions: z.array(Caution),
+    expression: z.string().optional().meta({ description: 'A nonlinear candidate\'s expression as sent (its coefficients are its parameters, term = parameter name).' }),
+    convergence: NonlinearConvergence.optional().meta({ description: 'How a nonlinear candidate\'s fit converged.' }),
   })
   .meta({ id: 'ModelResult' });
 
@@ -124,6 +127,7 @@ export const Conventions = z
     inference: z.string().meta({ description: 'How coefficients are tested and their intervals built.' }),
     predictions: z.string().meta({ description: 'How predictions, their intervals, back-transforms and averages are made.' }),
     intervalLevel: z.number().meta({ description: 'Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95).' }),
+    nonlinear: NonlinearConventions.optional().meta({ description: 'The convention of nonlinear candidates; present when the comparison has one.' }),
   })
   .meta({ id: 'Conventions' });
 
