@@ -73,7 +73,7 @@ t.test('level counting stops just past its bound, and says the width is a lower 
 });
 
 t.test('every candidate form prices itself', async (t) => {
-  t.same(Object.keys(CANDIDATE_PRICES).sort(), ['fit', 'logLikelihood', 'residuals', 'rss']);
+  t.same(Object.keys(CANDIDATE_PRICES).sort(), ['expression', 'fit', 'logLikelihood', 'residuals', 'rss']);
 });
 
 t.test('the answer-size estimate is an upper bound of the measured JSON, within a factor of four', async (t) => {

@@ -10,6 +10,16 @@ import type { NonlinearCandidateSpec } from './candidate.ts';
 import { namesUsed, parseExpression } from './expression/parse.ts';
 import { compileTape } from './expression/tape.ts';
 import { priceNonlinear } from './price.ts';
+import { CONVERGENCE_RULE, NONLINEAR_CONVENTIONS } from './conventions.ts';
+import { LINEARISATION_CAUTION } from './model-result.ts';
+
+/**
+ * Words a nonlinear model adds to the answer: its convergence rule and the
+ * linearisation caution, and the nonlinear conventions (once per answer,
+ * counted with each candidate: an upper bound). Characters × 1.2 for the
+ * multi-byte ones (–, ², ε) in UTF-8.
+ */
+const WORDS_BYTES = Math.ceil(1.2 * (CONVERGENCE_RULE.length + LINEARISATION_CAUTION.message.length + JSON.stringify(NONLINEAR_CONVENTIONS).length));
 
 const FLOPS_PER_MULTIPLY_ADD = 2;
 /**
@@ -48,7 +58,7 @@ export function priceNonlinearCandidate(spec: NonlinearCandidateSpec, ctx: Candi
       heldBytes: 8 * n * p + 24 * n + 8 * p * p,
       // Per row and tape entry: values and adjoints in double and double-double while evaluating; the QR's copy of J.
       passingBytes: 32 * n * t + 8 * n * p,
-      resultBytes: ANSWER_BYTES.model + p * ANSWER_BYTES.coefficient + starts * 64,
+      resultBytes: ANSWER_BYTES.model + WORDS_BYTES + p * ANSWER_BYTES.coefficient + starts * 96,
     },
     prediction: m === 0 ? NO_COST : {
       work: m * (FIXED_WORK.predictionRow + 3 * TAPE_ENTRY_WEIGHT * t + p * p),
