@@ -4,14 +4,12 @@
 // multicollinearity check of a design does not carry over: an expression's
 // parameters have no design columns to inflate, and the identifiability it
 // stands for is checked at the fit (a rank-deficient Jacobian is refused).
-import { diagnosticCautions, DIAGNOSTIC_THRESHOLDS as T } from '../../diagnostics/index.ts';
+import { diagnosticCautions, DIAGNOSTIC_THRESHOLDS as T, NORMALITY_NOTE, TIME_ORDER_NOTE } from '../../diagnostics/index.ts';
 import type { ModelDiagnostics } from '../../diagnostics/types.ts';
 import type { ModelChecks } from '../scored-model.ts';
 import { LEAVE_ONE_OUT_APPROXIMATION, nonlinearLeaveOneOut, nonlinearLeverages, nonlinearResidualChecks } from './capabilities.ts';
 import type { NonlinearFit } from './result.ts';
 
-const NORMALITY_NOTE = 'Jarque–Bera compares the residuals\' skewness and kurtosis with a normal distribution; its chi-square p-value is a large-sample approximation and is lenient below about 30 rows.';
-const TIME_ORDER_NOTE = 'Durbin–Watson is meaningful only when the row order is time (or another sequence) order; otherwise ignore it.';
 const NOT_A_DESIGN_NOTE =
   'Not assessed for a nonlinear model: its parameters have no design columns whose variance inflation could be measured. Identifiability is checked at the fit (a Jacobian of deficient rank is refused); conditionNumber is that of the Jacobian with unit-length columns.';
 

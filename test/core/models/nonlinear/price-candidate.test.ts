@@ -4,11 +4,12 @@
 // fit from a summary; and an answer-size estimate that bounds the measured
 // JSON of a real comparison from above, within a factor of four.
 import t from 'tap';
-import { compareModels, type CandidateInput } from '../../../../src/core/compare.ts';
-import { CANDIDATE_PRICES, priceComparison } from '../../../../src/core/pricing/index.ts';
+import type { CandidateInput } from '../../../../src/core/compare.ts';
+import { CANDIDATE_PRICES } from '../../../../src/core/pricing/index.ts';
 import { shapeOfColumns } from '../../../../src/core/pricing/data-shape.ts';
 import { DEFAULT_POLICY } from '../../../../src/core/scoring/policy.ts';
 import { FIXED_WORK } from '../../../../src/core/pricing/least-squares-cost.ts';
+import { answerSizeBounds } from '../../pricing/answer-size.ts';
 
 // Kiln drying of our own making: moisture = 6 + 36 e^(−0.045 h) plus a deterministic wobble.
 const hours = Array.from({ length: 60 }, (_, i) => (96 * i) / 59);
@@ -43,15 +44,9 @@ t.test('the answer-size estimate bounds the measured JSON from above, within 4×
     ], 200],
   ];
   for (const [name, candidates, m] of shapes) {
-    const input = {
+    answerSizeBounds(t, name, {
       columns, response: 'moisture', weights: null, candidates, policy: DEFAULT_POLICY, policyHash: 'h',
       extras: m ? { predict: { columns: { hours: Array.from({ length: m }, (_, i) => i / 2) } } } : undefined,
-    };
-    const price = priceComparison(input, null, 2000);
-    const out = compareModels(input);
-    if ('issues' in out) throw new Error(out.issues[0].message);
-    const measured = Buffer.byteLength(JSON.stringify(out.result));
-    t.ok(price.resultBytes >= measured, `${name}: estimate ${price.resultBytes} ≥ measured ${measured}`);
-    t.ok(price.resultBytes <= 4 * measured, `${name}: estimate within 4× of ${measured}`);
+    });
   }
 });
