@@ -32,6 +32,7 @@ function candidateInput(c: RequestCandidate, trials: string | undefined): Candid
     };
   }
   if ('residuals' in c) return { form: 'residuals', name: c.name, residuals: c.residuals, parameters: c.parameters, response: c.response };
+  if ('expression' in c) return { form: 'expression', name: c.name, expression: c.expression, start: c.start, starts: c.starts, bounds: c.bounds, response: c.response };
   if ('rss' in c) return { form: 'rss', name: c.name, rss: c.rss, parameters: c.parameters, observations: c.observations, response: c.response };
   return {
     form: 'logLikelihood', name: c.name, logLikelihood: c.logLikelihood, parameters: c.parameters,

@@ -2394,6 +2394,48 @@ export interface components {
             rowsDropped: number;
             bytes: number;
         };
+        NonlinearConvergenceInput: {
+            /**
+             * @description Always true in an answer: a fit that does not converge is a 422 naming the candidate.
+             * @constant
+             */
+            converged: true;
+            /** @description Levenberg–Marquardt iterations (Jacobian evaluations) of the winning start. */
+            iterations: number;
+            /** @description Residual evaluations of the winning start, trial steps included. */
+            evaluations: number;
+            /** @description Gauss–Newton steps with double-double residuals that lowered the sum of squares. */
+            refinementSteps: number;
+            /** @description Which of the stopping tests ended the iteration. */
+            stoppedBy: string;
+            /** @description The certificate: the relative size of a Gauss–Newton step from the solution (at most 1e-6 to count as converged). */
+            finalStep: number;
+            /** @description Largest cosine between the residuals and a free parameter's Jacobian column at the solution. */
+            gradientCosine: number;
+            /** @description The start vector whose solution won (0 for start). */
+            start: number;
+            /** @description Every start vector's outcome, in request order. */
+            starts: {
+                start: number;
+                /** @enum {string} */
+                status: "converged" | "iteration-cap" | "no-minimum" | "rank-deficient" | "non-finite" | "start-not-finite";
+                rss: number | null;
+                iterations: number;
+            }[];
+            /** @description The convergence rule in words. */
+            rule: string;
+        };
+        NonlinearConventionsInput: {
+            expression: string;
+            logLikelihood: string;
+            parameterCount: string;
+            standardErrors: string;
+            rank: string;
+            convergence: string;
+            starts: string;
+            bounds: string;
+            afterRanking: string;
+        };
         /**
          * @description The distribution of the response. gaussian (the default) with the identity link and no offset is least squares, unchanged.
          * @enum {string}
@@ -2490,6 +2532,28 @@ export interface components {
             /** @description A numeric column added to the linear predictor as it is (for example the log of an exposure); rows where it is missing are left out for every candidate. */
             offset?: string;
         };
+        /** @description A mean function nonlinear in its parameters, written as an expression and fitted here by least squares under the Gaussian convention (k = parameters + 1). */
+        NonlinearCandidateInput: {
+            name: string;
+            /** @description The mean function: numbers, + - * / ^ (right-associative, binding tighter than unary minus), unary minus, parentheses, the functions exp, log, log10, sqrt, abs, sin, cos, tan, atan (radians; log is natural) and pi; at most 2000 characters and 40 levels of nesting. */
+            expression: string;
+            /** @description One start value per parameter; its keys name the parameters (every other name in the expression is a data column). */
+            start?: {
+                [key: string]: number;
+            };
+            /** @description Several start vectors with the same keys; each is fitted and the converged solution with the smallest sum of squares wins (convergence.start says which). Give start or starts, not both. */
+            starts?: {
+                [key: string]: number;
+            }[];
+            /** @description Per parameter [lower, upper]; null for no bound on that side. */
+            bounds?: {
+                [key: string]: [
+                    number | null,
+                    number | null
+                ];
+            };
+            response?: components["schemas"]["ResponseTransformInput"];
+        };
         /** @description A Gaussian model fitted elsewhere, sent by its residuals; the log-likelihood is computed here. */
         ResidualsCandidateInput: {
             name: string;
@@ -2528,8 +2592,8 @@ export interface components {
             fixedEffects?: string[];
             response?: components["schemas"]["ResponseTransformInput"];
         };
-        /** @description One of the six candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), or distribution (a life distribution fitted here). */
-        CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"] | components["schemas"]["LifetimeCandidateInput"];
+        /** @description One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here). */
+        CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"] | components["schemas"]["LifetimeCandidateInput"] | components["schemas"]["NonlinearCandidateInput"];
         ComparisonOptionsInput: {
             /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["CriterionInput"];
@@ -2673,8 +2737,8 @@ export interface components {
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
-            convergence?: {
+            /** @description How an iterative fit ended (generalised linear models, nonlinear mean functions, life distributions); null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: ({
                 converged: boolean;
                 iterations: number;
                 rule: string;
@@ -2682,7 +2746,7 @@ export interface components {
                 stepHalvings?: number;
                 /** @description Life distributions: the Newton decrement at the estimates. */
                 decrement?: number;
-            } | null;
+            } | components["schemas"]["NonlinearConvergenceInput"]) | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
@@ -2709,6 +2773,8 @@ export interface components {
                 left: number;
                 interval: number;
             };
+            /** @description A nonlinear candidate's expression as sent (its coefficients are its parameters, term = parameter name). */
+            expression?: string;
         };
         RankingEntryInput: {
             /** @description Competition rank (ties share a rank); null when the model has no value. */
@@ -2775,6 +2841,8 @@ export interface components {
             lifetime?: {
                 [key: string]: string;
             };
+            /** @description The convention of nonlinear candidates; present when the comparison has one. */
+            nonlinear?: components["schemas"]["NonlinearConventionsInput"];
         };
         DatasetInput: {
             /** @description "sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent. */
@@ -3115,8 +3183,8 @@ export interface components {
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
-            convergence?: {
+            /** @description How an iterative fit ended (generalised linear models, nonlinear mean functions, life distributions); null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: ({
                 converged: boolean;
                 iterations: number;
                 rule: string;
@@ -3124,7 +3192,7 @@ export interface components {
                 stepHalvings?: number;
                 /** @description Life distributions: the Newton decrement at the estimates. */
                 decrement?: number;
-            } | null;
+            } | components["schemas"]["NonlinearConvergenceInput"]) | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
@@ -3151,6 +3219,8 @@ export interface components {
                 left: number;
                 interval: number;
             };
+            /** @description A nonlinear candidate's expression as sent (its coefficients are its parameters, term = parameter name). */
+            expression?: string;
             /** @description The subset's terms in the request's forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit. */
             terms: components["schemas"]["TermInput"][];
             /** @description Criterion value minus the best over all evaluated subsets (>= 0). */
@@ -3487,6 +3557,48 @@ export interface components {
             rowsDropped: number;
             bytes: number;
         };
+        NonlinearConvergence: {
+            /**
+             * @description Always true in an answer: a fit that does not converge is a 422 naming the candidate.
+             * @constant
+             */
+            converged: true;
+            /** @description Levenberg–Marquardt iterations (Jacobian evaluations) of the winning start. */
+            iterations: number;
+            /** @description Residual evaluations of the winning start, trial steps included. */
+            evaluations: number;
+            /** @description Gauss–Newton steps with double-double residuals that lowered the sum of squares. */
+            refinementSteps: number;
+            /** @description Which of the stopping tests ended the iteration. */
+            stoppedBy: string;
+            /** @description The certificate: the relative size of a Gauss–Newton step from the solution (at most 1e-6 to count as converged). */
+            finalStep: number;
+            /** @description Largest cosine between the residuals and a free parameter's Jacobian column at the solution. */
+            gradientCosine: number;
+            /** @description The start vector whose solution won (0 for start). */
+            start: number;
+            /** @description Every start vector's outcome, in request order. */
+            starts: {
+                start: number;
+                /** @enum {string} */
+                status: "converged" | "iteration-cap" | "no-minimum" | "rank-deficient" | "non-finite" | "start-not-finite";
+                rss: number | null;
+                iterations: number;
+            }[];
+            /** @description The convergence rule in words. */
+            rule: string;
+        };
+        NonlinearConventions: {
+            expression: string;
+            logLikelihood: string;
+            parameterCount: string;
+            standardErrors: string;
+            rank: string;
+            convergence: string;
+            starts: string;
+            bounds: string;
+            afterRanking: string;
+        };
         /**
          * @description The distribution of the response. gaussian (the default) with the identity link and no offset is least squares, unchanged.
          * @enum {string}
@@ -3586,6 +3698,28 @@ export interface components {
             /** @description A numeric column added to the linear predictor as it is (for example the log of an exposure); rows where it is missing are left out for every candidate. */
             offset?: string;
         };
+        /** @description A mean function nonlinear in its parameters, written as an expression and fitted here by least squares under the Gaussian convention (k = parameters + 1). */
+        NonlinearCandidate: {
+            name: string;
+            /** @description The mean function: numbers, + - * / ^ (right-associative, binding tighter than unary minus), unary minus, parentheses, the functions exp, log, log10, sqrt, abs, sin, cos, tan, atan (radians; log is natural) and pi; at most 2000 characters and 40 levels of nesting. */
+            expression: string;
+            /** @description One start value per parameter; its keys name the parameters (every other name in the expression is a data column). */
+            start?: {
+                [key: string]: number;
+            };
+            /** @description Several start vectors with the same keys; each is fitted and the converged solution with the smallest sum of squares wins (convergence.start says which). Give start or starts, not both. */
+            starts?: {
+                [key: string]: number;
+            }[];
+            /** @description Per parameter [lower, upper]; null for no bound on that side. */
+            bounds?: {
+                [key: string]: [
+                    number | null,
+                    number | null
+                ];
+            };
+            response?: components["schemas"]["ResponseTransform"];
+        };
         /** @description A Gaussian model fitted elsewhere, sent by its residuals; the log-likelihood is computed here. */
         ResidualsCandidate: {
             name: string;
@@ -3624,8 +3758,8 @@ export interface components {
             fixedEffects?: string[];
             response?: components["schemas"]["ResponseTransform"];
         };
-        /** @description One of the six candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), or distribution (a life distribution fitted here). */
-        Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"] | components["schemas"]["LifetimeCandidate"];
+        /** @description One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here). */
+        Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"] | components["schemas"]["LifetimeCandidate"] | components["schemas"]["NonlinearCandidate"];
         ComparisonOptions: {
             /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["Criterion"];
@@ -3769,8 +3903,8 @@ export interface components {
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
-            convergence?: {
+            /** @description How an iterative fit ended (generalised linear models, nonlinear mean functions, life distributions); null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: ({
                 converged: boolean;
                 iterations: number;
                 rule: string;
@@ -3778,7 +3912,7 @@ export interface components {
                 stepHalvings?: number;
                 /** @description Life distributions: the Newton decrement at the estimates. */
                 decrement?: number;
-            } | null;
+            } | components["schemas"]["NonlinearConvergence"]) | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
@@ -3805,6 +3939,8 @@ export interface components {
                 left: number;
                 interval: number;
             };
+            /** @description A nonlinear candidate's expression as sent (its coefficients are its parameters, term = parameter name). */
+            expression?: string;
         };
         RankingEntry: {
             /** @description Competition rank (ties share a rank); null when the model has no value. */
@@ -3871,6 +4007,8 @@ export interface components {
             lifetime?: {
                 [key: string]: string;
             };
+            /** @description The convention of nonlinear candidates; present when the comparison has one. */
+            nonlinear?: components["schemas"]["NonlinearConventions"];
         };
         Dataset: {
             /** @description "sha256:" + hex digest of the canonical serialisation of the used data (README: dataset fingerprint); null when no data were sent. */
@@ -4211,8 +4349,8 @@ export interface components {
                 /** @description Null when the parameter was stated by the caller (means fitted elsewhere). */
                 standardError: number | null;
             }[];
-            /** @description How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
-            convergence?: {
+            /** @description How an iterative fit ended (generalised linear models, nonlinear mean functions, life distributions); null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked. */
+            convergence?: ({
                 converged: boolean;
                 iterations: number;
                 rule: string;
@@ -4220,7 +4358,7 @@ export interface components {
                 stepHalvings?: number;
                 /** @description Life distributions: the Newton decrement at the estimates. */
                 decrement?: number;
-            } | null;
+            } | components["schemas"]["NonlinearConvergence"]) | null;
             /** @description 1 − deviance/nullDeviance; r2 and adjustedR2 are null for non-Gaussian families (a caution says why). */
             devianceExplained?: number | null;
             /** @description QAIC under options.overdispersion; absent without it. */
@@ -4247,6 +4385,8 @@ export interface components {
                 left: number;
                 interval: number;
             };
+            /** @description A nonlinear candidate's expression as sent (its coefficients are its parameters, term = parameter name). */
+            expression?: string;
             /** @description The subset's terms in the request's forms: its pool terms in pool order, then the always terms. Sent as a comparison candidate they give these numbers to the last digit. */
             terms: components["schemas"]["Term"][];
             /** @description Criterion value minus the best over all evaluated subsets (>= 0). */

@@ -11,6 +11,8 @@ import { chooseRankBy, type Policy } from '../scoring/policy.ts';
 import type { Columns } from '../types.ts';
 import type { ModelResult } from '../models/model-result.ts';
 import { kindConventions, scoreCandidates, type CandidateInput } from '../models/registry.ts';
+import { expressionColumnsUsed } from '../models/nonlinear/columns-used.ts';
+import { NONLINEAR_CONVENTIONS } from '../models/nonlinear/conventions.ts';
 import type { ScoringContext } from '../models/scoring-context.ts';
 import { estimationIssues } from './estimation-rules.ts';
 import { measureMixIssue } from './measure-mix.ts';
@@ -81,7 +83,7 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
   const { columns, candidates } = input;
   if (!columns || input.response === null) {
     candidates.forEach((c, i) => {
-      if (c.form === 'fit' || c.form === 'glm' || c.form === 'lifetime' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
+      if (c.form === 'fit' || c.form === 'glm' || c.form === 'lifetime' || c.form === 'expression' || (c.form === 'residuals' && c.response)) issues.push(issue('data_required', ['candidates', i], { form: c.form === 'residuals' ? 'a response transform' : 'a candidate fitted here' }));
       if (c.form === 'fitted') issues.push(issue('data_required', ['candidates', i], { form: 'a candidate sent by its fitted means' }));
     });
     if (input.weights) issues.push(issue('data_required', ['weights'], { form: 'a weights column' }));
@@ -90,7 +92,10 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
     const nSource = `candidate ${JSON.stringify(first.name)} ${first.form === 'residuals' ? 'has residuals for' : 'states'}`;
     return { ctx: { n, rows: null, dataRows: null, y: null, weights: null, nSource }, dropped: 0, used: [], missingWeights: 0, zeroWeights: 0 };
   }
-  const termColumns = [...new Set([...candidates.flatMap(candidateColumns), ...censoringRowColumns(input.censoring ?? null)])];
+  const termColumns = [...new Set([
+    ...candidates.flatMap((c) => (c.form === 'expression' ? expressionColumnsUsed(c, columns) : candidateColumns(c))),
+    ...censoringRowColumns(input.censoring ?? null),
+  ])];
   const sample = sampleRows(columns, input.response, input.weights, termColumns);
   if ('issues' in sample) {
     issues.push(...sample.issues);
@@ -158,7 +163,12 @@ export function compareModels(
 
   return {
     result: {
-      conventions: { ...conventions(choice, confidenceLevel, intervalLevel), ...kindConventions(input.candidates), ...lifetimeConventions(input.candidates) },
+      conventions: {
+        ...conventions(choice, confidenceLevel, intervalLevel),
+        ...kindConventions(input.candidates),
+        ...lifetimeConventions(input.candidates),
+        ...(input.candidates.some((c) => c.form === 'expression') ? { nonlinear: NONLINEAR_CONVENTIONS } : {}),
+      },
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,

@@ -4,6 +4,7 @@ import type { CriterionName } from '../scoring/criteria.ts';
 import type { RankByChoice } from '../scoring/policy.ts';
 import { ALIAS_TOLERANCE } from '../fit/index.ts';
 import { PIVOT_TOLERANCE } from '../search/sweep.ts';
+import { NONLINEAR_CONVENTIONS } from '../models/nonlinear/conventions.ts';
 
 // 2: coefficient labels of the service's own; predictions of a transformed
 // response on the original scale (the median); averaged coefficients over one
@@ -29,6 +30,8 @@ export interface Conventions {
   intervalLevel: number;
   /** How lifetime candidates are scored; present only when the comparison has some. */
   lifetime?: Record<string, string>;
+  /** The convention of nonlinear candidates, present when the comparison has one. */
+  nonlinear?: typeof NONLINEAR_CONVENTIONS;
 }
 
 /** The rank rule of a fit by QR on the rows (src/core/fit). */

@@ -107,6 +107,10 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
       issues.push(issue('summary_rows_needed', ['candidates', i, 'distribution'], { form: 'a lifetime candidate', reason: 'its likelihood sums over each unit\'s time and censoring' }));
       return;
     }
+    if (c.form === 'expression') {
+      issues.push(issue('summary_rows_needed', ['candidates', i, 'expression'], { form: 'a nonlinear candidate', reason: 'its fit evaluates the expression on every row' }));
+      return;
+    }
     const scored = c.form === 'residuals'
         ? { issues: [issue('summary_rows_needed', ['candidates', i, 'residuals'], { form: 'a residuals candidate', reason: 'residuals line up with rows, which a summary does not have; send its rss instead' })] }
         : c.form === 'glm' || c.form === 'fitted'

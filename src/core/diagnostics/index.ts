@@ -16,8 +16,8 @@ export { jarqueBera, breuschPaganKoenker, breuschPaganFromAuxiliary, durbinWatso
 export { varianceInflationFactors, scaledConditionNumber } from './collinearity.ts';
 export { cooksDistances } from './influence.ts';
 
-const NORMALITY_NOTE = 'Jarque–Bera compares the residuals\' skewness and kurtosis with a normal distribution; its chi-square p-value is a large-sample approximation and is lenient below about 30 rows.';
-const TIME_ORDER_NOTE = 'Durbin–Watson is meaningful only when the row order is time (or another sequence) order; otherwise ignore it.';
+export const NORMALITY_NOTE = 'Jarque–Bera compares the residuals\' skewness and kurtosis with a normal distribution; its chi-square p-value is a large-sample approximation and is lenient below about 30 rows.';
+export const TIME_ORDER_NOTE = 'Durbin–Watson is meaningful only when the row order is time (or another sequence) order; otherwise ignore it.';
 
 /**
  * Every check from one pass over the design: the model's geometry (R factor

@@ -7,6 +7,7 @@ import type { PredictionWithIntervals } from '../inference/prediction-intervals.
 import type { ResponseTransformSpec } from './response-transform.ts';
 import type { GlmReportFields } from './glm/types.ts';
 import type { LifetimeReportFields } from './lifetime/candidate.ts';
+import type { NonlinearConvergence } from './nonlinear/result.ts';
 
 /** How a model's predictions relate to the response as sent. */
 export interface PredictionScale {
@@ -41,7 +42,7 @@ type SharedKindFields = 'convergence' | 'distributionParameters';
 export interface ModelResult extends Partial<Omit<GlmReportFields, SharedKindFields>>, Partial<Omit<LifetimeReportFields, SharedKindFields>> {
   name: string;
   distributionParameters?: DistributionParameterResult[];
-  convergence?: ConvergenceResult | null;
+  convergence?: ConvergenceResult | NonlinearConvergence | null;
   source: 'fit' | 'residuals' | 'rss' | 'logLikelihood' | 'fitted' | 'lifetime';
   estimation: 'ml' | 'reml';
   /** Null for a model fitted elsewhere: the service cannot know. */
@@ -75,4 +76,6 @@ export interface ModelResult extends Partial<Omit<GlmReportFields, SharedKindFie
   /** QAIC and QAICc under the request's ĉ (options.overdispersion); absent when it asks for none. */
   qaic?: number | null;
   qaicc?: number | null;
+  /** A nonlinear candidate: its expression as sent. */
+  expression?: string;
 }

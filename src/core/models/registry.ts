@@ -11,6 +11,9 @@ import { fitAll } from './linear/fit-all.ts';
 import type { FittedCandidateInput } from './linear/fitted-model.ts';
 import { leastSquaresCapabilities } from './linear/capabilities.ts';
 import { priceLeastSquaresCandidate } from './linear/price.ts';
+import type { NonlinearCandidateSpec } from './nonlinear/candidate.ts';
+import { priceNonlinearCandidate } from './nonlinear/price-candidate.ts';
+import { scoreNonlinearCandidates } from './nonlinear/score.ts';
 import type { ScoringContext } from './scoring-context.ts';
 import type { FittedMeansCandidateInput, GlmCandidateInput } from './glm/candidate.ts';
 import { scoreFittedMeansCandidates, scoreGlmCandidates } from './glm/kind.ts';
@@ -21,7 +24,13 @@ import type { LifetimeCandidateInput } from './lifetime/candidate.ts';
 import { priceLifetimeCandidate, scoreLifetimeCandidates } from './lifetime/kind.ts';
 import { scoredModel, type ScoredModel } from './scored-model.ts';
 
-export type CandidateInput = ({ form: 'fit' } & FittedCandidateInput) | ExternalCandidateInput | GlmCandidateInput | FittedMeansCandidateInput | LifetimeCandidateInput;
+export type CandidateInput =
+  | ({ form: 'fit' } & FittedCandidateInput)
+  | ExternalCandidateInput
+  | GlmCandidateInput
+  | FittedMeansCandidateInput
+  | LifetimeCandidateInput
+  | ({ form: 'expression' } & NonlinearCandidateSpec);
 export type CandidateForm = CandidateInput['form'];
 export type OfForm<F extends CandidateForm> = Extract<CandidateInput, { form: F }>;
 
@@ -92,6 +101,15 @@ const lifetime: CandidateKind<LifetimeCandidateInput> = {
   price: priceLifetimeCandidate,
 };
 
+/** Nonlinear mean functions written as expressions, fitted here by Levenberg–Marquardt under the Gaussian convention. */
+const nonlinear: CandidateKind<OfForm<'expression'>> = {
+  score(candidates, { columns, ctx, intervalLevel }, issues) {
+    if (!columns) return new Map();
+    return scoreNonlinearCandidates(candidates, columns, ctx, intervalLevel, issues);
+  },
+  price: priceNonlinearCandidate,
+};
+
 /** Each form's kind; the kinds score in the order of first appearance here. */
 export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> } = {
   fit: linear,
@@ -101,6 +119,7 @@ export const CANDIDATE_KINDS: { [F in CandidateForm]: CandidateKind<OfForm<F>> }
   glm,
   fitted: fittedMeans,
   lifetime,
+  expression: nonlinear,
 };
 
 /**

@@ -21,6 +21,7 @@ export const CANDIDATE_PRICES: { [F in CandidateForm]: CandidatePricer<F> } = {
   glm: CANDIDATE_KINDS.glm.price,
   fitted: CANDIDATE_KINDS.fitted.price,
   lifetime: CANDIDATE_KINDS.lifetime.price,
+  expression: CANDIDATE_KINDS.expression.price,
 };
 
 export function priceCandidate(candidate: CandidateInput, ctx: CandidateContext): CandidateCost {

@@ -6,6 +6,7 @@ import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
 import { FittedMeansCandidate, GlmCandidateFields, OverdispersionOption, TrialsColumn } from './glm.ts';
 import { Censoring, LifetimeCandidate, Percentiles } from './lifetime.ts';
+import { nonlinearCandidate } from './nonlinear-candidate.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
 export { Criterion, criterionNames } from './common.ts';
@@ -128,6 +129,8 @@ export const FittedCandidate = z
   })
   .meta({ id: 'FittedCandidate', description: 'A model the service fits: least squares by default, a generalised linear model with family (and link, offset).' });
 
+export const NonlinearCandidate = nonlinearCandidate(ResponseTransform);
+
 export const ResidualsCandidate = z
   .strictObject({
     name: CandidateName,
@@ -172,7 +175,7 @@ const CRITERION_KEYS = ['aic', 'aicc', 'bic', 'hqc', 'AIC', 'AICc', 'BIC', 'HQC'
  * for a candidate sent by a criterion value, the likelihood to send instead.
  */
 function candidateFormsMessage(input: unknown): string {
-  const forms = 'a candidate is one of: { name, terms, intercept?, response?, family?, link?, offset? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, family, fitted, parameters, theta? | shape? | dispersion? }; { name, distribution, terms? } (a life distribution fitted here)';
+  const forms = 'a candidate is one of: { name, terms, intercept?, response?, family?, link?, offset? } (fitted here); { name, residuals, parameters }; { name, rss, parameters, observations }; { name, logLikelihood, parameters, observations, estimation? }; { name, family, fitted, parameters, theta? | shape? | dispersion? }; { name, distribution, terms? } (a life distribution fitted here); { name, expression, start | starts, bounds?, response? } (a nonlinear mean function fitted here)';
   if (input === null || typeof input !== 'object' || Array.isArray(input)) return `${forms}.`;
   const sent = CRITERION_KEYS.find((k) => Object.prototype.hasOwnProperty.call(input, k));
   if (sent) {
@@ -182,8 +185,8 @@ function candidateFormsMessage(input: unknown): string {
 }
 
 export const Candidate = z
-  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, FittedMeansCandidate, LifetimeCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
-  .meta({ id: 'Candidate', description: 'One of the six candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), or distribution (a life distribution fitted here).' });
+  .union([FittedCandidate, ResidualsCandidate, RssCandidate, LikelihoodCandidate, FittedMeansCandidate, LifetimeCandidate, NonlinearCandidate], { error: (issue) => candidateFormsMessage(issue.input) })
+  .meta({ id: 'Candidate', description: 'One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here).' });
 
 export const ComparisonOptions = z
   .strictObject({

@@ -5,6 +5,7 @@ import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
 import { GlmConventions, GlmModelFields, OverdispersionResult } from './glm.ts';
 import { LIFETIME_MODEL_FIELDS, LifetimeConventions } from './lifetime.ts';
+import { NonlinearConventions } from './nonlinear-candidate.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -72,6 +73,7 @@ export const ModelResult = z
     qaic: nullableNumber.optional().meta({ description: 'QAIC under options.overdispersion; absent without it.' }),
     qaicc: nullableNumber.optional(),
     ...LIFETIME_MODEL_FIELDS,
+    expression: z.string().optional().meta({ description: 'A nonlinear candidate\'s expression as sent (its coefficients are its parameters, term = parameter name).' }),
   })
   .meta({ id: 'ModelResult' });
 
@@ -132,6 +134,7 @@ export const Conventions = z
     intervalLevel: z.number().meta({ description: 'Confidence level of coefficient and prediction intervals (options.intervalLevel, default 0.95).' }),
     glm: GlmConventions.optional().meta({ description: 'The convention of generalised linear models, present when the comparison has one.' }),
     lifetime: LifetimeConventions,
+    nonlinear: NonlinearConventions.optional().meta({ description: 'The convention of nonlinear candidates; present when the comparison has one.' }),
   })
   .meta({ id: 'Conventions' });
 

@@ -3,6 +3,7 @@
 // iterative fit ended. One shape each, so a model's answer reads alike
 // whatever kind fitted it; members only one kind has are optional.
 import { z } from 'zod';
+import { NonlinearConvergence } from './nonlinear-candidate.ts';
 
 const nullableNumber = z.number().nullable();
 
@@ -18,14 +19,17 @@ export const DistributionParameters = z
       'The distribution\'s own parameters, each counted in k: θ (negativeBinomial), shape (gamma) or dispersion (inverseGaussian, gaussian σ²) for generalised linear models; the usual parameters of a life distribution (standard errors by the delta method; those that depend on the location listed only for a model without terms).',
   });
 
+/** How an IRLS or Newton–Raphson fit ended (generalised linear models, life distributions). */
+const IterativeConvergence = z.strictObject({
+  converged: z.boolean(),
+  iterations: z.number().int(),
+  rule: z.string(),
+  stepHalvings: z.number().int().optional().meta({ description: 'Generalised linear models: IRLS steps halved because the deviance rose.' }),
+  decrement: z.number().optional().meta({ description: 'Life distributions: the Newton decrement at the estimates.' }),
+});
+
 export const Convergence = z
-  .strictObject({
-    converged: z.boolean(),
-    iterations: z.number().int(),
-    rule: z.string(),
-    stepHalvings: z.number().int().optional().meta({ description: 'Generalised linear models: IRLS steps halved because the deviance rose.' }),
-    decrement: z.number().optional().meta({ description: 'Life distributions: the Newton decrement at the estimates.' }),
-  })
+  .union([IterativeConvergence, NonlinearConvergence])
   .nullable()
   .optional()
-  .meta({ description: 'How an iterative fit ended; null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked.' });
+  .meta({ description: 'How an iterative fit ended (generalised linear models, nonlinear mean functions, life distributions); null for means fitted elsewhere. A fit that does not converge is refused (422), never ranked.' });

@@ -8,7 +8,7 @@
 import t from 'tap';
 import { demoColumns } from '../../../scripts/demo-data.ts';
 import { buildDesign, commonRows } from '../../../src/core/design/index.ts';
-import { compareModels, type CandidateInput } from '../../../src/core/compare.ts';
+import type { CandidateInput } from '../../../src/core/compare.ts';
 import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 import { CANDIDATE_PRICES, priceComparison, priceIssues, priceSearch, type PriceCaps } from '../../../src/core/pricing/index.ts';
 import { shapeOfColumns } from '../../../src/core/pricing/data-shape.ts';
@@ -16,6 +16,7 @@ import { designWidth } from '../../../src/core/pricing/design-width.ts';
 import { DEFAULT_SEARCH_BUDGET, planSearch } from '../../../src/core/search/index.ts';
 import { prepareSearch } from '../../../src/core/search/request-problem.ts';
 import type { Columns, Term } from '../../../src/core/types.ts';
+import { answerSizeBounds } from './answer-size.ts';
 
 const caps = (work = 1e10): PriceCaps => ({
   work: { limit: work, setting: 'MAX_REQUEST_WORK' },
@@ -73,7 +74,7 @@ t.test('level counting stops just past its bound, and says the width is a lower 
 });
 
 t.test('every candidate form prices itself', async (t) => {
-  t.same(Object.keys(CANDIDATE_PRICES).sort(), ['fit', 'fitted', 'glm', 'lifetime', 'logLikelihood', 'residuals', 'rss']);
+  t.same(Object.keys(CANDIDATE_PRICES).sort(), ['expression', 'fit', 'fitted', 'glm', 'lifetime', 'logLikelihood', 'residuals', 'rss']);
 });
 
 t.test('the answer-size estimate is an upper bound of the measured JSON, within a factor of four', async (t) => {
@@ -85,13 +86,7 @@ t.test('the answer-size estimate is an upper bound of the measured JSON, within 
     ['four models, 2000 predictions', Array.from({ length: 4 }, (_, i): CandidateInput => ({ form: 'fit', name: `model ${i}`, terms: (['peakTemp', { kind: 'power', of: 'peakTemp', degree: 2 }, 'moisture', 'kiln'] as Term[]).slice(0, 1 + i), intercept: true })), 2000],
   ];
   for (const [name, candidates, m] of shapes) {
-    const input = { columns, response: 'shrinkage', weights: null, candidates, policy: DEFAULT_POLICY, policyHash: 'h', extras: m ? { predict: { columns: newRows(m) } } : undefined };
-    const price = priceComparison(input, null, 2000);
-    const out = compareModels(input);
-    if ('issues' in out) throw new Error(out.issues[0].message);
-    const measured = Buffer.byteLength(JSON.stringify(out.result));
-    t.ok(price.resultBytes >= measured, `${name}: estimate ${price.resultBytes} ≥ measured ${measured}`);
-    t.ok(price.resultBytes <= 4 * measured, `${name}: estimate within 4× of ${measured}`);
+    answerSizeBounds(t, name, { columns, response: 'shrinkage', weights: null, candidates, policy: DEFAULT_POLICY, policyHash: 'h', extras: m ? { predict: { columns: newRows(m) } } : undefined });
   }
 });
 

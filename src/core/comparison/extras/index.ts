@@ -60,14 +60,15 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   const issues: Issue[] = [];
   for (const model of scored) {
     const { checks: checkRows, predict } = model.capabilities;
-    if (!checkRows) continue;
     const result = model.report;
-    const checks = checkRows(input.rows!);
-    result.press = checks.press;
-    result.looRmse = checks.looRmse;
-    result.diagnostics = checks.diagnostics;
-    result.cautions.push(...checks.cautions);
-    if (checks.looNote) result.cautions.push({ code: 'press_undefined', message: checks.looNote });
+    if (checkRows) {
+      const checks = checkRows(input.rows!);
+      result.press = checks.press;
+      result.looRmse = checks.looRmse;
+      result.diagnostics = checks.diagnostics;
+      result.cautions.push(...checks.cautions);
+      if (checks.looNote) result.cautions.push({ code: 'press_undefined', message: checks.looNote });
+    }
     if (predictCount !== null && predict) {
       const p = predict({
         columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,

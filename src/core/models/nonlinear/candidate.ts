@@ -53,6 +53,12 @@ function parseIssue(failure: ParseFailure, text: string, at: IssuePath): Issue {
   }
 }
 
+/** The issue of an expression that cannot be read (syntax, function, length, depth), or null: what a request's schema can refuse before any data are read. */
+export function expressionIssue(text: string, at: IssuePath): Issue | null {
+  const parsed = parseExpression(text);
+  return 'failure' in parsed ? parseIssue(parsed.failure, text, at) : null;
+}
+
 function own(record: object, key: string): boolean {
   return Object.prototype.hasOwnProperty.call(record, key);
 }
