@@ -185,7 +185,7 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   duplicate_name: (f, at) =>
     `${at} repeats the name ${JSON.stringify(f.name)} already used by candidate ${f.first}; names must be unique.`,
   unknown_column: (f, at) =>
-    `${at} refers to column ${JSON.stringify(f.column)}, which the data does not have${f.suggestion === null ? '' : `; did you mean ${JSON.stringify(f.suggestion)}?`} The data's columns: ${quoteList(f.available)}${f.columns > f.available.length ? ` and ${f.columns - f.available.length} more` : ''}.`,
+    `${at} refers to column ${JSON.stringify(f.column)}, which the data does not have${f.suggestion === null ? '.' : `; did you mean ${JSON.stringify(f.suggestion)}?`} The data's columns: ${quoteList(f.available)}${f.columns > f.available.length ? ` and ${f.columns - f.available.length} more` : ''}.`,
   numbers_as_text: (f, at) =>
     `${at} uses column ${JSON.stringify(f.column)}, whose values are all numbers written as text (e.g. ${JSON.stringify(f.example)})${f.missingMarkers.length > 0 ? ` or missing-value markers (${quoteList(f.missingMarkers)})` : ''}; as text it would become a factor with a level per distinct value. Send the values as JSON numbers${f.missingMarkers.length > 0 ? ' with null for a missing value' : ''}, or, if they are category codes, declare the column { "kind": "factor", "of": ${JSON.stringify(f.column)} }.`,
   column_length_mismatch: (f, at) =>

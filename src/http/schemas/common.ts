@@ -9,11 +9,17 @@ export const ColumnName = z
 
 // zod 4's number() already refuses Infinity and NaN; the message says where they
 // come from, since JSON.parse turns an overflowing literal such as 1e999 into Infinity.
+// A range check chained on a FiniteNumber (a positive θ, λ within ±5) keeps a
+// message of its own that names the range, not the finiteness.
 export const FiniteNumber = z.number({
-  error: (issue) =>
-    typeof issue.input === 'number'
-      ? 'numbers must be finite (a JSON number beyond ±1.8e308 overflows to infinity)'
-      : 'expected a number',
+  error: (issue) => {
+    if (issue.code === 'invalid_type') {
+      return typeof issue.input === 'number' ? 'numbers must be finite (a JSON number beyond ±1.8e308 overflows to infinity)' : 'expected a number';
+    }
+    if (issue.code === 'too_small') return `must be ${issue.inclusive ? 'at least' : 'greater than'} ${String(issue.minimum)}`;
+    if (issue.code === 'too_big') return `must be ${issue.inclusive ? 'at most' : 'less than'} ${String(issue.maximum)}`;
+    return undefined;
+  },
 });
 
 /**
