@@ -1,6 +1,6 @@
 // Who may call what: one table, keyed by method and the URL pattern exactly as
 // fastify registers it. Default-deny: a route missing here needs 'admin', and
-// test/http/security/route-table.test.ts fails for any such route, so a new route
+// test/http/security/role-matrix.test.ts fails for any such route, so a new route
 // cannot be exposed by forgetting this file.
 export const ROLES = ['score', 'read', 'admin'] as const;
 export type Role = (typeof ROLES)[number];

@@ -1,6 +1,6 @@
 // The price of the predictions a comparison asks for, from the request's
-// shape alone, before anything is allocated — for the cost model to register
-// beside the fits' own price (rows × design columns).
+// shape alone, before anything is allocated; the cost model adds
+// averagedBoundsCost to the fits' own price (src/core/pricing/comparison-price.ts).
 //
 // Per prediction row and fitted model: building the row's design (p
 // columns), x'(X'WX)⁻¹x through the model's p × p factor (p² multiply-adds)
@@ -8,7 +8,7 @@
 // model-averaged tail-area bounds, each a root found in a handful of Newton
 // steps, every step one t distribution function per model. One unit is one
 // design cell (a multiply-add on one row and column), the unit of
-// MAX_WORK_CELLS.
+// MAX_REQUEST_WORK.
 
 /** Newton steps a tail-area bound takes, bracket search included (measured: 4–8; priced high). */
 export const TAIL_AREA_STEPS = 12;
@@ -20,7 +20,7 @@ export const TAIL_AREA_STEPS = 12;
  * tails where the bounds lie), its density, the back-transform and the
  * Newton step's bookkeeping. Set so that the price covers a whole averaged
  * row as that script measures it (about 500,000 multiply-adds for six models
- * on a busy machine); the integrator re-measures on a quiet one.
+ * on a busy machine).
  */
 export const T_CDF_CELLS = 2000;
 

@@ -13,7 +13,7 @@ export const CONVERGENCE_RULE =
   `or the largest cosine between the residual vector and a Jacobian column is at most ${LM_TOLERANCES.gtol}, ` +
   `or rounding allows no further progress; then up to ${MAX_REFINEMENT_STEPS} Gauss–Newton steps with residuals evaluated in double-double refine the solution while the sum of squares falls. ` +
   `The fit counts as converged when, after that, the Gauss–Newton step would change the scaled parameters by at most ${CERTIFICATE_STEP} of their length; ` +
-  `it fails after ${DEFAULT_MAX_ITERATIONS} iterations (Jacobian evaluations; ${EVALUATIONS_PER_ITERATION * DEFAULT_MAX_ITERATIONS} residual evaluations) per start vector unless the caller sets another cap.`;
+  `it fails after ${DEFAULT_MAX_ITERATIONS} iterations (Jacobian evaluations; ${EVALUATIONS_PER_ITERATION * DEFAULT_MAX_ITERATIONS} residual evaluations) per start vector.`;
 
 export const NONLINEAR_CONVENTIONS = {
   expression:
