@@ -63,6 +63,13 @@ function specOf(m: ModelResult): ResponseTransformSpec | null {
   return lambda === undefined ? { fn } : { fn, lambda };
 }
 
+/** Why a model fitted here offers no coefficients to match by design column. */
+function unmatchedCoefficientsReason(m: ModelResult): string {
+  if (m.expression !== undefined) return 'a nonlinear model: its parameters are not coefficients of design columns';
+  if (m.family !== undefined && m.family !== null) return `a generalised linear model (${m.family}, ${m.link ?? 'its link'}): its coefficients are on its link scale and are not averaged with others here`;
+  return 'its design columns carry no identity to match coefficients by';
+}
+
 export function averagedModels(input: AveragingInput): AveragedResult | null {
   const { models, ranking, criterion, over } = input;
   const byName = new Map(ranking.map((e) => [e.name, e]));
@@ -72,7 +79,8 @@ export function averagedModels(input: AveragingInput): AveragedResult | null {
   const eligible: ModelResult[] = [];
   for (const m of models) {
     const entry = byName.get(m.name);
-    if (m.source !== 'fit') excluded.push({ name: m.name, reason: 'fitted elsewhere: no coefficients or predictions to average' });
+    if (m.source === 'lifetime') excluded.push({ name: m.name, reason: 'a life distribution: its coefficients move the location of (log) time, not the mean of the response, so they are not averaged with others' });
+    else if (m.source !== 'fit') excluded.push({ name: m.name, reason: 'fitted elsewhere: no coefficients or predictions to average' });
     else if (!entry || entry.weight === null) excluded.push({ name: m.name, reason: `no ${criterion} weight` });
     else if (over === 'confidenceSet' && !entry.inConfidenceSet) excluded.push({ name: m.name, reason: 'outside the confidence set' });
     else eligible.push(m);
@@ -88,7 +96,7 @@ export function averagedModels(input: AveragingInput): AveragedResult | null {
   const chosen: ModelResult[] = [];
   for (const m of byScale.get(chosenKey)!) {
     if (input.keys.get(m.name)?.length !== m.coefficients.length) {
-      excluded.push({ name: m.name, reason: 'its design columns carry no identity to match coefficients by' });
+      excluded.push({ name: m.name, reason: unmatchedCoefficientsReason(m) });
     } else chosen.push(m);
   }
   const scale = specOf(byScale.get(chosenKey)![0]);
@@ -154,7 +162,7 @@ export function averagingCautions(averaged: AveragedResult | null, ranking: read
   if (p && predictionsMiss.length > 0) {
     out.push({
       code: 'averaged_predictions_partial',
-      message: `The averaged predictions cover models holding ${share(p.weightCovered)} of the ${averaged.criterion} weight; ${predictionsMiss.join(', ')} cannot predict here (fitted elsewhere, or outside the averaged set).`,
+      message: `The averaged predictions cover models holding ${share(p.weightCovered)} of the ${averaged.criterion} weight; ${predictionsMiss.join(', ')} offer no predictions to average (fitted elsewhere, a kind whose predictions are not averaged here, or outside the averaged set).`,
     });
   }
   return out;

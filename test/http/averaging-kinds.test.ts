@@ -1,0 +1,19 @@
+// Model averaging says truly why a model of another kind is left out of the
+// averaged coefficients (found by trying the new kinds as a new user would).
+import t from 'tap';
+import { buildTestApp } from '../helper.ts';
+
+t.test('a nonlinear model beside a linear one: left out of the coefficients as a nonlinear model', async (t) => {
+  const { app } = await buildTestApp(t);
+  const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
+  const y = x.map((v, i) => 2 + 0.5 * v + ((i * 7) % 5) / 10);
+  const res = await app.inject({
+    method: 'POST', url: '/v1/comparisons',
+    payload: { data: { columns: { x, y } }, response: 'y', candidates: [{ name: 'line', terms: ['x'] }, { name: 'curve', expression: 'a + b*x^c', start: { a: 2, b: 0.5, c: 1 } }] },
+  });
+  t.equal(res.statusCode, 200, res.body.slice(0, 300));
+  const excluded = (res.json().averaged?.excluded ?? []) as { name: string; reason: string }[];
+  const curve = excluded.find((e) => e.name === 'curve');
+  t.match(curve?.reason, /nonlinear model/, JSON.stringify(excluded));
+  t.notMatch(curve?.reason, /design columns carry no identity/);
+});
