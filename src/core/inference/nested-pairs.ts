@@ -49,7 +49,7 @@ export function collectNestedTests<C extends { name: string }, O extends { small
     if (!a || !b) {
       issues.push({
         code: 'nested-test-unknown-candidate',
-        message: rules.unknownCandidate,
+        message: `${rules.unknownCandidate} The candidate in question: ${JSON.stringify(!a ? pair.smaller : pair.larger)}.`,
         facts: { smaller: pair.smaller, larger: pair.larger, missing: !a ? pair.smaller : pair.larger },
       });
       continue;
