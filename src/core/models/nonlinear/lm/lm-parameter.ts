@@ -1,5 +1,5 @@
 // The Levenberg–Marquardt parameter of Moré (1978, "The Levenberg–Marquardt
-// algorithm: implementation and theory", Lecture Notes in Mathematics 630),
+// algorithm: implementation and theory", Springer LNM 630, Numerical Analysis, ed. G. A. Watson),
 // sections 5–7, as in MINPACK's lmpar and qrsolv: given J P = Q R, the scaling
 // D and a trust-region radius Δ, find λ >= 0 with
 //   x(λ) = argmin ||J x + f||² + λ ||D x||²,
