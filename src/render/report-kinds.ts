@@ -68,7 +68,8 @@ export function modelKindsTable(record: StoredComparisonView): Html | null {
   if (!models.some(hasKindFields)) return null;
   const columns: Column<ModelView>[] = [
     { heading: 'model', cell: (m) => breakableName(m.name), className: 'name' },
-    { heading: 'kind', cell: (m) => kindInWords(m), className: 'words' },
+    // An expression may be long: it breaks after its operators and spaces, as names do.
+    { heading: 'kind', cell: (m) => breakableName(kindInWords(m)), className: 'words' },
   ];
   if (models.some((m) => (m.distributionParameters?.length ?? 0) > 0)) {
     columns.push({ heading: 'distribution parameters (estimate ± standard error)', cell: parametersInWords, className: 'words' });
