@@ -12,6 +12,7 @@ import { coefficientTables, predictionsSection } from './report-coefficients.ts'
 import { datasetAndConventions } from './report-conventions.ts';
 import { diagnosticsSection } from './report-diagnostics.ts';
 import { averagedSection, cautionsSection, nestedTestsSection } from './report-extras.ts';
+import { censoringLine, modelKindsTable, percentilesTable, quasiRankingTables } from './report-kinds.ts';
 import { integrityNotice } from './report-integrity.ts';
 import { reportStyle } from './report-style.ts';
 import { breakableName, factsList } from './report-table.ts';
@@ -83,9 +84,13 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
     tag('p', { class: 'note' }, 'One table per criterion. Δ is the distance from the best model; weights are shares of support summing to 100% over the candidates ranked.'),
     supportNote(record),
     rankingTables(record),
+    quasiRankingTables(record),
     tag('h2', { id: 'models-heading' }, 'Models'),
+    modelKindsTable(record),
+    censoringLine(record),
     modelsTable(record),
     modelFitTable(record),
+    percentilesTable(record),
     nestedTestsSection(record),
     averagedSection(record),
     diagnosticsSection(record),

@@ -30,12 +30,14 @@ export function modelsTable(record: StoredComparisonView): Html {
     { heading: 'BIC', cell: (m) => formatFixed(m.bic, 3) },
     { heading: 'HQC', cell: (m) => formatFixed(m.hqc, 3) },
   ];
-  return table('Criteria of each model (k counts the coefficients and the error variance)', columns, models, (m) => ({ 'data-model': m.name }), { id: 'models' });
+  return table('Criteria of each model (k counts every estimated parameter: the coefficients, and the error variance or the distribution\'s own parameters)', columns, models, (m) => ({ 'data-model': m.name }), { id: 'models' });
 }
 
 /** Each model's fit: residual sums, R², σ and, when the record has them, leave-one-out errors. */
-export function modelFitTable(record: StoredComparisonView): Html {
+export function modelFitTable(record: StoredComparisonView): Html | null {
   const models = record.result.models ?? [];
+  // Life models and non-Gaussian families have no residual sum of squares: no table of n/a.
+  if (models.length > 0 && !models.some((m) => [m.rss, m.sigma, m.r2, m.adjustedR2, m.press, m.looRmse].some((v) => finiteOrNull(v) !== null))) return null;
   const columns: Column<ModelView>[] = [
     nameColumn,
     { heading: 'RSS', cell: (m) => formatSignificant(m.rss) },
@@ -69,17 +71,40 @@ const captions: Record<CriterionName, string> = {
 };
 
 export function rankingTable(record: StoredComparisonView, criterion: CriterionName): Html {
-  const entries = record.result.rankings?.[criterion] ?? [];
+  return rankingTableOf(record.result.rankings?.[criterion] ?? [], {
+    caption: captions[criterion],
+    heading: criterionDisplayName(criterion),
+    value: (v) => criterionValue(criterion, v),
+    delta: (d) => formatCriterionDelta(criterion, d, 'n/a'),
+    support: (e, atBest) => supportWording({ band: e.band, delta: finiteOrNull(e.delta) }, criterion, atBest),
+    banded: bandsApply(criterion),
+    key: criterion,
+  });
+}
+
+/** How one ranking's numbers are written: the criteria beyond CriterionName (QAIC) reuse the table with their own words. */
+export interface RankingWording {
+  caption: string;
+  heading: string;
+  value: (value: unknown) => string;
+  delta: (delta: unknown) => string;
+  support: (entry: RankingEntry, atBest: number) => string | null;
+  /** Whether a support column belongs to this criterion even when no entry carries a band. */
+  banded: boolean;
+  key: string;
+}
+
+export function rankingTableOf(entries: RankingEntry[], wording: RankingWording): Html {
   const weighted = entries.some((e) => finiteOrNull(e.weight) !== null);
   const atBest = countAtBest(entries.map((e) => ({ delta: finiteOrNull(e.delta) })));
   const columns: Column<RankingEntry>[] = [
     { heading: 'rank', cell: (e) => formatCount(e.rank) },
     { heading: 'model', cell: (e) => breakableName(e.name), className: 'name' },
-    { heading: criterionDisplayName(criterion), cell: (e) => criterionValue(criterion, e.value) },
-    { heading: 'Δ', cell: (e) => formatCriterionDelta(criterion, e.delta, 'n/a') },
+    { heading: wording.heading, cell: (e) => wording.value(e.value) },
+    { heading: 'Δ', cell: (e) => wording.delta(e.delta) },
   ];
-  if (bandsApply(criterion) || entries.some((e) => typeof e.band === 'string')) {
-    columns.push({ heading: 'support', cell: (e) => supportWording({ band: e.band, delta: finiteOrNull(e.delta) }, criterion, atBest) ?? '', className: 'words support' });
+  if (wording.banded || entries.some((e) => typeof e.band === 'string')) {
+    columns.push({ heading: 'support', cell: (e) => wording.support(e, atBest) ?? '', className: 'words support' });
   }
   if (weighted) {
     columns.push(
@@ -89,7 +114,7 @@ export function rankingTable(record: StoredComparisonView, criterion: CriterionN
       { heading: 'in confidence set', cell: (e) => yesNo(e.inConfidenceSet), className: 'words' },
     );
   }
-  return table(captions[criterion], columns, entries, (e) => ({ 'data-model': e.name, 'data-criterion': criterion, class: finiteOrNull(e.rank) === 1 ? 'leader' : null }), { 'data-ranking': criterion });
+  return table(wording.caption, columns, entries, (e) => ({ 'data-model': e.name, 'data-criterion': wording.key, class: finiteOrNull(e.rank) === 1 ? 'leader' : null }), { 'data-ranking': wording.key });
 }
 
 /** Whose words the support columns carry: the record's policy, or (for records older than bands) this page's. */

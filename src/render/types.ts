@@ -53,6 +53,31 @@ export interface ModelView {
   diagnostics?: unknown;
   /** Estimates at the rows of options.predict (and, in later records, their intervals). */
   predictions?: unknown[];
+  /** The kinds beyond least squares (report-kinds.ts reads these; absent on least-squares records). */
+  family?: string | null;
+  link?: string | null;
+  deviance?: number | null;
+  nullDeviance?: number | null;
+  devianceExplained?: number | null;
+  qaic?: number | null;
+  qaicc?: number | null;
+  expression?: string;
+  distribution?: string;
+  distributionParameters?: { name: string; estimate: number | null; standardError: number | null }[];
+  convergence?: ConvergenceView | null;
+  percentiles?: { probability: number; estimate: number | null; lower: number | null; upper: number | null }[] | null;
+  censoring?: { exact?: number; right?: number; left?: number; interval?: number };
+  logLikelihoodLogTime?: number | null;
+}
+
+/** How an iterative fit ended: IRLS and Newton fits say iterations and rule; nonlinear fits add their starts. */
+export interface ConvergenceView {
+  converged?: boolean;
+  iterations?: number;
+  stepHalvings?: number;
+  start?: number;
+  starts?: unknown[];
+  [extra: string]: unknown;
 }
 
 export interface NestedTestView {
@@ -86,7 +111,9 @@ export interface ComparisonResultView {
     [extra: string]: unknown;
   };
   models: ModelView[];
-  rankings: Partial<Record<CriterionName, RankingEntry[]>>;
+  rankings: Partial<Record<CriterionName | 'qaic' | 'qaicc', RankingEntry[]>>;
+  /** The ĉ behind rankings.qaic and rankings.qaicc (options.overdispersion). */
+  overdispersion?: { cHat?: number | null; source?: string | null; df?: number | null; belowOne?: boolean | null };
   verdict?: {
     agree?: boolean | null;
     best?: Partial<Record<string, string | null>>;
