@@ -1,9 +1,9 @@
 // POST /v1/comparisons/{id}/replay: today's code against the stored result.
 // A record written by "an older version" is made by appending a result that
 // differs from today's in known places; the replay must find exactly those.
-import t from 'tap';
+import t, { type Test } from 'tap';
 import { requestDigest } from '../../src/audit/open.ts';
-import { buildTestApp } from '../helper.ts';
+import { recordedForReplay } from './replay-setup.ts';
 
 // Demo scenario (invented): a small shrinkage data set.
 function smallComparison() {
@@ -16,15 +16,7 @@ function smallComparison() {
   };
 }
 
-async function setup(t: Parameters<typeof buildTestApp>[0]) {
-  const { app, store } = await buildTestApp(t);
-  const post = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: smallComparison() });
-  t.equal(post.statusCode, 200, post.body.slice(0, 300));
-  const record = (await store.get(post.json().id))!;
-  const replay = async (id: string) => app.inject({ method: 'POST', url: `/v1/comparisons/${id}/replay` });
-  const chainLength = async () => (await app.inject({ method: 'GET', url: '/v1/audit/verify' })).json().records;
-  return { app, store, record, replay, chainLength };
-}
+const setup = (t: Test) => recordedForReplay(t, 'comparisons', smallComparison());
 
 t.test('a record made by today\'s code replays identically, and the replay is not recorded', async (t) => {
   const { record, replay, chainLength } = await setup(t);

@@ -3,10 +3,10 @@
 // differs from today's in known places; the replay must find exactly those,
 // and nothing that only measures the run (threads, wall time, nodes).
 // Data: the demo scenario's generator (scripts/demo-data.ts).
-import t from 'tap';
+import t, { type Test } from 'tap';
 import { requestDigest } from '../../src/audit/open.ts';
 import { withoutRunMeasures } from '../../src/http/routes/search-replay.ts';
-import { buildTestApp } from '../helper.ts';
+import { recordedForReplay } from './replay-setup.ts';
 import { demoColumns } from '../../scripts/demo-data.ts';
 
 const searchBody = () => ({
@@ -14,15 +14,7 @@ const searchBody = () => ({
   pool: ['peakTemp', 'holdMinutes', 'moisture', { kind: 'power', of: 'peakTemp', degree: 2 }], responseTransform: { fn: 'log' }, top: 5,
 });
 
-async function setup(t: Parameters<typeof buildTestApp>[0]) {
-  const { app, store } = await buildTestApp(t);
-  const post = await app.inject({ method: 'POST', url: '/v1/searches', payload: searchBody() });
-  t.equal(post.statusCode, 200, post.body.slice(0, 300));
-  const record = (await store.get(post.json().id))!;
-  const replay = async (id: string) => app.inject({ method: 'POST', url: `/v1/searches/${id}/replay`, headers: { 'content-type': 'application/json' } });
-  const chainLength = async () => (await app.inject({ method: 'GET', url: '/v1/audit/verify' })).json().records;
-  return { app, store, record, replay, chainLength };
-}
+const setup = (t: Test) => recordedForReplay(t, 'searches', searchBody(), { 'content-type': 'application/json' });
 
 t.test('a search made by today\'s code replays identically, and the replay appends no record', async (t) => {
   const { record, replay, chainLength } = await setup(t);

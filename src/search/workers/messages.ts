@@ -1,6 +1,6 @@
-// What the search pool and its workers say to each other (structured clone).
+// A search task as it crosses to a compute worker (structured clone); the worker answers with its SearchPartial.
 
-import type { BranchPrefix, BranchStart, SearchPartial, SearchSettings, SubsetProblem } from '../../core/search/index.ts';
+import type { BranchPrefix, BranchStart, SearchSettings, SubsetProblem } from '../../core/search/index.ts';
 
 export type SearchTask =
   | { kind: 'exhaustive'; id: number; problem: SubsetProblem; settings: SearchSettings; from: number; to: number }
@@ -17,4 +17,3 @@ export type SearchTask =
       maxNodes: number;
     };
 
-export type SearchReply = { id: number; ok: true; partial: SearchPartial } | { id: number; ok: false; error: string };
