@@ -6,6 +6,7 @@
 // predictions are averaged over every model.
 import t from 'tap';
 import { buildTestApp } from '../helper.ts';
+import { inlineAndPooled } from './limits/inline-and-pooled.ts';
 import { REFERENCE, referenceCase, relativeError, worstRelativeError } from '../core/models/glm/reference-data.ts';
 
 const seams = referenceCase('seams-poisson-offset');
@@ -131,4 +132,10 @@ t.test('averaging beside least squares: coefficients of one family and link, pre
   const across = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { ...payload, options: { tests: [{ smaller: 'gamma-log-age', larger: 'least-squares' }] } } });
   t.equal(across.statusCode, 422);
   t.match(across.json().errors[0], { path: 'options/tests/0', code: 'nested_test_invalid' });
+});
+
+t.test('the same after-ranking answer inline and on a worker of the pool', async (t) => {
+  const { b } = await inlineAndPooled(t, seamsRequest({ tests: [{ smaller: 'current', larger: 'current-gas' }] }));
+  t.equal(b.json().nestedTests.length, 1);
+  t.ok(b.json().models.every((m: { diagnostics: { glm: unknown } }) => m.diagnostics.glm), 'the family checks travel back from the worker');
 });

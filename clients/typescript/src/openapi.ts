@@ -2327,7 +2327,7 @@ export interface components {
                 note: string;
             };
         };
-        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model's cautions (code assumption_check). */
+        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family's own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model's cautions (code assumption_check). */
         DiagnosticsInput: {
             available: boolean;
             reason: string | null;
@@ -3525,7 +3525,7 @@ export interface components {
                 note: string;
             };
         };
-        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model's cautions (code assumption_check). */
+        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family's own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model's cautions (code assumption_check). */
         Diagnostics: {
             available: boolean;
             reason: string | null;

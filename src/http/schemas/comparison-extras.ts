@@ -135,6 +135,6 @@ export const Diagnostics = z
     }),
     glm: GlmChecks.optional().meta({ description: 'Generalised linear models fitted here only: the checks that belong to the family.' }),
   })
-  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model\'s cautions (code assumption_check).' });
+  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family\'s own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model\'s cautions (code assumption_check).' });
 
 export const PairToTest = z.strictObject({ smaller: z.string().min(1), larger: z.string().min(1) });
