@@ -6,8 +6,8 @@
 import t from 'tap';
 import { CANDIDATE_PRICES } from '../../../../src/core/pricing/index.ts';
 import { shapeOfColumns } from '../../../../src/core/pricing/data-shape.ts';
-import { priceGlm, priceGlmAfterRanking } from '../../../../src/core/models/glm/index.ts';
-import { FIXED_WORK } from '../../../../src/core/pricing/least-squares-cost.ts';
+import { priceGlm } from '../../../../src/core/models/glm/index.ts';
+import { FIXED_WORK, leastSquaresFit } from '../../../../src/core/pricing/least-squares-cost.ts';
 import { GLM_FLOPS_PER_UNIT } from '../../../../src/core/models/glm/price.ts';
 
 const columns = { x: Array.from({ length: 1000 }, (_, i) => i), g: Array.from({ length: 1000 }, (_, i) => ['a', 'b', 'c'][i % 3]) };
@@ -16,7 +16,9 @@ const ctx = { shape: shapeOfColumns(columns), fromSummary: false, predictionRows
 t.test('a GLM candidate costs priceGlm / GLM_FLOPS_PER_UNIT over the fixed cost of a model fitted here', async (t) => {
   const cost = CANDIDATE_PRICES.glm({ form: 'glm', name: 'p', terms: ['x', 'g'], intercept: true, family: 'poisson' }, ctx);
   t.equal(cost.designColumns, 4, 'intercept, x and two columns for a three-level factor');
-  t.equal(cost.fit.work, FIXED_WORK.modelFittedHere + (priceGlm({ rows: 1000, columns: 4, family: 'poisson' }) + priceGlmAfterRanking({ rows: 1000, columns: 4, predictionRows: 0 })) / GLM_FLOPS_PER_UNIT, 'the fit and its checks after the ranking');
+  const checks = leastSquaresFit(1000, 4).work - leastSquaresFit(1000, 4, false).work;
+  t.ok(checks > 0);
+  t.equal(cost.fit.work, FIXED_WORK.modelFittedHere + priceGlm({ rows: 1000, columns: 4, family: 'poisson' }) / GLM_FLOPS_PER_UNIT + checks, 'the fit, and its checks priced as least squares prices the same machinery');
   t.same(cost.prediction, { work: 0, heldBytes: 0, passingBytes: 0, resultBytes: 0 }, 'no prediction rows, no prediction cost');
   t.equal(cost.widestTerm, 1, 'the factor makes the widest term');
   const ls = CANDIDATE_PRICES.fit({ form: 'fit', name: 'l', terms: ['x', 'g'], intercept: true }, ctx);
