@@ -139,3 +139,23 @@ t.test('the same after-ranking answer inline and on a worker of the pool', async
   t.equal(b.json().nestedTests.length, 1);
   t.ok(b.json().models.every((m: { diagnostics: { glm: unknown } }) => m.diagnostics.glm), 'the family checks travel back from the worker');
 });
+
+t.test('a GLM\'s mean beside a model of log y\'s median: averaged, with a note that says so', async (t) => {
+  const { app } = await buildTestApp(t);
+  const pumps = referenceCase('pumps-gamma-log');
+  const res = await app.inject({
+    method: 'POST', url: '/v1/comparisons',
+    payload: {
+      data: { columns: pumps.data }, response: 'hours',
+      candidates: [{ name: 'gamma-log', terms: ['age', 'site'], family: 'gamma', link: 'log' }, { name: 'log-hours', terms: ['age', 'site'], response: { fn: 'log' } }],
+      options: { predict: { columns: pumps.prediction!.rows } },
+    },
+  });
+  t.equal(res.statusCode, 200, res.body.slice(0, 300));
+  const averaged = res.json().averaged;
+  t.same(averaged.predictionsOver.models.sort(), ['gamma-log', 'log-hours']);
+  t.ok(averaged.notes.some((n: string) => /mix medians .* with means/.test(n)));
+  t.equal(averaged.models.length, 1, 'a log link and a log response: coefficients on different scales');
+  const gamma = res.json().models.find((m: { name: string }) => m.name === 'gamma-log');
+  t.ok(worstRelativeError(gamma.predictions.map((p: { estimate: number }) => p.estimate), pumps.prediction!.mean) < 1e-9, 'the gamma mean as R gives it');
+});

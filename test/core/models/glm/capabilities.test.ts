@@ -13,6 +13,7 @@ import { glmNestingOffer } from '../../../../src/core/models/glm/nested-tests.ts
 import { testNestingOffers } from '../../../../src/core/inference/nesting-offers.ts';
 import { LEAST_SQUARES_NESTING } from '../../../../src/core/inference/nested.ts';
 import { fitLeastSquares } from '../../../../src/core/fit/index.ts';
+import { durbinWatson, jarqueBera } from '../../../../src/core/diagnostics/index.ts';
 import type { Columns } from '../../../../src/core/types.ts';
 import { FITTED_CASES, REFERENCE, fitCase, referenceCase, relativeError, worstRelativeError } from './reference-data.ts';
 
@@ -50,6 +51,12 @@ t.test(`checks against R (${REFERENCE.generatedWith})`, async (t) => {
     t.same([checks.press, checks.looRmse], [null, null], 'no leave-one-out');
     t.match(checks.looNote, /new IRLS fit/);
     if (c.family !== 'gaussian') t.equal(checks.diagnostics.residualNormality.passed, null, 'no normality check outside the Gaussian family');
+    else {
+      // Gaussian family: Jarque–Bera on the Pearson residuals, here against the same statistic of R's residuals(type = "pearson").
+      const fromR = jarqueBera(c.pearsonResiduals);
+      t.ok(relativeError(checks.diagnostics.residualNormality.statistic, fromR.statistic!) < 1e-8, `${name}: Jarque–Bera on the Pearson residuals`);
+    }
+    t.ok(relativeError(checks.diagnostics.autocorrelation.statistic, durbinWatson(c.pearsonResiduals)) < 1e-8, `${name}: Durbin–Watson on R's Pearson residuals`);
   }
 });
 
