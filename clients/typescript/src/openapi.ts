@@ -2212,7 +2212,7 @@ export interface components {
         });
         /** @enum {string} */
         CriterionInput: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2";
-        /** @description A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows). */
+        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
         NestedTestInput: {
             smaller: string;
             larger: string;
@@ -2220,11 +2220,11 @@ export interface components {
             df: number;
             /** @description Denominator df of F: n − rank of the larger model. */
             residualDf: number;
-            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf). */
+            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf); for generalised linear models whose family estimates its dispersion (Gaussian, gamma, inverse Gaussian), ((D_s − D_l)/df) / φ̂ with φ̂ = Pearson χ²/residualDf of the larger model; null where the family fixes the dispersion (binomial, Poisson, negative binomial). */
             fStatistic: number | null;
             /** @description Upper tail of F(df, residualDf), via the regularised incomplete beta function. */
             fPValue: number | null;
-            /** @description Likelihood ratio 2(logL_l − logL_s). */
+            /** @description Likelihood ratio 2(logL_l − logL_s); for binomial and Poisson models the difference of their deviances. */
             lrStatistic: number | null;
             /** @description Upper tail of χ²(df), via the regularised incomplete gamma function. */
             lrPValue: number | null;
@@ -2272,6 +2272,11 @@ export interface components {
                 fn: "log" | "sqrt" | "boxcox";
                 lambda?: number;
             } | null;
+            /** @description The family and link of averaged generalised linear model coefficients (they are on that link scale; models of another family or link are excluded); null for least-squares coefficients. */
+            glm: {
+                family: string;
+                link: string;
+            } | null;
             /** @description Models whose coefficients were not averaged, and why. */
             excluded: {
                 name: string;
@@ -2294,7 +2299,35 @@ export interface components {
             } | null;
             notes: string[];
         };
-        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model's cautions (code assumption_check). */
+        /** @description Overdispersion (Pearson χ²/df) and the standardised deviance residuals of a generalised linear model; leverage and Cook's distance (influence) come from the design weighted by the final IRLS weights. A failed check is said in plain words among the model's cautions (code assumption_check). */
+        GlmChecksInput: {
+            overdispersion: {
+                pearsonChiSquare: number;
+                residualDf: number;
+                /** @description Pearson χ² / residual df: about 1 when the family's variance holds. */
+                ratio: number | null;
+                /** @description The upper 0.05 point of χ²(df)/df: a ratio above it is unlikely by chance under the family's variance. Null where not checked: families that estimate their dispersion (Gaussian, gamma, inverse Gaussian), a 0/1 binomial response, no residual df. */
+                threshold: number | null;
+                /** @description Pearson's goodness-of-fit test: upper tail of χ²(residual df) at Pearson χ² (large-sample). */
+                pValue: number | null;
+                passed: boolean | null;
+                note: string;
+            };
+            devianceResiduals: {
+                /** @description Largest |deviance residual| / √(φ (1 − h)). */
+                maxAbsolute: number | null;
+                /** @description Data row (0-based, as sent) of the largest. */
+                maxAbsoluteRow: number | null;
+                /** @description Standardised deviance residuals beyond ±3 are flagged (common practice: rare for a standard normal). */
+                threshold: number;
+                largeRows: number;
+                /** @description Data rows (0-based, as sent) beyond the threshold. */
+                largeRowIndices: number[];
+                passed: boolean | null;
+                note: string;
+            };
+        };
+        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family's own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model's cautions (code assumption_check). */
         DiagnosticsInput: {
             available: boolean;
             reason: string | null;
@@ -2360,6 +2393,8 @@ export interface components {
                 highLeverageRowIndices: number[];
                 passed: boolean | null;
             };
+            /** @description Generalised linear models fitted here only: the checks that belong to the family. */
+            glm?: components["schemas"]["GlmChecksInput"];
         };
         SummaryWeightsInput: {
             /** @description Σ w over the rows. */
@@ -2601,7 +2636,7 @@ export interface components {
             confidenceLevel?: number;
             /** @description Confidence level of the coefficient and prediction intervals (default 0.95). */
             intervalLevel?: number;
-            /** @description Pairs to test besides those found automatically; each must be nested. */
+            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). */
             tests?: {
                 smaller: string;
                 larger: string;
@@ -2615,7 +2650,7 @@ export interface components {
              */
             average?: "all" | "confidenceSet";
             overdispersion?: components["schemas"]["OverdispersionOptionInput"];
-            /** @description New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). */
+            /** @description New rows (the columns the fitted candidates use, a GLM's offset column included; not the trials column) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). A generalised linear model predicts its mean (the success probability for the binomial) with the link-scale interval mapped by the inverse link. */
             predict?: {
                 columns: {
                     [key: string]: (number | string | null)[];
@@ -2714,10 +2749,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["CautionInput"][];
@@ -3160,10 +3195,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["CautionInput"][];
@@ -3375,7 +3410,7 @@ export interface components {
         });
         /** @enum {string} */
         Criterion: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2";
-        /** @description A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows). */
+        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
         NestedTest: {
             smaller: string;
             larger: string;
@@ -3383,11 +3418,11 @@ export interface components {
             df: number;
             /** @description Denominator df of F: n − rank of the larger model. */
             residualDf: number;
-            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf). */
+            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf); for generalised linear models whose family estimates its dispersion (Gaussian, gamma, inverse Gaussian), ((D_s − D_l)/df) / φ̂ with φ̂ = Pearson χ²/residualDf of the larger model; null where the family fixes the dispersion (binomial, Poisson, negative binomial). */
             fStatistic: number | null;
             /** @description Upper tail of F(df, residualDf), via the regularised incomplete beta function. */
             fPValue: number | null;
-            /** @description Likelihood ratio 2(logL_l − logL_s). */
+            /** @description Likelihood ratio 2(logL_l − logL_s); for binomial and Poisson models the difference of their deviances. */
             lrStatistic: number | null;
             /** @description Upper tail of χ²(df), via the regularised incomplete gamma function. */
             lrPValue: number | null;
@@ -3435,6 +3470,11 @@ export interface components {
                 fn: "log" | "sqrt" | "boxcox";
                 lambda?: number;
             } | null;
+            /** @description The family and link of averaged generalised linear model coefficients (they are on that link scale; models of another family or link are excluded); null for least-squares coefficients. */
+            glm: {
+                family: string;
+                link: string;
+            } | null;
             /** @description Models whose coefficients were not averaged, and why. */
             excluded: {
                 name: string;
@@ -3457,7 +3497,35 @@ export interface components {
             } | null;
             notes: string[];
         };
-        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model's cautions (code assumption_check). */
+        /** @description Overdispersion (Pearson χ²/df) and the standardised deviance residuals of a generalised linear model; leverage and Cook's distance (influence) come from the design weighted by the final IRLS weights. A failed check is said in plain words among the model's cautions (code assumption_check). */
+        GlmChecks: {
+            overdispersion: {
+                pearsonChiSquare: number;
+                residualDf: number;
+                /** @description Pearson χ² / residual df: about 1 when the family's variance holds. */
+                ratio: number | null;
+                /** @description The upper 0.05 point of χ²(df)/df: a ratio above it is unlikely by chance under the family's variance. Null where not checked: families that estimate their dispersion (Gaussian, gamma, inverse Gaussian), a 0/1 binomial response, no residual df. */
+                threshold: number | null;
+                /** @description Pearson's goodness-of-fit test: upper tail of χ²(residual df) at Pearson χ² (large-sample). */
+                pValue: number | null;
+                passed: boolean | null;
+                note: string;
+            };
+            devianceResiduals: {
+                /** @description Largest |deviance residual| / √(φ (1 − h)). */
+                maxAbsolute: number | null;
+                /** @description Data row (0-based, as sent) of the largest. */
+                maxAbsoluteRow: number | null;
+                /** @description Standardised deviance residuals beyond ±3 are flagged (common practice: rare for a standard normal). */
+                threshold: number;
+                largeRows: number;
+                /** @description Data rows (0-based, as sent) beyond the threshold. */
+                largeRowIndices: number[];
+                passed: boolean | null;
+                note: string;
+            };
+        };
+        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family's own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model's cautions (code assumption_check). */
         Diagnostics: {
             available: boolean;
             reason: string | null;
@@ -3523,6 +3591,8 @@ export interface components {
                 highLeverageRowIndices: number[];
                 passed: boolean | null;
             };
+            /** @description Generalised linear models fitted here only: the checks that belong to the family. */
+            glm?: components["schemas"]["GlmChecks"];
         };
         SummaryWeights: {
             /** @description Σ w over the rows. */
@@ -3767,7 +3837,7 @@ export interface components {
             confidenceLevel?: number;
             /** @description Confidence level of the coefficient and prediction intervals (default 0.95). */
             intervalLevel?: number;
-            /** @description Pairs to test besides those found automatically; each must be nested. */
+            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). */
             tests?: {
                 smaller: string;
                 larger: string;
@@ -3781,7 +3851,7 @@ export interface components {
              */
             average: "all" | "confidenceSet";
             overdispersion?: components["schemas"]["OverdispersionOption"];
-            /** @description New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). */
+            /** @description New rows (the columns the fitted candidates use, a GLM's offset column included; not the trials column) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). A generalised linear model predicts its mean (the success probability for the binomial) with the link-scale interval mapped by the inverse link. */
             predict?: {
                 columns: {
                     [key: string]: (number | string | null)[];
@@ -3880,10 +3950,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["Caution"][];
@@ -4326,10 +4396,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["Caution"][];

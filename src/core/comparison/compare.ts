@@ -76,6 +76,19 @@ function candidateColumns(c: CandidateInput): string[] {
   return [];
 }
 
+/** Trials columns no candidate also reads as a term or offset: prediction rows need not carry them. */
+function trialsOnlyColumns(input: ComparisonInput): Set<string> {
+  const out = new Set(input.candidates.flatMap((c) => ((c.form === 'glm' || c.form === 'fitted') && c.family === 'binomial' && c.trials ? [c.trials] : [])));
+  if (out.size === 0 || !input.columns) return out;
+  for (const c of input.candidates) {
+    const read = c.form === 'expression' ? expressionColumnsUsed(c, input.columns)
+      : c.form === 'glm' ? [...columnsUsedBy(c.terms), ...(c.offset ? [c.offset] : [])]
+        : c.form === 'fitted' ? [] : candidateColumns(c);
+    for (const column of read) out.delete(column);
+  }
+  return out;
+}
+
 type Rows = { ctx: ScoringContext; dropped: number; used: string[]; missingWeights: number; zeroWeights: number };
 
 /** The rows, response and weights every candidate is scored on. */
@@ -153,10 +166,12 @@ export function compareModels(
   if (quasi && 'code' in quasi) return { issues: [quasi] };
   if (quasi) quasi.values.forEach((v, i) => Object.assign(models[i], { qaic: v.qaic, qaicc: v.qaicc }));
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
+  const trialsColumns = trialsOnlyColumns(input);
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
-    // The status column decides rows but is no term: prediction rows need not carry it.
-    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status),
+    // The status and trials columns decide rows and likelihoods but are no terms: prediction rows need not carry them
+    // (a binomial predicts the success probability per trial).
+    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status && !trialsColumns.has(c)),
     scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;

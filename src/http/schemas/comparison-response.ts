@@ -63,7 +63,7 @@ export const ModelResult = z
     predictions: z.array(Prediction).nullable(),
     predictionScale: z
       .strictObject({
-        backTransform: z.enum(['none', 'median']).meta({ description: 'none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.' }),
+        backTransform: z.enum(['none', 'median', 'inverseLink']).meta({ description: 'none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model\'s mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.' }),
         description: z.string(),
       })
       .nullable()

@@ -1,7 +1,8 @@
 // After the ranking: nested-model tests, leave-one-out error and its ranking,
 // assumption checks, predictions and model averaging — the numbers a
 // practitioner needs once the criteria have spoken.
-import { nestedTests as findNestedTests, type NestedTest } from '../../inference/nested.ts';
+import type { NestedTest } from '../../inference/nested.ts';
+import { testNestingOffers } from '../../inference/nesting-offers.ts';
 import { rankByLeaveOneOut } from '../../loo.ts';
 import { issue, type Issue } from '../../issues.ts';
 import type { CriterionName } from '../../scoring/criteria.ts';
@@ -85,7 +86,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   }
   if (issues.length > 0) return { issues };
 
-  const nested = findNestedTests(
+  const nested = testNestingOffers(
     scored.flatMap((m) => (m.capabilities.nested ? [m.capabilities.nested(input.sample)] : [])),
     options.tests ?? [],
   );
