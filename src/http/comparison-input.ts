@@ -51,6 +51,7 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     confidenceLevel: body.options.confidenceLevel,
     intervalLevel: body.options.intervalLevel,
     expectedFingerprint: body.datasetFingerprint,
+    trials: body.trials ?? null,
     censoring: body.censoring ?? null,
     percentiles: body.options.percentiles,
     extras: {

@@ -23,6 +23,7 @@ import { checksCaution, comparisonCautions, type Caution } from '../scoring/caut
 import { conventions, type Conventions } from './conventions.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 import { averagingCautions } from './extras/averaging.ts';
+import { trialsUse } from './trials-use.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 import type { CensoringColumns } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
@@ -45,6 +46,8 @@ export interface ComparisonInput {
   /** Confidence level of coefficient and prediction intervals (default 0.95). */
   intervalLevel?: number;
   expectedFingerprint?: string;
+  /** The request-level trials column, read by binomial candidates (each carries it too). */
+  trials?: string | null;
   /** Request-level censoring: the status column and the upper column of interval rows. */
   censoring?: CensoringColumns | null;
   /** options.percentiles, read by lifetime models. */
@@ -119,6 +122,9 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
 export function compareModels(
   input: ComparisonInput,
 ): { result: ComparisonOutcome } | { issues: Issue[] } {
+  // Before any row is read or model fitted: a trials column nobody reads is a request to fix.
+  const trials = trialsUse(input.trials, input.candidates);
+  if ('issue' in trials) return { issues: [trials.issue] };
   const issues: Issue[] = [];
   const scoring = scoringRows(input, issues);
   if (!scoring) return { issues };
@@ -191,6 +197,7 @@ export function compareModels(
         ...averagingCautions(extras.averaged, rankings[choice.rankBy] ?? []),
         ...lifetimeCautions(input.candidates),
         ...unscaledRankingCaution(quasi, choice.rankBy),
+        ...trials.cautions,
       ],
     },
   };
