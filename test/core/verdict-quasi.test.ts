@@ -8,6 +8,7 @@ import { rankModels } from '../../src/core/scoring/ranking.ts';
 import { verdict } from '../../src/core/scoring/verdict.ts';
 import { chooseRankBy, DEFAULT_POLICY, deltaBand } from '../../src/core/scoring/policy.ts';
 import { isQuasiCriterion, RANKING_CRITERIA } from '../../src/core/scoring/criteria.ts';
+import { searchRankBy } from '../../src/core/search/report.ts';
 
 function ranking(values: Record<string, number>, direction: 'smaller' | 'larger' = 'smaller') {
   return rankModels(Object.entries(values).map(([name, value]) => ({ name, value })), { direction, weighted: direction === 'smaller' });
@@ -75,4 +76,11 @@ t.test('rankBy: QAIC from a policy needs a ĉ; AIC/QAIC switch to AICc/QAICc on 
   const aicPolicy = { ...DEFAULT_POLICY, name: 'p', rankBy: 'aic' as const };
   t.equal(chooseRankBy(undefined, aicPolicy, 10, false).reason, 'policy "p" ranks by AIC, switched to AICc because n/k = 10.0 is below 40');
   t.same(chooseRankBy('qaic', DEFAULT_POLICY, 5, true), { rankBy: 'qaic', reason: 'named by the request' });
+});
+
+t.test('a search under a QAIC policy ranks by AIC or AICc: searches have no ĉ and keep their own criteria', async (t) => {
+  const policy = { ...DEFAULT_POLICY, name: 'kiln-counts', rankBy: 'qaicc' as const };
+  const choice = searchRankBy(undefined, policy, 80);
+  t.equal(choice.rankBy, 'aicc');
+  t.match(choice.reason, /ranks by QAICc, which needs ĉ/);
 });

@@ -56,11 +56,11 @@ t.test('trials with a binomial candidate beside a Poisson: both ranked, the Pois
 t.test('a wrong-typed family, link, offset or distribution is named at its field', async (t) => {
   const { app } = await buildTestApp(t);
   const cases: [Record<string, unknown>, string, RegExp][] = [
-    [{ name: 'm', terms: ['current'], family: 7 }, 'candidates/0/family', /^family must be one of gaussian, binomial, poisson, negativeBinomial, gamma, inverseGaussian$/],
-    [{ name: 'm', terms: ['current'], family: 'poisson', link: 'logt' }, 'candidates/0/link', /^link must be one of identity, log, logit/],
+    [{ name: 'm', terms: ['current'], family: 7 }, 'candidates/0/family', /^family must be one of "gaussian", "binomial", "poisson", "negativeBinomial", "gamma", "inverseGaussian"$/],
+    [{ name: 'm', terms: ['current'], family: 'poisson', link: 'logt' }, 'candidates/0/link', /^link must be one of "identity", "log", "logit"/],
     [{ name: 'm', terms: ['current'], family: 'poisson', offset: 2 }, 'candidates/0/offset', /^offset names a numeric column of data\.columns \(its name as a string/],
-    [{ name: 'm', distribution: 3 }, 'candidates/0/distribution', /^distribution must be one of exponential, weibull, lognormal/],
-    [{ name: 'm', distribution: 'weibul' }, 'candidates/0/distribution', /^distribution must be one of exponential, weibull/],
+    [{ name: 'm', distribution: 3 }, 'candidates/0/distribution', /^distribution must be one of "exponential", "weibull", "lognormal"/],
+    [{ name: 'm', distribution: 'weibul' }, 'candidates/0/distribution', /^distribution must be one of "exponential", "weibull"/],
     [{ name: 'm', family: 7, fitted: [1, 2], parameters: 2 }, 'candidates/0/family', /^family must be one of/],
   ];
   for (const [candidate, path, message] of cases) {

@@ -10,7 +10,7 @@ import { FAMILY_NAMES, GLM_CONVENTIONS, LINK_NAMES } from '../../core/models/glm
 // Each field says what it takes when given something else ({ "family": 7 }):
 // validation.ts resolves the candidate union to the form the caller meant,
 // so these are the words the caller reads.
-const oneOf = (field: string, names: readonly string[]) => `${field} must be one of ${names.join(', ')}`;
+const oneOf = (field: string, names: readonly string[]) => `${field} must be one of ${names.map((n) => JSON.stringify(n)).join(', ')}`;
 
 export const GlmFamily = z.enum(FAMILY_NAMES, { error: () => oneOf('family', FAMILY_NAMES) }).meta({
   id: 'GlmFamily',

@@ -7,7 +7,7 @@ import { Convergence, DistributionParameters } from './model-kind-fields.ts';
 import { CENSORING_STATUSES } from '../../core/models/lifetime/censoring.ts';
 import { DISTRIBUTION_NAMES } from '../../core/models/lifetime/distributions.ts';
 
-const distributionWords = `distribution must be one of ${DISTRIBUTION_NAMES.join(', ')}`;
+const distributionWords = `distribution must be one of ${DISTRIBUTION_NAMES.map((n) => JSON.stringify(n)).join(', ')}`;
 
 export const LifetimeCandidate = z
   .strictObject({
