@@ -108,6 +108,14 @@ t.test('rankBy qaic or qaicc without options.overdispersion: 422 naming the fiel
   }
 });
 
+t.test('rankBy qaic with data.summary: refused the same way (a summary carries no counts to estimate ĉ from)', async (t) => {
+  const { app } = await buildTestApp(t);
+  const summary = { rows: 5, columns: ['x', 'y'], means: [3, -0.2], centredCrossProducts: [[10, 7.5], [7.5, 6.8]] };
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: { data: { summary }, response: 'y', candidates: [{ name: 'line', terms: ['x'] }], options: { rankBy: 'qaic' } } });
+  t.equal(res.statusCode, 422, res.body.slice(0, 300));
+  t.same(res.json().errors.map((e: { code: string; path: string }) => [e.code, e.path]), [['rank_by_needs_overdispersion', 'options/rankBy']]);
+});
+
 t.test('a policy ranking by QAIC: QAIC with a ĉ, AIC (or AICc on a small sample) without one', async (t) => {
   const policy = activePolicy({ ...DEFAULT_POLICY, name: 'kiln-counts', rankBy: 'qaic', preferAiccBelowRatio: 10 }, 'test');
   const { app } = await buildTestApp(t, {}, { policy });

@@ -89,11 +89,11 @@ export function chooseRankBy(
   if (requested) return { rankBy: requested, reason: 'named by the request' };
   const named = JSON.stringify(policy.name);
   let rankBy = policy.rankBy;
-  let reason = `the default of policy ${named}`;
+  let fallback: string | null = null;
   if ((rankBy === 'qaic' || rankBy === 'qaicc') && !hasCHat) {
     const label = rankingCriterionInfo(rankBy).label;
     rankBy = UNSCALED[rankBy];
-    reason = `policy ${named} ranks by ${label}, which needs ĉ (options.overdispersion); without one the ranking uses ${rankingCriterionInfo(rankBy).label}, what ${label} is at ĉ = 1`;
+    fallback = `policy ${named} ranks by ${label}, which needs ĉ (options.overdispersion); without one the ranking uses ${rankingCriterionInfo(rankBy).label}, what ${label} is at ĉ = 1`;
   }
   const ratio = policy.preferAiccBelowRatio;
   const smaller = SMALL_SAMPLE[rankBy];
@@ -103,8 +103,8 @@ export function chooseRankBy(
     const switched = `switched to ${to} because n/k = ${smallestRatio.toFixed(1)} is below ${ratio}`;
     return {
       rankBy: smaller,
-      reason: reason.startsWith('the default') ? `policy ${named} ranks by ${from}, ${switched}` : `${reason}, ${switched}`,
+      reason: fallback === null ? `policy ${named} ranks by ${from}, ${switched}` : `${fallback}, ${switched}`,
     };
   }
-  return { rankBy, reason };
+  return { rankBy, reason: fallback ?? `the default of policy ${named}` };
 }
