@@ -996,8 +996,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -1141,8 +1141,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -1284,8 +1284,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -1427,8 +1427,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -2210,8 +2210,11 @@ export interface components {
             of: string;
             reference?: string;
         });
-        /** @enum {string} */
-        CriterionInput: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2";
+        /**
+         * @description A ranking criterion. qaic and qaicc exist only in a comparison with options.overdispersion (they divide the log-likelihood by ĉ); naming them without it is refused (422).
+         * @enum {string}
+         */
+        CriterionInput: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc";
         /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
         NestedTestInput: {
             smaller: string;
@@ -2630,7 +2633,7 @@ export interface components {
         /** @description One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here). */
         CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"] | components["schemas"]["LifetimeCandidateInput"] | components["schemas"]["NonlinearCandidateInput"];
         ComparisonOptionsInput: {
-            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
+            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise; a policy ranking by qaic or qaicc ranks a comparison without options.overdispersion by aic or aicc). qaic and qaicc need options.overdispersion (422 without it); the verdict then chooses by QAIC or QAICc, and averages by their weights. May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["CriterionInput"];
             /** @description Cumulative weight of the confidence set; default from the team policy (0.95). */
             confidenceLevel?: number;
@@ -2664,7 +2667,7 @@ export interface components {
             response?: string;
             /** @description The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out). */
             weights?: string | null;
-            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
             trials?: string;
             censoring?: components["schemas"]["CensoringInput"];
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
@@ -2827,6 +2830,7 @@ export interface components {
             band: string | null;
         };
         VerdictInput: {
+            /** @description True when every criterion that ranked a model picks the same one; with options.overdispersion QAIC and QAICc count too, so a model that wins only on the unscaled likelihood does not make the criteria agree. */
             agree: boolean;
             best: {
                 aicc: string | null;
@@ -2834,6 +2838,10 @@ export interface components {
                 bic: string | null;
                 hqc: string | null;
                 adjustedR2: string | null;
+                /** @description With options.overdispersion only. */
+                qaic?: string | null;
+                /** @description With options.overdispersion only. */
+                qaicc?: string | null;
             };
             rankBy: components["schemas"]["CriterionInput"];
             /** @description The best model under rankBy. */
@@ -3408,8 +3416,11 @@ export interface components {
             of: string;
             reference?: string;
         });
-        /** @enum {string} */
-        Criterion: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2";
+        /**
+         * @description A ranking criterion. qaic and qaicc exist only in a comparison with options.overdispersion (they divide the log-likelihood by ĉ); naming them without it is refused (422).
+         * @enum {string}
+         */
+        Criterion: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc";
         /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
         NestedTest: {
             smaller: string;
@@ -3831,7 +3842,7 @@ export interface components {
         /** @description One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here). */
         Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"] | components["schemas"]["LifetimeCandidate"] | components["schemas"]["NonlinearCandidate"];
         ComparisonOptions: {
-            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
+            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise; a policy ranking by qaic or qaicc ranks a comparison without options.overdispersion by aic or aicc). qaic and qaicc need options.overdispersion (422 without it); the verdict then chooses by QAIC or QAICc, and averages by their weights. May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["Criterion"];
             /** @description Cumulative weight of the confidence set; default from the team policy (0.95). */
             confidenceLevel?: number;
@@ -3865,7 +3876,7 @@ export interface components {
             response?: string;
             /** @description The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out). */
             weights?: string | null;
-            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
             trials?: string;
             censoring?: components["schemas"]["Censoring"];
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
@@ -4028,6 +4039,7 @@ export interface components {
             band: string | null;
         };
         Verdict: {
+            /** @description True when every criterion that ranked a model picks the same one; with options.overdispersion QAIC and QAICc count too, so a model that wins only on the unscaled likelihood does not make the criteria agree. */
             agree: boolean;
             best: {
                 aicc: string | null;
@@ -4035,6 +4047,10 @@ export interface components {
                 bic: string | null;
                 hqc: string | null;
                 adjustedR2: string | null;
+                /** @description With options.overdispersion only. */
+                qaic?: string | null;
+                /** @description With options.overdispersion only. */
+                qaicc?: string | null;
             };
             rankBy: components["schemas"]["Criterion"];
             /** @description The best model under rankBy. */

@@ -20,7 +20,7 @@
 // design/column-identity.ts), so differently coded dummies are never pooled.
 import { averageModels, averagePredictions, type AveragedPrediction, type ModelAverage } from '../../averaging/index.ts';
 import { columnQualifier, keyReferences } from '../../design/index.ts';
-import type { CriterionName } from '../../scoring/criteria.ts';
+import type { RankingCriterion } from '../../scoring/criteria.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 import type { BandedEntry } from '../../scoring/rankings.ts';
 import type { ModelResult } from '../../models/model-result.ts';
@@ -29,7 +29,7 @@ import type { Caution } from '../../scoring/cautions.ts';
 import { transformLabel } from '../../models/response-transform.ts';
 
 export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
-  criterion: CriterionName;
+  criterion: RankingCriterion;
   over: 'all' | 'confidenceSet';
   /** The scale of the averaged coefficients: null for the response as sent. */
   responseTransform: ResponseTransformSpec | null;
@@ -47,7 +47,7 @@ export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
 export interface AveragingInput {
   models: readonly ModelResult[];
   ranking: readonly BandedEntry[];
-  criterion: CriterionName;
+  criterion: RankingCriterion;
   over: 'all' | 'confidenceSet';
   /** Each predicting model's predictions on its own scale, by name. */
   predictions: ReadonlyMap<string, readonly ScaledPrediction[]>;

@@ -5,7 +5,7 @@ import type { NestedTest } from '../../inference/nested.ts';
 import { testNestingOffers } from '../../inference/nesting-offers.ts';
 import { rankByLeaveOneOut } from '../../loo.ts';
 import { issue, type Issue } from '../../issues.ts';
-import type { CriterionName } from '../../scoring/criteria.ts';
+import type { CriterionName, RankingCriterion } from '../../scoring/criteria.ts';
 import type { RankingEntry } from '../../scoring/ranking.ts';
 import type { Columns } from '../../types.ts';
 import type { ModelResult } from '../../models/model-result.ts';
@@ -40,8 +40,9 @@ export interface ExtrasInput {
   /** Every model in candidate order; `models` are their reports. */
   scored: readonly ScoredModel[];
   models: ModelResult[];
-  rankings: Record<CriterionName, BandedEntry[]>;
-  rankBy: CriterionName;
+  /** With QAIC and QAICc when the comparison has a ĉ. */
+  rankings: Record<CriterionName, BandedEntry[]> & Partial<Record<RankingCriterion, BandedEntry[]>>;
+  rankBy: RankingCriterion;
   options: ExtrasOptions;
 }
 
@@ -99,7 +100,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
     };
   }
   const loo = rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: m.looRmse ?? null })));
-  const ranking = input.rankings[input.rankBy];
+  const ranking = input.rankings[input.rankBy] ?? [];
   const averaged = ranking.some((e) => e.weight !== null)
     ? averagedModels({
       models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: columnKeys(scored), intervalLevel: input.intervalLevel,
