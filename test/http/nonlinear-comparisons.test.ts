@@ -184,6 +184,12 @@ t.test('what needs the data is a 422 naming the candidate', async (t) => {
   t.match(bound.errors[0], { path: 'candidates/0/start/k', code: 'start_outside_bounds' });
   const unused = await refused(t, kilnRequest({ ...decay, start: { ...decay.start, eq: 5 } }), 422);
   t.match(unused.errors[0], { path: 'candidates/0/start/eq', code: 'parameter_unused' });
+  // A parameter named like a function: the name is the fault (422 at start/exp), not the syntax it breaks (400).
+  const named = await refused(t, kilnRequest({ name: 'named-exp', expression: 'exp*hours', start: { exp: 1 } }), 422);
+  t.match(named.errors, [{ path: 'candidates/0/start/exp', code: 'parameter_name_invalid', parameter: 'exp' }]);
+  t.match(named.errors[0].message, /function or constant/);
+  const namedInStarts = await refused(t, kilnRequest({ name: 'named-pi', expression: 'pi*hours + b', starts: [{ pi: 1, b: 0 }] }), 422);
+  t.match(namedInStarts.errors[0], { path: 'candidates/0/starts/0/pi', code: 'parameter_name_invalid' });
 });
 
 t.test('a fit that does not converge, or runs out of its domain, is a 422 naming the candidate, never ranked', async (t) => {
