@@ -193,7 +193,7 @@ export const ComparisonOptions = z
     rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values.' }),
     confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
-    tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
+    tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested. A pair with a nonlinear (expression) candidate is taken as nested on the caller\'s word — expressions have no columns to compare — after checking the same sample, fewer parameters in the smaller and a larger model fitting at least as well; its reason says so.' }),
     percentiles: Percentiles.optional(),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
     overdispersion: OverdispersionOption.optional(),

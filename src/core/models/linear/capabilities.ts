@@ -25,6 +25,10 @@ export function leastSquaresCapabilities(
       return modelPredictions(model, built.design, weights, at.newWeights, at.intervalLevel, geometryOnce());
     },
     nested: (sample) => ({ name: model.result.name, keys: model.design.keys ?? null, fit: model.fit, sample: `${sample}|${JSON.stringify(candidate.response ?? null)}` }),
+    leastSquaresFacts: (sample) => ({
+      name: model.result.name, rss: model.fit.rss, meanParameters: model.fit.rank, observations: model.fit.observations,
+      sample: `${sample}|${JSON.stringify(candidate.response ?? null)}`, exactFit: model.fit.exactFit,
+    }),
     ...(model.design.keys ? { columnKeys: model.design.keys } : {}),
   };
 }
