@@ -9,6 +9,12 @@ import { readFileSync } from 'node:fs';
 import t, { type Test } from 'tap';
 import { buildTestApp } from '../helper.ts';
 
+// A nonlinear fit is priced at its iteration cap, which puts even a small one
+// above COMPUTE_INLINE_WORK (price-candidate.ts); these tests check numbers,
+// not where they are computed (limits/nonlinear-inline-and-pool does that), so
+// they compute on the main thread rather than start a worker pool per app.
+const ON_MAIN_THREAD = { computeInlineWork: 1e12 };
+
 const r = JSON.parse(readFileSync(new URL('../reference/nonlinear/r-nls.json', import.meta.url), 'utf8'));
 const mixed = r.mixedPairs;
 const candidates = [
@@ -30,7 +36,7 @@ interface Reference { smaller: string; larger: string; df: number; residualDf: n
 const references: Reference[] = [{ smaller: 'smaller', larger: 'larger', ...r.anova }, ...mixed.anova];
 
 async function post(t: Test, payload: object) {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   return app.inject({ method: 'POST', url: '/v1/comparisons', payload });
 }
 

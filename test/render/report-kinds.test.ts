@@ -93,7 +93,8 @@ t.test('life distributions: the distribution, its parameters, convergence, censo
 });
 
 t.test('a nonlinear mean function: its expression and how its starts converged, in words', async (t) => {
-  const { app } = await buildTestApp(t);
+  // Priced at the iteration cap, above COMPUTE_INLINE_WORK; computed on the main thread rather than a pool started for one request.
+  const { app } = await buildTestApp(t, { computeInlineWork: 1e12 });
   const r = JSON.parse(readFileSync(new URL('../reference/nonlinear/kiln-drying-r.json', import.meta.url), 'utf8'));
   const { body, page } = await postAndReport(t, app, {
     data: { columns: { hours: r.data.hours, moisture: r.data.moisture } }, response: 'moisture',
