@@ -7,11 +7,15 @@
 // the summaries route reads its body as a raw stream (no body schema to hang
 // an example on), and one place keeps every example in view.
 import { demoColumns, demoComparison } from '../demo-scenario.ts';
+import { soakComparison } from '../demo-soak.ts';
 
 /** Rows of the demo campaign in the examples: enough for every candidate, short enough to read. */
 const EXAMPLE_ROWS = 24;
 
 export const comparisonExample = demoComparison(EXAMPLE_ROWS);
+
+/** A candidate written as an expression (a mechanistic model) beside polynomials, from the demo's soak trial. */
+export const expressionComparisonExample = soakComparison();
 
 export const searchExample = {
   label: 'tile shrinkage: which kiln settings matter? (demo data)',
@@ -38,15 +42,20 @@ type Media = { schema?: unknown; example?: unknown; examples?: Record<string, { 
 type Operation = { requestBody?: { required?: boolean; description?: string; content: Record<string, Media> }; parameters?: { name: string; in: string; example?: unknown }[] };
 type Doc = { paths?: Record<string, Record<string, Operation>> };
 
-function jsonExample(operation: Operation | undefined, summary: string, value: unknown): void {
+function jsonExample(operation: Operation | undefined, summary: string, value: unknown, more: Record<string, { summary: string; value: unknown }> = {}): void {
   const media = operation?.requestBody?.content?.['application/json'];
-  if (media) media.examples = { demo: { summary, value } };
+  if (media) media.examples = { demo: { summary, value }, ...more };
 }
 
 /** The document with a worked example on every operation that takes a body. */
 export function attachExamples<T>(document: T): T {
   const paths = (document as Doc).paths ?? {};
-  jsonExample(paths['/v1/comparisons']?.post, 'Tile shrinkage: five candidate models on 24 firings (demo data)', comparisonExample);
+  jsonExample(paths['/v1/comparisons']?.post, 'Tile shrinkage: five candidate models on 24 firings (demo data)', comparisonExample, {
+    expression: {
+      summary: 'Tile shrinkage against soak time: a mechanistic approach to a plateau, written as an expression, beside two polynomials (demo data)',
+      value: expressionComparisonExample,
+    },
+  });
   jsonExample(paths['/v1/searches']?.post, 'Tile shrinkage: every subset of five kiln settings (demo data)', searchExample);
   const summaries = paths['/v1/summaries']?.post;
   if (summaries) {

@@ -62,7 +62,25 @@ export function nestedTestsSection(record: StoredComparisonView): Html | null {
         tag('td', {}, formatPValue(t.lrPValue)),
       ))),
     )),
+    nestedReasons(tests),
   );
+}
+
+/**
+ * What the record says of a test beyond its numbers — why a statistic is
+ * missing, which restriction a life-model test is of, or that a pair with an
+ * expression was taken as nested on the caller's word — once per distinct
+ * sentence, with the pairs it is said of.
+ */
+function nestedReasons(tests: NonNullable<StoredComparisonView['result']['nestedTests']>): Html | null {
+  const pairs = new Map<string, string[]>();
+  for (const t of tests) {
+    if (typeof t.reason !== 'string' || t.reason === '') continue;
+    pairs.set(t.reason, [...(pairs.get(t.reason) ?? []), `${t.smaller} inside ${t.larger}`]);
+  }
+  if (pairs.size === 0) return null;
+  return tag('ul', { class: 'note', 'data-section': 'nested-reasons' },
+    ...[...pairs].map(([reason, names]) => tag('li', {}, `${names.join(', ')}: ${reason}`)));
 }
 
 /** Which models the coefficients were averaged over, and their weight, when the record says. */

@@ -10,6 +10,7 @@ import { whichModels } from './report-extras.ts';
 import { breakableName, table, type Column } from './report-table.ts';
 import { rankingTable } from './report-tables.ts';
 import type { ConvergenceView, ModelView, StoredComparisonView } from './types.ts';
+import { expressionInWords, nonlinearConvergenceInWords } from './report-nonlinear.ts';
 
 const fittedElsewhere = new Set(['residuals', 'rss', 'logLikelihood']);
 
@@ -23,7 +24,7 @@ function hasKindFields(m: ModelView): boolean {
 /** The kind of a model in a few words. */
 export function kindInWords(m: ModelView): string {
   if (m.source === 'lifetime' || typeof m.distribution === 'string') return `life distribution: ${m.distribution ?? 'n/a'}`;
-  if (typeof m.expression === 'string') return `nonlinear: ${m.expression}`;
+  if (typeof m.expression === 'string') return expressionInWords(m);
   if (typeof m.family === 'string') {
     const link = typeof m.link === 'string' ? `, ${m.link} link` : '';
     return `generalised linear: ${m.family}${link}${m.source === 'fitted' ? ', means fitted elsewhere' : ''}`;
@@ -49,6 +50,8 @@ function plural(count: number, word: string): string {
 /** "converged after 6 iterations", with what else the record says in a few words. */
 export function convergenceInWords(c: ConvergenceView | null | undefined): string {
   if (c === null || c === undefined) return '';
+  const nonlinear = nonlinearConvergenceInWords(c);
+  if (nonlinear !== null) return nonlinear;
   const iterations = finiteOrNull(c.iterations);
   const after = iterations === null ? '' : ` after ${plural(iterations, 'iteration')}`;
   const extras: string[] = [];

@@ -3,8 +3,14 @@
 import t from 'tap';
 import { buildTestApp } from '../helper.ts';
 
+// A nonlinear fit is priced at its iteration cap, which puts even a small one
+// above COMPUTE_INLINE_WORK (price-candidate.ts); these tests check numbers,
+// not where they are computed (limits/nonlinear-inline-and-pool does that), so
+// they compute on the main thread rather than start a worker pool per app.
+const ON_MAIN_THREAD = { computeInlineWork: 1e12 };
+
 t.test('a nonlinear model beside a linear one: left out of the coefficients as a nonlinear model', async (t) => {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
   const y = x.map((v, i) => 2 + 0.5 * v + ((i * 7) % 5) / 10);
   const res = await app.inject({

@@ -9,7 +9,8 @@ type Media = { examples?: Record<string, { value: unknown }> };
 type Operation = { description?: string; requestBody?: { content: Record<string, Media> }; parameters?: { name: string; example?: unknown }[] };
 
 async function servedDocument(t: Parameters<typeof buildTestApp>[0]) {
-  const built = await buildTestApp(t);
+  // The expression example is priced above COMPUTE_INLINE_WORK (a nonlinear fit at its iteration cap); the answers, not their place, are checked here.
+  const built = await buildTestApp(t, { computeInlineWork: 1e12 });
   const doc = (await built.app.inject({ method: 'GET', url: '/openapi.json' })).json() as { paths: Record<string, Record<string, Operation>> };
   return { ...built, doc };
 }
@@ -37,6 +38,27 @@ t.test('the worked examples of POST /v1/comparisons and POST /v1/searches succee
   const comparison = doc.paths['/v1/comparisons'].post.requestBody!.content['application/json'].examples!.demo.value as { candidates: { name: string }[]; data: { columns: Record<string, unknown[]> } };
   t.same(comparison.candidates.map((c) => c.name), ['temperature', 'curved-temperature', 'curve+moisture+kiln', 'curve+moisture+kiln+hold', 'everything-by-kiln'], 'the demo scenario\'s candidates');
   t.equal(comparison.data.columns.shrinkage.length, 24);
+});
+
+t.test('the expression example: a mechanistic model ranked beside polynomials, predictions averaged across both kinds', async (t) => {
+  const { app, doc } = await servedDocument(t);
+  const example = doc.paths['/v1/comparisons'].post.requestBody!.content['application/json'].examples!.expression;
+  t.ok(example, 'POST /v1/comparisons has an expression example');
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: example.value as object });
+  t.equal(res.statusCode, 200, res.body.slice(0, 300));
+  const body = res.json();
+  const mechanistic = body.models.find((m: { name: string }) => m.name === 'approach-to-plateau');
+  t.equal(mechanistic.expression, 'base + gain*(1 - exp(-rate*holdMinutes))');
+  t.equal(mechanistic.convergence.converged, true);
+  t.same(mechanistic.coefficients.map((c: { term: string }) => c.term), ['base', 'gain', 'rate'], 'one coefficient per parameter');
+  t.equal(mechanistic.parameters, 4, 'k = three parameters + the error variance');
+  t.ok(body.conventions.nonlinear, 'the nonlinear convention is stated');
+  // The soak data are drawn from this very form (src/demo-soak.ts), so the criteria should find it; they rank, they do not validate.
+  t.equal(body.rankings.aicc[0].name, 'approach-to-plateau', 'the generating form ranks first by AICc');
+  const rate = mechanistic.coefficients[2];
+  t.ok(rate.lower < 0.12 && 0.12 < rate.upper, 'the interval for the rate holds the rate the data were drawn with (0.12 per minute)');
+  t.equal(body.averaged.predictions.length, 3, 'averaged across the nonlinear and the linear models');
+  t.ok(body.cautions.some((c: { message: string }) => /do not validate/i.test(c.message)), 'the answer says that criteria rank, not validate');
 });
 
 t.test('the worked examples of POST /v1/summaries succeed as NDJSON and as CSV, with the same summary', async (t) => {

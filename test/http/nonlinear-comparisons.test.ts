@@ -11,6 +11,12 @@ import { buildTestApp } from '../helper.ts';
 import { loadNls, nlsExpression, type StartKey } from '../reference/nist-nls/strd-nls.ts';
 import { lre } from '../reference/nist/strd.ts';
 
+// A nonlinear fit is priced at its iteration cap, which puts even a small one
+// above COMPUTE_INLINE_WORK (price-candidate.ts); these tests check numbers,
+// not where they are computed (limits/nonlinear-inline-and-pool does that), so
+// they compute on the main thread rather than start a worker pool per app.
+const ON_MAIN_THREAD = { computeInlineWork: 1e12 };
+
 const r = JSON.parse(readFileSync(new URL('../reference/nonlinear/kiln-drying-r.json', import.meta.url), 'utf8'));
 const kiln = { hours: r.data.hours as number[], moisture: r.data.moisture as number[], w: r.data.w as number[] };
 const equilibrium = { name: 'equilibrium', expression: 'eq + (m0 - eq)*exp(-k*hours)', start: { eq: 5, m0: 40, k: 0.03 } };
@@ -35,7 +41,7 @@ function nistRequest(file: string, start: StartKey | 'both') {
 // difficulty (MGH09, Thurber, BoxBOD), and MGH10 from both NIST starts at once.
 for (const [file, start] of [['misra1a', 'start1'], ['nelson', 'start2'], ['mgh09', 'start1'], ['thurber', 'start2'], ['boxbod', 'start1'], ['mgh10', 'both']] as const) {
   t.test(`NIST StRD ${file} (${start}) through POST /v1/comparisons`, async (t) => {
-    const { app } = await buildTestApp(t);
+    const { app } = await buildTestApp(t, ON_MAIN_THREAD);
     const { ds, payload } = nistRequest(file, start);
     const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload });
     t.equal(res.statusCode, 200, res.statusCode === 200 ? 'answered' : res.body.slice(0, 400));
@@ -69,7 +75,7 @@ for (const [file, start] of [['misra1a', 'start1'], ['nelson', 'start2'], ['mgh0
 }
 
 t.test('a mechanistic model ranks beside a polynomial on one scale (R: nls and lm)', async (t) => {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   const res = await app.inject({
     method: 'POST', url: '/v1/comparisons',
     payload: {
@@ -108,7 +114,7 @@ t.test('a mechanistic model ranks beside a polynomial on one scale (R: nls and l
 });
 
 t.test('weights enter a nonlinear likelihood as a linear one\'s (R: nls and lm with weights)', async (t) => {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   const res = await app.inject({
     method: 'POST', url: '/v1/comparisons',
     payload: { data: { columns: kiln }, response: 'moisture', weights: 'w', candidates: [equilibrium, quadratic] },
@@ -121,7 +127,7 @@ t.test('weights enter a nonlinear likelihood as a linear one\'s (R: nls and lm w
 });
 
 t.test('a nonlinear model predicts with delta-method standard errors, averaged with a polynomial', async (t) => {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   const res = await app.inject({
     method: 'POST', url: '/v1/comparisons',
     payload: {
@@ -145,7 +151,7 @@ t.test('a nonlinear model predicts with delta-method standard errors, averaged w
 });
 
 async function refused(t: Test, payload: Record<string, unknown>, status: number) {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload });
   t.equal(res.statusCode, status, res.statusCode === status ? 'refused' : res.body.slice(0, 400));
   t.match(res.headers['content-type'], /application\/problem\+json/);
@@ -184,6 +190,12 @@ t.test('what needs the data is a 422 naming the candidate', async (t) => {
   t.match(bound.errors[0], { path: 'candidates/0/start/k', code: 'start_outside_bounds' });
   const unused = await refused(t, kilnRequest({ ...decay, start: { ...decay.start, eq: 5 } }), 422);
   t.match(unused.errors[0], { path: 'candidates/0/start/eq', code: 'parameter_unused' });
+  // A parameter named like a function: the name is the fault (422 at start/exp), not the syntax it breaks (400).
+  const named = await refused(t, kilnRequest({ name: 'named-exp', expression: 'exp*hours', start: { exp: 1 } }), 422);
+  t.match(named.errors, [{ path: 'candidates/0/start/exp', code: 'parameter_name_invalid', parameter: 'exp' }]);
+  t.match(named.errors[0].message, /function or constant/);
+  const namedInStarts = await refused(t, kilnRequest({ name: 'named-pi', expression: 'pi*hours + b', starts: [{ pi: 1, b: 0 }] }), 422);
+  t.match(namedInStarts.errors[0], { path: 'candidates/0/starts/0/pi', code: 'parameter_name_invalid' });
 });
 
 t.test('a fit that does not converge, or runs out of its domain, is a 422 naming the candidate, never ranked', async (t) => {
@@ -201,7 +213,7 @@ t.test('a fit that does not converge, or runs out of its domain, is a 422 naming
 });
 
 t.test('a nonlinear candidate needs rows: a summary is refused, and so is a request without data', async (t) => {
-  const { app } = await buildTestApp(t);
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
   const csv = ['hours,moisture', ...kiln.hours.map((h, i) => `${h},${kiln.moisture[i]}`)].join('\n');
   const folded = await app.inject({ method: 'POST', url: '/v1/summaries?columns=hours,moisture', headers: { 'content-type': 'text/csv' }, payload: csv });
   t.equal(folded.statusCode, 200, folded.body.slice(0, 200));
@@ -209,4 +221,27 @@ t.test('a nonlinear candidate needs rows: a summary is refused, and so is a requ
   t.match(body.errors[0], { path: 'candidates/0/expression', code: 'summary_rows_needed' });
   const none = await refused(t, { candidates: [equilibrium, { name: 'stated', logLikelihood: -40, parameters: 3, observations: 40 }] }, 422);
   t.match(none.errors[0], { path: 'candidates/0', code: 'data_required' });
+});
+
+t.test('beside linear, fitted-elsewhere and generalised linear candidates on one measure; a probability mass is refused', async (t) => {
+  const { app } = await buildTestApp(t, ON_MAIN_THREAD);
+  const columns = { hours: kiln.hours, moisture: kiln.moisture };
+  const gammaGlm = { name: 'gamma-log', terms: ['hours'], family: 'gamma', link: 'log' };
+  const res = await app.inject({
+    method: 'POST', url: '/v1/comparisons',
+    payload: { data: { columns }, response: 'moisture', candidates: [equilibrium, quadratic, gammaGlm, { name: 'kiln-log', rss: 120, parameters: 3, observations: kiln.hours.length }] },
+  });
+  t.equal(res.statusCode, 200, res.statusCode === 200 ? 'answered' : res.body.slice(0, 400));
+  const body = res.json();
+  t.same(body.rankings.aicc.map((e: { name: string }) => e.name).sort(), ['equilibrium', 'gamma-log', 'kiln-log', 'quadratic'], 'all four kinds ranked together');
+  for (const m of body.models) t.equal(m.aic, -2 * m.logLikelihood + 2 * m.parameters, `${m.name}: one AIC formula`);
+  // Counts would be a probability mass: not on the scale of a density, so not ranked beside it.
+  const counts = kiln.moisture.map((v) => Math.round(v));
+  const mixed = await app.inject({
+    method: 'POST', url: '/v1/comparisons',
+    payload: { data: { columns: { ...columns, counts } }, response: 'counts', candidates: [{ ...equilibrium, start: { eq: 5, m0: 40, k: 0.03 } }, { name: 'poisson', terms: ['hours'], family: 'poisson' }] },
+  });
+  t.equal(mixed.statusCode, 422, mixed.body.slice(0, 300));
+  t.match(mixed.json().errors[0].message, /equilibrium/);
+  t.match(mixed.json().errors[0].message, /poisson/);
 });

@@ -107,21 +107,33 @@ t.test('life distributions: the distribution, its parameters, convergence, censo
   t.equal(rowsOf(page, 'model-fit').length, 0, 'no table of residual sums for life models, which have none');
 });
 
-t.test('a nonlinear mean function: its expression and how its starts converged', async (t) => {
-  const { app } = await buildTestApp(t);
+t.test('a nonlinear mean function: its expression and how its starts converged, in words', async (t) => {
+  // Priced at the iteration cap, above COMPUTE_INLINE_WORK; computed on the main thread rather than a pool started for one request.
+  const { app } = await buildTestApp(t, { computeInlineWork: 1e12 });
   const r = JSON.parse(readFileSync(new URL('../reference/nonlinear/kiln-drying-r.json', import.meta.url), 'utf8'));
   const { body, page } = await postAndReport(t, app, {
     data: { columns: { hours: r.data.hours, moisture: r.data.moisture } }, response: 'moisture',
     candidates: [
-      { name: 'equilibrium', expression: 'eq + (m0 - eq)*exp(-k*hours)', start: { eq: 5, m0: 40, k: 0.03 } },
+      // Two starts: the second is far off (a rate ten times too large) and, converging or not, is reported beside the first.
+      { name: 'equilibrium', expression: 'eq + (m0 - eq)*exp(-k*hours)', starts: [{ eq: 5, m0: 40, k: 0.03 }, { eq: 5, m0: 40, k: 0.3 }] },
+      { name: 'decay', expression: 'm0*exp(-k*hours)', start: { m0: 40, k: 0.03 } },
       { name: 'quadratic', terms: ['hours', { kind: 'power', of: 'hours', degree: 2 }] },
     ],
+    options: { tests: [{ smaller: 'decay', larger: 'equilibrium' }] },
   });
   const kinds = rowsOf(page, 'model-kinds');
-  t.equal(kinds[0].cells[1], 'nonlinear: eq + (m0 - eq)*exp(-k*hours)');
-  t.equal(kinds[1].cells[1], 'least squares');
-  t.equal(kinds[0].cells[2], `converged after ${body.models[0].convergence.iterations} iterations`);
-  t.equal(kinds[1].cells[2], '', 'least squares has no iterations');
+  t.equal(kinds[0].cells[1], 'nonlinear in eq, m0, k: eq + (m0 - eq)*exp(-k*hours)', 'the expression with its parameters named');
+  t.equal(kinds[2].cells[1], 'least squares');
+  const c = body.models[0].convergence;
+  const words = kinds[0].cells[2];
+  t.match(words, new RegExp(`^converged after ${c.iterations} iterations: `), 'how many iterations');
+  const stopped = { reduction: /the sum of squares stopped falling/, step: /the step shrank/, gradient: /orthogonal/, rounding: /rounding allowed no further progress/ }[c.stoppedBy as 'reduction'];
+  t.match(words, stopped, `which test stopped it (${c.stoppedBy})`);
+  t.match(words, new RegExp(`${c.refinementSteps} refinement steps? in extended precision`));
+  t.match(words, /a further Gauss–Newton step would move the estimates by (nothing|.* of their size)/, 'the certificate');
+  t.match(words, new RegExp(`start ${c.start + 1} of 2 won; start ${2 - c.start} `), 'which start won, counted from 1, and what the other did');
+  t.equal(kinds[2].cells[2], '', 'least squares has no iterations');
+  t.match(page.text, /decay inside equilibrium: Nested on the caller's word/, 'a pair with an expression says it was taken on the caller\'s word');
 });
 
 t.test('a least-squares record has none of these parts', async (t) => {

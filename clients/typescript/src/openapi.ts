@@ -2215,11 +2215,11 @@ export interface components {
          * @enum {string}
          */
         CriterionInput: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc";
-        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
+        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials; for a pair with an expression, as the caller named it). */
         NestedTestInput: {
             smaller: string;
             larger: string;
-            /** @description Rank difference: numerator df of F and df of the χ² test. */
+            /** @description Rank difference (parameter difference for a nonlinear model): numerator df of F and df of the χ² test. */
             df: number;
             /** @description Denominator df of F: n − rank of the larger model. */
             residualDf: number;
@@ -2231,7 +2231,7 @@ export interface components {
             lrStatistic: number | null;
             /** @description Upper tail of χ²(df), via the regularised incomplete gamma function. */
             lrPValue: number | null;
-            /** @description Why statistics are null, when they are. */
+            /** @description Why statistics are null, when they are; for a pair with a nonlinear model, also that it was taken as nested on the caller's word (options.tests). */
             reason: string | null;
         };
         /** @description A prediction at a new row of options.predict.columns, on the response's original scale (conventions.predictions): the estimate, its standard error, an interval for the mean response and one for a new observation. */
@@ -2575,7 +2575,7 @@ export interface components {
             name: string;
             /** @description The mean function: numbers, + - * / ^ (right-associative, binding tighter than unary minus), unary minus, parentheses, the functions exp, log, log10, sqrt, abs, sin, cos, tan, atan (radians; log is natural) and pi; at most 2000 characters and 40 levels of nesting. */
             expression: string;
-            /** @description One start value per parameter; its keys name the parameters (every other name in the expression is a data column). */
+            /** @description One start value per parameter; its keys name the parameters (every other name in the expression is a data column). A key that is a function or constant of the grammar (exp, pi) is a 422 parameter_name_invalid at start/<key>, before the expression is read. */
             start?: {
                 [key: string]: number;
             };
@@ -2639,7 +2639,7 @@ export interface components {
             confidenceLevel?: number;
             /** @description Confidence level of the coefficient and prediction intervals (default 0.95). */
             intervalLevel?: number;
-            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). */
+            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). A pair with a nonlinear (expression) candidate is taken as nested on the caller's word — expressions have no columns to compare — after checking the same sample, fewer parameters in the smaller and a larger model fitting at least as well; its reason says so. */
             tests?: {
                 smaller: string;
                 larger: string;
@@ -3421,11 +3421,11 @@ export interface components {
          * @enum {string}
          */
         Criterion: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc";
-        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
+        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials; for a pair with an expression, as the caller named it). */
         NestedTest: {
             smaller: string;
             larger: string;
-            /** @description Rank difference: numerator df of F and df of the χ² test. */
+            /** @description Rank difference (parameter difference for a nonlinear model): numerator df of F and df of the χ² test. */
             df: number;
             /** @description Denominator df of F: n − rank of the larger model. */
             residualDf: number;
@@ -3437,7 +3437,7 @@ export interface components {
             lrStatistic: number | null;
             /** @description Upper tail of χ²(df), via the regularised incomplete gamma function. */
             lrPValue: number | null;
-            /** @description Why statistics are null, when they are. */
+            /** @description Why statistics are null, when they are; for a pair with a nonlinear model, also that it was taken as nested on the caller's word (options.tests). */
             reason: string | null;
         };
         /** @description A prediction at a new row of options.predict.columns, on the response's original scale (conventions.predictions): the estimate, its standard error, an interval for the mean response and one for a new observation. */
@@ -3784,7 +3784,7 @@ export interface components {
             name: string;
             /** @description The mean function: numbers, + - * / ^ (right-associative, binding tighter than unary minus), unary minus, parentheses, the functions exp, log, log10, sqrt, abs, sin, cos, tan, atan (radians; log is natural) and pi; at most 2000 characters and 40 levels of nesting. */
             expression: string;
-            /** @description One start value per parameter; its keys name the parameters (every other name in the expression is a data column). */
+            /** @description One start value per parameter; its keys name the parameters (every other name in the expression is a data column). A key that is a function or constant of the grammar (exp, pi) is a 422 parameter_name_invalid at start/<key>, before the expression is read. */
             start?: {
                 [key: string]: number;
             };
@@ -3848,7 +3848,7 @@ export interface components {
             confidenceLevel?: number;
             /** @description Confidence level of the coefficient and prediction intervals (default 0.95). */
             intervalLevel?: number;
-            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). */
+            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). A pair with a nonlinear (expression) candidate is taken as nested on the caller's word — expressions have no columns to compare — after checking the same sample, fewer parameters in the smaller and a larger model fitting at least as well; its reason says so. */
             tests?: {
                 smaller: string;
                 larger: string;

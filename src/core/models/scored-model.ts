@@ -6,6 +6,7 @@
 import type { ModelDiagnostics } from '../diagnostics/index.ts';
 import type { NestingOffer } from '../inference/nesting-offers.ts';
 import type { LifetimeNestingCandidate } from './lifetime/nested.ts';
+import type { LeastSquaresFacts } from './nonlinear/extra-sum-of-squares.ts';
 import type { PredictionWithIntervals, ScaledPrediction } from '../inference/prediction-intervals.ts';
 import type { Issue } from '../issues.ts';
 import type { Columns } from '../types.ts';
@@ -53,6 +54,8 @@ export interface ModelCapabilities {
    * response, weights and rows it was fitted to. Only models under the same rules are paired.
    */
   nested?: (sample: string) => NestingOffer;
+  /** A least-squares model's sums for an extra-sum-of-squares test of a pair the caller names as nested (linear or nonlinear). */
+  leastSquaresFacts?: (sample: string) => LeastSquaresFacts;
   /** What a likelihood-ratio test between life models needs (their own nesting rules: lifetime/nested.ts). */
   lifetimeNesting?: (sample: string) => LifetimeNestingCandidate;
   /** Identities of its coefficients' columns, for averaging coefficients across models. */

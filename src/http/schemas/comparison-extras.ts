@@ -9,15 +9,15 @@ export const NestedTest = z
   .strictObject({
     smaller: z.string(),
     larger: z.string(),
-    df: z.number().int().meta({ description: 'Rank difference: numerator df of F and df of the χ² test.' }),
+    df: z.number().int().meta({ description: 'Rank difference (parameter difference for a nonlinear model): numerator df of F and df of the χ² test.' }),
     residualDf: z.number().int().meta({ description: 'Denominator df of F: n − rank of the larger model.' }),
     fStatistic: n.meta({ description: 'Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf); for generalised linear models whose family estimates its dispersion (Gaussian, gamma, inverse Gaussian), ((D_s − D_l)/df) / φ̂ with φ̂ = Pearson χ²/residualDf of the larger model; null where the family fixes the dispersion (binomial, Poisson, negative binomial).' }),
     fPValue: n.meta({ description: 'Upper tail of F(df, residualDf), via the regularised incomplete beta function.' }),
     lrStatistic: n.meta({ description: 'Likelihood ratio 2(logL_l − logL_s); for binomial and Poisson models the difference of their deviances.' }),
     lrPValue: n.meta({ description: 'Upper tail of χ²(df), via the regularised incomplete gamma function.' }),
-    reason: z.string().nullable().meta({ description: 'Why statistics are null, when they are.' }),
+    reason: z.string().nullable().meta({ description: 'Why statistics are null, when they are; for a pair with a nonlinear model, also that it was taken as nested on the caller\'s word (options.tests).' }),
   })
-  .meta({ id: 'NestedTest', description: 'A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials).' });
+  .meta({ id: 'NestedTest', description: 'A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials; for a pair with an expression, as the caller named it).' });
 
 const predictionFields = {
   estimate: n.meta({ description: 'The predicted (median = mean, for a model of y itself) response at the row, on the response\'s original scale.' }),

@@ -5,12 +5,12 @@
 // data (a name that is no column, a fit that does not converge) is a 422
 // from the core.
 import { z } from 'zod';
-import { expressionIssue } from '../../core/models/nonlinear/candidate.ts';
+import { expressionIssue, isParameterName } from '../../core/models/nonlinear/candidate.ts';
 import { EXPRESSION_LIMITS, FUNCTIONS } from '../../core/models/nonlinear/expression/syntax.ts';
 import { FiniteNumber } from './common.ts';
 
 const StartVector = z.record(z.string().min(1).max(200), FiniteNumber).meta({
-  description: 'One start value per parameter; its keys name the parameters (every other name in the expression is a data column).',
+  description: 'One start value per parameter; its keys name the parameters (every other name in the expression is a data column). A key that is a function or constant of the grammar (exp, pi) is a 422 parameter_name_invalid at start/<key>, before the expression is read.',
 });
 
 /** The candidate's schema; the response transform's schema comes from the request's file, which imports this one. */
@@ -30,6 +30,11 @@ export const nonlinearCandidate = <T extends z.ZodType>(responseTransform: T) =>
     response: responseTransform.optional(),
   })
   .superRefine((c, ctx) => {
+    // A parameter named like a function or constant ("exp", "pi") can make the
+    // expression unreadable; that name is the fault, a 422 from the core
+    // (parameter_name_invalid, naming start/<name>), not a syntax error here.
+    const names = Object.keys(c.start ?? c.starts?.[0] ?? {});
+    if (!names.every(isParameterName)) return;
     const found = expressionIssue(c.expression, ['expression']);
     if (found) ctx.addIssue({ code: 'custom', path: ['expression'], message: found.message });
   })

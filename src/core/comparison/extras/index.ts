@@ -13,6 +13,7 @@ import type { BandedEntry } from '../../scoring/rankings.ts';
 import { checkPredictionRows, type PredictionColumns } from './prediction-rows.ts';
 import type { ScoredModel } from '../../models/scored-model.ts';
 import { averagedModels, type AveragedResult } from './averaging.ts';
+import { statedNestingTests } from './stated-nesting.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 
 export interface ExtrasOptions {
@@ -87,13 +88,16 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   }
   if (issues.length > 0) return { issues };
 
+  // Pairs with an expression are tested on the caller's word; the rest by column keys.
+  const stated = statedNestingTests(scored, input.sample, options.tests ?? []);
   const nested = testNestingOffers(
     scored.flatMap((m) => (m.capabilities.nested ? [m.capabilities.nested(input.sample)] : [])),
-    options.tests ?? [],
+    stated.rest,
   );
-  if (nested.issues.length > 0) {
+  const nestedIssues = [...nested.issues, ...stated.issues];
+  if (nestedIssues.length > 0) {
     return {
-      issues: nested.issues.map((n) => {
+      issues: nestedIssues.map((n) => {
         const i = (options.tests ?? []).findIndex((t) => t.smaller === n.facts.smaller && t.larger === n.facts.larger);
         return issue('nested_test_invalid', ['options', 'tests', Math.max(0, i)], { reason: n.message });
       }),
@@ -106,7 +110,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: columnKeys(scored), intervalLevel: input.intervalLevel,
     })
     : null;
-  return { nestedTests: nested.tests, averaged, loo };
+  return { nestedTests: [...nested.tests, ...stated.tests], averaged, loo };
 }
 
 /** Each model's coefficient column keys, by model name. */

@@ -29,6 +29,10 @@ export function leastSquaresCapabilities(
       candidate: { name: model.result.name, keys: model.design.keys ?? null, fit: model.fit, sample: `${sample}|${JSON.stringify(candidate.response ?? null)}` },
       rules: LEAST_SQUARES_NESTING,
     }),
+    leastSquaresFacts: (sample) => ({
+      name: model.result.name, rss: model.fit.rss, meanParameters: model.fit.rank, observations: model.fit.observations,
+      sample: `${sample}|${JSON.stringify(candidate.response ?? null)}`, exactFit: model.fit.exactFit,
+    }),
     ...(model.design.keys ? { columnKeys: model.design.keys } : {}),
   };
 }

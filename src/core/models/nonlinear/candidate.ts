@@ -59,6 +59,11 @@ export function expressionIssue(text: string, at: IssuePath): Issue | null {
   return 'failure' in parsed ? parseIssue(parsed.failure, text, at) : null;
 }
 
+/** Whether an expression can use `name` as a parameter (not a function or constant of the grammar, and spellable). */
+export function isParameterName(name: string): boolean {
+  return !RESERVED_NAMES.has(name) && NAME_PATTERN.test(name);
+}
+
 function own(record: object, key: string): boolean {
   return Object.prototype.hasOwnProperty.call(record, key);
 }
@@ -137,8 +142,13 @@ export function prepareNonlinearCandidate(
   const issues: Issue[] = [];
   const exprAt = [...at, 'expression'];
   const parsed = parseExpression(spec.expression);
-  if ('failure' in parsed) issues.push(parseIssue(parsed.failure, spec.expression, exprAt));
   const vectors = startVectors(spec, at, issues);
+  // The names of start decide how the expression reads: a parameter called
+  // "exp" or "pi" makes "exp*x" unreadable, and the name is the fault to
+  // report, not the syntax it breaks. So a syntax issue waits until every
+  // parameter name is one an expression can spell.
+  const badName = issues.some((i) => i.code === 'parameter_name_invalid');
+  if ('failure' in parsed && !badName) issues.push(parseIssue(parsed.failure, spec.expression, exprAt));
   if (!vectors || 'failure' in parsed) return { issues };
   const { parameters, starts } = vectors;
 

@@ -3,8 +3,10 @@
 // standard errors, taken to the response's original scale as for a
 // least-squares model (the median, for a transformed response), so averaged
 // predictions can mix linear and nonlinear models. It offers no nested-model
-// capability of the linear kind (that one reads a design), and no column keys:
-// its parameters are not design columns to average across models.
+// capability of the linear kind (that one reads a design's column keys), but
+// its sums for an extra-sum-of-squares test of a pair the caller names
+// (comparison/extras/stated-nesting.ts), and no column keys: its parameters
+// are not design columns to average across models.
 import { twoSidedCritical } from '../../inference/coefficient-tests.ts';
 import { responseScale } from '../../inference/back-transform.ts';
 import { newObservationError, predictionWithIntervals, type ScaledPrediction } from '../../inference/prediction-intervals.ts';
@@ -40,5 +42,10 @@ export function nonlinearCapabilities(fit: NonlinearFit, candidate: NonlinearCan
   return {
     checks: (rows) => nonlinearModelChecks(fit, rows),
     predict: (at) => predictions(fit, candidate, at),
+    // The sample's identity is built as a linear model's is, so a linear and a nonlinear model of one response scale match.
+    leastSquaresFacts: (sample) => ({
+      name: fit.name, rss: fit.rss, meanParameters: fit.estimates.length, observations: fit.observations,
+      sample: `${sample}|${JSON.stringify(candidate.response ?? null)}`, exactFit: fit.exactFit,
+    }),
   };
 }

@@ -10,6 +10,7 @@ import type { NonlinearCandidateSpec } from './candidate.ts';
 import { namesUsed, parseExpression } from './expression/parse.ts';
 import { compileTape } from './expression/tape.ts';
 import { priceNonlinear } from './price.ts';
+import { DEFAULT_MAX_ITERATIONS } from './solve.ts';
 import { CONVERGENCE_RULE, NONLINEAR_CONVENTIONS } from './conventions.ts';
 import { LINEARISATION_CAUTION } from './model-result.ts';
 
@@ -25,14 +26,27 @@ const FLOPS_PER_MULTIPLY_ADD = 2;
 /**
  * Each tape entry is interpreted per row (a dispatch, and for exp, log or a
  * real power a library call) and takes the time of more multiply-adds than
- * priceNonlinear counts for it. Measured by scripts/bench-pricing.ts on a busy
- * shared machine: a warm fit of NIST Bennett5 (747 of its 1,000 allowed
- * iterations, a real power per row) ran at 1.5 to 5 times the median
- * nanoseconds per estimated multiply-add unweighted; twice the weight brings
- * it to about the other kinds' rate. A fit that stops early runs far below
- * its price: the price is the iteration cap's, the worst case.
+ * priceNonlinear counts for it. Measured by scripts/bench-pricing.ts (CPU
+ * time, least of three runs, on a busy shared 2-core machine): with weight 2,
+ * a fit run to its 1,000-iteration cap on 10,000 rows (Bennett5's curve) ran
+ * at 1.65× the median nanoseconds per estimated multiply-add of all kinds,
+ * and NIST Bennett5 (154 rows, 747 iterations) at 1.78×. Weight 4 with the
+ * per-iteration overhead below brings both to about the median: the price of
+ * a fit that runs to its cap bounds its work. A fit that stops early runs far
+ * below its price: the price is the iteration cap's, the worst case.
  */
-const TAPE_ENTRY_WEIGHT = 2;
+const TAPE_ENTRY_WEIGHT = 4;
+/** Predictions evaluate the tape once per row; not re-measured, so they keep the weight the first calibration gave. */
+const PREDICTION_TAPE_WEIGHT = 2;
+/**
+ * Work of one Levenberg–Marquardt iteration that does not grow with rows (the
+ * search for the trust region's λ, the pivoted QR's set-up, short-lived
+ * arrays), in multiply-adds: about 25 µs of CPU per iteration, measured on
+ * NIST MGH10 (16 rows, where it is nearly all of an iteration) and as the
+ * part of Bennett5's iterations that its 154 rows do not explain; 8,000
+ * multiply-adds at the median rate of about 3 ns.
+ */
+export const ITERATION_OVERHEAD = 8_000;
 
 function tapeEntries(spec: NonlinearCandidateSpec, parameters: string[]): number {
   const parsed = parseExpression(spec.expression);
@@ -53,7 +67,8 @@ export function priceNonlinearCandidate(spec: NonlinearCandidateSpec, ctx: Candi
   const m = ctx.predictionRows;
   return {
     fit: {
-      work: FIXED_WORK.modelFittedHere + priceNonlinear({ rows: n, parameters: p, tapeEntries: TAPE_ENTRY_WEIGHT * t, starts }) / FLOPS_PER_MULTIPLY_ADD,
+      work: FIXED_WORK.modelFittedHere + priceNonlinear({ rows: n, parameters: p, tapeEntries: TAPE_ENTRY_WEIGHT * t, starts }) / FLOPS_PER_MULTIPLY_ADD
+        + starts * DEFAULT_MAX_ITERATIONS * ITERATION_OVERHEAD,
       // The Jacobian (n×p), residuals, fitted values, weights and the tape's values per row stay until the answer.
       heldBytes: 8 * n * p + 24 * n + 8 * p * p,
       // Per row and tape entry: values and adjoints in double and double-double while evaluating; the QR's copy of J.
@@ -61,7 +76,7 @@ export function priceNonlinearCandidate(spec: NonlinearCandidateSpec, ctx: Candi
       resultBytes: ANSWER_BYTES.model + WORDS_BYTES + p * ANSWER_BYTES.coefficient + starts * 96,
     },
     prediction: m === 0 ? NO_COST : {
-      work: m * (FIXED_WORK.predictionRow + 3 * TAPE_ENTRY_WEIGHT * t + p * p),
+      work: m * (FIXED_WORK.predictionRow + 3 * PREDICTION_TAPE_WEIGHT * t + p * p),
       heldBytes: m * ANSWER_BYTES.prediction,
       passingBytes: 8 * m * (t + p),
       resultBytes: m * ANSWER_BYTES.prediction,

@@ -59,6 +59,11 @@ t.test('start values: one vector or several, the same parameters, finite, spella
   ]);
   t.match(issuesOf({ expression: 'pi*exp(-k*hours)', start: { pi: 1, k: 1 } }), [{ code: 'parameter_name_invalid', parameter: 'pi' }]);
   t.match(issuesOf({ start: { a: 1, k: 1, 'rate-1': 2 } }), [{ code: 'parameter_name_invalid', parameter: 'rate-1' }]);
+  // A parameter called like a function makes "exp*hours" unreadable: the name is reported, not the syntax it breaks.
+  const named = issuesOf({ expression: 'exp*hours', start: { exp: 1 } });
+  t.match(named, [{ code: 'parameter_name_invalid', path: [...AT, 'start', 'exp'], parameter: 'exp' }]);
+  t.equal(named.length, 1, 'no syntax issue beside it');
+  t.match(issuesOf({ expression: 'a*exp(-k*hours', start: { a: 1, k: 1 } }), [{ code: 'expression_syntax' }], 'with spellable names the syntax issue stands');
   const many = Object.fromEntries(Array.from({ length: MAX_PARAMETERS + 1 }, (_, j) => [`p${j}`, 1]));
   t.match(issuesOf({ expression: Object.keys(many).join('+') + '+hours', start: many }), [{ code: 'parameters_too_many', limit: MAX_PARAMETERS }]);
 });
