@@ -11,6 +11,8 @@ import { transformResponse, type ResponseTransformSpec } from '../models/respons
 import { hierarchyRules, noHierarchy, type HierarchyRules } from './hierarchy.ts';
 import { subsetProblemFromDesign, subsetProblemFromSummary } from './problem.ts';
 import type { SubsetProblem } from './types.ts';
+import type { GlmSearchSpec } from './glm/types.ts';
+import { glmExtraColumns } from '../models/glm/candidate.ts';
 
 export interface SearchRequestInput {
   /** Exactly one of columns and summary. */
@@ -25,6 +27,8 @@ export interface SearchRequestInput {
   top: number;
   /** Every subset describes g(response) (needs rows: the Jacobian sums over them); null for the response itself. */
   responseTransform?: ResponseTransformSpec | null;
+  /** Every subset a generalised linear model of this family (search/glm); null or absent for least squares. */
+  glm?: GlmSearchSpec | null;
 }
 
 export type SearchSource =
@@ -58,7 +62,8 @@ function intoRequest(found: Issue, poolSize: number): Issue {
 
 function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
   const terms = [...input.pool, ...input.always];
-  const used = columnsUsedBy(terms);
+  // A GLM search's offset and trials columns leave out the rows where they are missing, as a comparison's candidates do.
+  const used = [...columnsUsedBy(terms), ...(input.glm ? glmExtraColumns(input.glm) : [])];
   const sample = sampleRows(columns, input.response, input.weights, used);
   if ('issues' in sample) return sample;
   const { rows, dropped, zeroWeights } = sample;
@@ -130,6 +135,10 @@ function codingIssues(input: SearchRequestInput, columns: Columns, rows: number[
 }
 
 function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
+  if (input.glm) {
+    // IRLS reweights every row at every step; cross products summed once cannot be reweighted.
+    return { issues: [issue('summary_rows_needed', ['family'], { form: 'a generalised linear search', reason: 'each IRLS step reweights every row, which cross products summed once cannot do' })] };
+  }
   if (input.responseTransform) {
     // The summary holds cross products of y, not of g(y), and the Jacobian sums ln g'(y) over rows it does not carry.
     return { issues: [issue('summary_rows_needed', ['responseTransform'], { form: 'a response transform', reason: 'its Jacobian sums ln g\'(y) over the rows' })] };
