@@ -5,6 +5,7 @@
 // columns, the response inside the family's support — with the same issues
 // and words a comparison candidate gets, and the design over every term.
 import { buildDesign } from '../../design/index.ts';
+import { unknownColumn } from '../../design/columns.ts';
 import { issue, type Issue } from '../../issues.ts';
 import { FAMILIES, resolveLink } from '../../models/glm/index.ts';
 import { numericColumn } from '../../models/glm/kind.ts';
@@ -26,6 +27,14 @@ export function prepareGlmSearch(input: SearchRequestInput & { glm: GlmSearchSpe
   const link = resolveLink(spec.family, spec.link);
   if (!link) {
     return { issues: [issue('glm_link_not_allowed', ['link'], { family: spec.family, link: String(spec.link), allowed: [...FAMILIES[spec.family].links] })] };
+  }
+  if (input.columns) {
+    // Named before the rows are sampled on them, as a comparison names a candidate's unknown offset.
+    const unknown = (['offset', 'trials'] as const).flatMap((field) => {
+      const name = field === 'trials' && spec.family !== 'binomial' ? undefined : spec[field];
+      return name !== undefined && !Object.prototype.hasOwnProperty.call(input.columns, name) ? [unknownColumn([field], name, input.columns!)] : [];
+    });
+    if (unknown.length > 0) return { issues: unknown };
   }
   const prepared = prepareSearch(input);
   if ('issues' in prepared) return prepared;
