@@ -29,7 +29,7 @@ const base = () => ({ data: { columns: batches() }, response: 'cracked', pool: [
 
 t.test('refusals name the field, as a comparison candidate\'s do', async (t) => {
   const { app } = await buildTestApp(t);
-  const post = (payload: unknown) => app.inject({ method: 'POST', url: '/v1/searches', payload });
+  const post = (payload: object) => app.inject({ method: 'POST', url: '/v1/searches', payload });
   const errors = (res: { json: () => { errors: { code: string; path: string }[] } }) => res.json().errors.map((e) => [e.code, e.path]);
 
   const link = await post({ ...base(), link: 'inverseSquare' });

@@ -23,7 +23,7 @@ import type { GlmSearchOutcome } from './types.ts';
 export const GLM_SEARCH_RULES = {
   exhaustive: 'every admissible subset fitted by IRLS: the best models are proven the best',
   stepwiseSwaps:
-    'stepwise selection with swaps: from the always terms alone, and again from the whole pool, the best single addition, removal or swap of one pool term for another is taken while it lowers the criterion; a local optimum, so the best models are the best found, not proven the best (branch and bound is not used: its bounds on the residual sum of squares do not hold for a deviance)',
+    'stepwise selection with swaps: from the always terms alone, and again from the whole pool, the best single addition, removal or swap of one pool term for another is taken while it lowers the criterion; a local optimum, so the best models are the best found, not proven the best (branch and bound is not used: its bounds are built from residual sums of squares, which a deviance does not have)',
 } as const;
 
 export const WARM_START_RULE = `each subset starts IRLS from the coefficients of the subset it was reached from (its new columns at 0), falling back to the family's starting means when those give no valid mean; the start changes the number of steps, not the answer, which meets the same rule (${CONVERGENCE_RULE}). The listed models are fitted again from the family's starting means, exactly as a comparison fits them`;
