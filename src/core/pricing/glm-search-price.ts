@@ -17,12 +17,15 @@ import { GLM_FLOPS_PER_UNIT } from '../models/glm/price.ts';
 import { NO_DATA, shapeOfColumns } from './data-shape.ts';
 import { designWidth } from './design-width.ts';
 import { ANSWER_BYTES, FIXED_WORK } from './least-squares-cost.ts';
-import { totalPrice, type PricePart } from './types.ts';
-import type { SearchPricing, SearchPricingOptions } from './search-price.ts';
+import { totalPrice, type PriceCaps, type PricePart, type RequestPrice } from './types.ts';
 
 const REMEDY = 'Narrow the pool, move terms to always, drop factors with many levels from it, or ask for fewer top models';
 
-export function priceGlmSearch(input: SearchRequestInput & { glm: GlmSearchSpec }, options: SearchPricingOptions): SearchPricing {
+/** search-price.ts's options and answer, spelled out here so the two files do not import each other. */
+export function priceGlmSearch(
+  input: SearchRequestInput & { glm: GlmSearchSpec },
+  options: { caps: PriceCaps; exhaustive: boolean; budget?: SearchBudget },
+): { price: RequestPrice; budget: SearchBudget } {
   const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
   const shape = input.columns ? shapeOfColumns(input.columns) : NO_DATA;
   const n = shape.rows;
