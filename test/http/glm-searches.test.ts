@@ -92,3 +92,19 @@ t.test('the best models score exactly as the same candidates in a comparison', a
     });
   }
 });
+
+t.test('a stored GLM search replays identically and is drawn and written up', async (t) => {
+  const { app } = await buildTestApp(t);
+  const res = await app.inject({ method: 'POST', url: '/v1/searches', payload: searchBody('strength', { top: 4 }) });
+  t.equal(res.statusCode, 200);
+  const id = res.json().id;
+  const replay = await app.inject({ method: 'POST', url: `/v1/searches/${id}/replay` });
+  t.equal(replay.statusCode, 200, replay.body.slice(0, 300));
+  t.equal(replay.json().identical, true, JSON.stringify(replay.json().changes).slice(0, 300));
+  for (const what of ['chart.svg', 'report']) {
+    const page = await app.inject({ method: 'GET', url: `/v1/searches/${id}/${what}` });
+    t.equal(page.statusCode, 200, `${what}: ${page.body.slice(0, 200)}`);
+  }
+  const report = await app.inject({ method: 'GET', url: `/v1/searches/${id}/report` });
+  t.match(report.body, /every subset scored/, 'the report names the method');
+});

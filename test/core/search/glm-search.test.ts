@@ -143,3 +143,16 @@ t.test('a data summary cannot be reweighted', async (t) => {
   });
   t.same('issues' in ready && ready.issues.map((i) => [i.code, i.path]), [['summary_rows_needed', ['family']]]);
 });
+
+t.test('the hierarchy rule holds in a GLM search', async (t) => {
+  const ready = prepareGlmSearch({
+    columns: REFERENCE.strength.columns, summary: null, response: 'strength', weights: null,
+    pool: ['peakTemp', { kind: 'power', of: 'peakTemp', degree: 2 }, 'moisture'], always: [], hierarchy: true, intercept: true, top: 8,
+    glm: { family: 'gamma', link: 'log' },
+  });
+  if ('issues' in ready) throw new Error(JSON.stringify(ready.issues));
+  const outcome = searchGlmSubsets(ready.data, ready.prepared.rules, { criterion: 'aicc', top: 8 }, { ok: true, method: 'exhaustive', maxVisits: Infinity });
+  t.equal(outcome.notHierarchical, 2, 'peakTemp^2 without peakTemp, alone and with moisture');
+  t.equal(outcome.evaluated, 6);
+  t.ok(outcome.models.every((s) => !s.terms.includes(1) || s.terms.includes(0)), 'no listed subset breaks the rule');
+});
