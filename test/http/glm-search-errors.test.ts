@@ -128,3 +128,16 @@ t.test('priced by fits at the door', async (t) => {
   t.match(body.glm.searchRule, /stepwise selection with swaps/);
   t.ok(body.budget.nodes <= body.budget.maxNodes, 'within the fits the price allowed');
 });
+
+t.test('Accept: text/event-stream: one progress event, then the recorded result; a refusal is a plain 422', async (t) => {
+  const { app, store } = await buildTestApp(t);
+  const res = await app.inject({ method: 'POST', url: '/v1/searches', headers: { accept: 'text/event-stream' }, payload: base() });
+  t.equal(res.statusCode, 200);
+  t.match(res.headers['content-type'], /^text\/event-stream/);
+  const events = res.body.trim().split('\n\n').map((block) => block.split('\n')[0].replace('event: ', ''));
+  t.same(events, ['progress', 'result']);
+  const result = JSON.parse(res.body.trim().split('\n\n')[1].split('\n')[1].replace('data: ', ''));
+  t.equal((await store.get(result.id))?.kind, 'search', 'recorded before the result was sent');
+  const bad = await app.inject({ method: 'POST', url: '/v1/searches', headers: { accept: 'text/event-stream' }, payload: { ...base(), link: 'sqrt' } });
+  t.equal(bad.statusCode, 422, 'a GLM search refused by its family\'s checks is answered with its status, not a stream');
+});
