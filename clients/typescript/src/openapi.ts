@@ -859,6 +859,8 @@ export interface paths {
          * Score every subset of a pool of terms, refit the best and record the search
          * @description Every subset of `pool` (with the `always` terms; with `hierarchy`, only subsets holding the terms a power or product is built from) is a candidate, scored on the workers of the compute pool (branch and bound beyond 2^24 subsets, with `proven` saying whether the top list is proven); the best `top` are refitted exactly and returned with their weights over every subset scored, and the search is appended to the audit chain. The example is the demo scenario (tile shrinkage, invented data).
          *
+         *     With `family` (and `link`, `offset`, `trials`) every subset is a generalised linear model fitted by IRLS, each started from the coefficients of the subset it was reached from: every subset when the pool has at most 16 terms and the price affords them all, else stepwise selection with swaps (`method: "stepwiseSwaps"`, `proven: false`); subsets that separate or do not converge are skipped and counted in `glm.fitFailures`. Criteria rank the subsets; they do not validate the chosen model.
+         *
          *     With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start (priced over a limit, the compute queue full) are answered with their status as usual.
          */
         post: {
