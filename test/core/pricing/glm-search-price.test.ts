@@ -20,9 +20,11 @@ const caps = (work = 1e10): PriceCaps => ({
 });
 
 function input(rows: number, poolTerms: number): SearchRequestInput {
-  const columns: Columns = { defects: Array.from({ length: rows }, (_, i) => i % 7) };
   const pool = Array.from({ length: poolTerms }, (_, k) => `reading${k}`);
-  for (const name of pool) columns[name] = Array.from({ length: rows }, (_, i) => (i * 37) % 11);
+  const columns: Columns = {
+    defects: Array.from({ length: rows }, (_, i) => i % 7),
+    ...Object.fromEntries(pool.map((name) => [name, Array.from({ length: rows }, (_, i) => (i * 37) % 11)])),
+  };
   return { columns, summary: null, response: 'defects', weights: null, pool, always: [], hierarchy: false, intercept: true, top: 5, glm: { family: 'poisson' } };
 }
 
