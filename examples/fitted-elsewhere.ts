@@ -29,7 +29,7 @@ try {
       { name: 'temperature-and-kiln', terms: ['peakTemp', 'kiln'] },
     ],
   });
-  for (const e of result.rankings[result.conventions.rankBy]) {
+  for (const e of result.rankings[result.conventions.rankBy] ?? []) {
     console.log(`${e.rank}  ${e.name.padEnd(26)} delta=${e.delta?.toFixed(3)}  weight=${e.weight?.toFixed(4)}`);
   }
   const stored = await client.comparison(result.id);

@@ -80,17 +80,33 @@ case <- function(fit, labels, family, link, data, response, terms, dispersion, l
     leverages = arr(hatvalues(fit)),
     cooksDistances = arr(cooks.distance(fit, dispersion = dispersion)),
     devianceResiduals = arr(residuals(fit, "deviance")),
-    pearsonResiduals = arr(residuals(fit, "pearson"))
+    pearsonResiduals = arr(residuals(fit, "pearson")),
+    # rstandard.glm's form with the service's dispersion: r_D / sqrt(phi (1 - h)).
+    standardisedDevianceResiduals = arr(residuals(fit, "deviance") / sqrt(dispersion * (1 - hatvalues(fit)))),
+    # Pearson's goodness-of-fit test and the service's overdispersion threshold (upper 5% point of chi2(df)/df).
+    pearsonPValue = pchisq(sum(residuals(fit, "pearson")^2), fit$df.residual, lower.tail = FALSE),
+    overdispersionThreshold = qchisq(0.95, fit$df.residual) / fit$df.residual
   )
   if (!is.null(newdata)) {
     p <- predict(fit, newdata = newdata, type = "link", se.fit = TRUE, dispersion = dispersion)
     out$prediction <- list(
       rows = lapply(newdata, function(col) if (is.numeric(col)) arr(col) else as.character(col)),
       offset = if (is.null(newoffset)) NULL else arr(newoffset),
-      link = arr(p$fit), standardError = arr(p$se.fit)
+      link = arr(p$fit), standardError = arr(p$se.fit),
+      # The mean with a 95% interval built on the link scale, ends mapped by the inverse link
+      # (z; t on the residual df for the Gaussian family).
+      mean = arr(fit$family$linkinv(p$fit)),
+      lower = arr(ends(fit, p, -1)), upper = arr(ends(fit, p, 1))
     )
   }
   out
+}
+
+ends <- function(fit, p, side) {
+  q <- if (fit$family$family == "gaussian") qt(0.975, fit$df.residual) else qnorm(0.975)
+  a <- fit$family$linkinv(p$fit - q * p$se.fit)
+  b <- fit$family$linkinv(p$fit + q * p$se.fit)
+  if (side < 0) pmin(a, b) else pmax(a, b)
 }
 
 cases <- list()
@@ -108,6 +124,12 @@ for (link in c("logit", "probit", "cloglog")) {
   cases[[paste0("beetle-", link)]] <- case(fit, c("intercept", "dose"), "binomial", link, beetle, "killed", list("dose"),
     1, as.numeric(logLik(fit)), NULL, trials = "exposed", newdata = beetle_new)
 }
+# A quadratic in dose inside the logit fit: the deviance test R's anova gives.
+quad <- polish(glm(cbind(killed, exposed - killed) ~ dose + I(dose^2), family = binomial, data = beetle, control = CONTROL))
+line <- polish(glm(cbind(killed, exposed - killed) ~ dose, family = binomial, data = beetle, control = CONTROL))
+a <- anova(line, quad, test = "Chisq")
+tests[["beetle-logit-lr"]] <- list(smaller = list("dose"), larger = list("dose", list(kind = "power", of = "dose", degree = 2)),
+  statistic = a$Deviance[2], df = a$Df[2], pValue = a[["Pr(>Chi)"]][2])
 # The same beetles one row each (0/1 response): same coefficients, a
 # log-likelihood lower by sum(ln C(exposed, killed)).
 each <- data.frame(
@@ -248,6 +270,13 @@ for (link in c("1/mu^2", "log")) {
   cases[[paste0("sensors-inverse-gaussian-", name)]] <- case(fit, c("intercept", "temperature"), "inverseGaussian", name,
     sensors, "days", list("temperature"), phi, as.numeric(logLik(fit)),
     list(name = "dispersion", estimate = phi, standardError = phi * sqrt(2 / n)), newdata = sensors_new)
+  if (link == "log") {
+    # Against the intercept-only model: R's F test, dispersion Pearson chi2 / df of the larger model.
+    fit0 <- polish(glm(days ~ 1, family = inverse.gaussian(link = "log"), data = sensors, control = CONTROL, start = c(5)))
+    a <- anova(fit0, fit, test = "F")
+    tests[["sensors-inverse-gaussian-f"]] <- list(smaller = list(), larger = list("temperature"),
+      statistic = a$F[2], df = a$Df[2], residualDf = a[["Resid. Df"]][2], pValue = a[["Pr(>F)"]][2])
+  }
 }
 
 out <- list(

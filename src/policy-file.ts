@@ -28,7 +28,8 @@ const Bands = z
 
 export const PolicySchema = z.strictObject({
   name: z.string().min(1).max(200),
-  rankBy: z.enum(['aicc', 'aic', 'bic', 'hqc', 'adjustedR2']).default(DEFAULT_POLICY.rankBy),
+  // qaic and qaicc apply where a comparison has a ĉ; elsewhere aic and aicc stand in (chooseRankBy).
+  rankBy: z.enum(['aicc', 'aic', 'bic', 'hqc', 'adjustedR2', 'qaic', 'qaicc']).default(DEFAULT_POLICY.rankBy),
   confidenceLevel: z.number().gt(0).lt(1).default(DEFAULT_POLICY.confidenceLevel),
   preferAiccBelowRatio: z.number().positive().nullable().default(DEFAULT_POLICY.preferAiccBelowRatio),
   akaikeBands: Bands.default(DEFAULT_POLICY.akaikeBands),

@@ -46,6 +46,10 @@ export interface KindIssueFacts {
   glm_fitted_at_dropped_row: { row: number; rows: number[]; count: number };
   glm_column_not_numeric: { column: string; row: number; value: string | null };
   overdispersion_no_model: Record<string, never>;
+  /** A request-level trials column with no binomial candidate to read it (candidates: name and kind, in words). */
+  trials_without_binomial: { trials: string; candidates: string[] };
+  /** rankBy names QAIC or QAICc in a comparison without options.overdispersion. */
+  rank_by_needs_overdispersion: { rankBy: string };
   /** Candidates whose likelihoods are a probability mass beside ones that are a density: never ranked together. */
   measures_mixed: { mass: string[]; density: string[] };
   // Nonlinear mean functions (models/nonlinear): the expression, its
@@ -146,6 +150,10 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
     `${at} names column ${JSON.stringify(f.column)}, which holds ${f.value === null ? 'no number' : `the string ${JSON.stringify(f.value)}`} at row ${f.row}; it must hold numbers.`,
   overdispersion_no_model: (_f, at) =>
     `${at} is "estimate", but no generalised linear model fitted here has residual degrees of freedom and a positive Pearson χ² to estimate ĉ from; give ĉ as a number, or add the most general count model as a candidate.`,
+  trials_without_binomial: (f, at) =>
+    `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by binomial candidates (family "binomial": successes out of trials), and none is binomial: ${f.candidates.join(', ')}. Drop trials, or add the binomial candidate meant to use it.`,
+  rank_by_needs_overdispersion: (f, at) =>
+    `${at} is "${f.rankBy}", but ${f.rankBy === 'qaic' ? 'QAIC' : 'QAICc'} divides the log-likelihood by an overdispersion factor ĉ, and this comparison has none; give options.overdispersion ({ "cHat": a number } or { "cHat": "estimate" }), or rank by ${f.rankBy === 'qaic' ? 'aic' : 'aicc'}, what it is at ĉ = 1.`,
   measures_mixed: (f, at) =>
     `${at}: ${quoteList(f.mass)} ${f.mass.length === 1 ? 'has a likelihood that is a probability mass' : 'have likelihoods that are probability masses'} (counts or pass/fail outcomes) and ${quoteList(f.density)} ${f.density.length === 1 ? 'one that is a density' : 'ones that are densities'} (continuous measurements); a mass and a density are on different scales, so their criteria cannot be compared. Compare the count or pass/fail models among themselves and the continuous ones among themselves.`,
   // Nonlinear mean functions.

@@ -47,9 +47,11 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     weights: body.weights ?? null,
     candidates: body.candidates.map((c) => candidateInput(c, body.trials)),
     rankBy: body.options.rankBy ?? body.rankBy,
+    rankByPath: body.options.rankBy === undefined && body.rankBy !== undefined ? ['rankBy'] : ['options', 'rankBy'],
     confidenceLevel: body.options.confidenceLevel,
     intervalLevel: body.options.intervalLevel,
     expectedFingerprint: body.datasetFingerprint,
+    trials: body.trials ?? null,
     censoring: body.censoring ?? null,
     percentiles: body.options.percentiles,
     extras: {

@@ -7,6 +7,8 @@ const displayNames: Record<CriterionName, string> = {
   bic: 'BIC',
   hqc: 'HQC',
   adjustedR2: 'adjusted R²',
+  qaic: 'QAIC',
+  qaicc: 'QAICc',
   loo: 'leave-one-out',
 };
 

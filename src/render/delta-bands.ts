@@ -54,9 +54,9 @@ export const referenceLines: Readonly<Record<BandFamily, readonly number[]>> = {
   bic: [2, 6, 10],
 };
 
-/** Criteria on the -2 log-likelihood scale have bands; adjusted R² and leave-one-out do not. */
+/** Criteria on the -2 log-likelihood scale have bands (QAIC's Δ reads as AIC's); adjusted R² and leave-one-out do not. */
 export function bandFamily(criterion: CriterionName): BandFamily | null {
-  if (criterion === 'aicc' || criterion === 'aic' || criterion === 'hqc') return 'akaike';
+  if (criterion === 'aicc' || criterion === 'aic' || criterion === 'hqc' || criterion === 'qaic' || criterion === 'qaicc') return 'akaike';
   if (criterion === 'bic') return 'bic';
   return null;
 }

@@ -72,7 +72,7 @@ export function formatDelta(value: unknown, absent = 'no value'): string {
  * power of ten, so a column of them keeps one style ("< 0.0001" beside "0.0008").
  */
 export function formatCriterionDelta(criterion: string, value: unknown, absent = 'no value'): string {
-  if (criterion === 'aicc' || criterion === 'aic' || criterion === 'bic' || criterion === 'hqc') return formatDelta(value, absent);
+  if (criterion === 'aicc' || criterion === 'aic' || criterion === 'bic' || criterion === 'hqc' || criterion === 'qaic' || criterion === 'qaicc') return formatDelta(value, absent);
   const x = finiteOrNull(value);
   if (x === null) return absent;
   if (x > 0 && x < 0.00005) return '< 0.0001';

@@ -5,11 +5,10 @@
 // Each part appears only when the record has such models, so a record of
 // least-squares models renders exactly as before.
 import { fragment, tag, type Html } from './html-markup.ts';
-import { finiteOrNull, formatCount, formatDelta, formatFixed, formatPercent, formatSignificant } from './number-format.ts';
+import { finiteOrNull, formatCount, formatFixed, formatPercent, formatSignificant } from './number-format.ts';
 import { whichModels } from './report-extras.ts';
 import { breakableName, table, type Column } from './report-table.ts';
-import { rankingTableOf } from './report-tables.ts';
-import { supportWording } from './delta-bands.ts';
+import { rankingTable } from './report-tables.ts';
 import type { ConvergenceView, ModelView, StoredComparisonView } from './types.ts';
 
 const fittedElsewhere = new Set(['residuals', 'rss', 'logLikelihood']);
@@ -62,7 +61,12 @@ export function convergenceInWords(c: ConvergenceView | null | undefined): strin
 
 const present = (models: ModelView[], pick: (m: ModelView) => unknown) => models.some((m) => finiteOrNull(pick(m)) !== null);
 
-/** What each model is: kind, distribution parameters, convergence, deviance. Null for a record of least-squares models. */
+/**
+ * What each model is: kind, distribution parameters, convergence, deviance,
+ * null deviance, Pearson χ² and, with a ĉ, QAIC and QAICc (the columns a
+ * reviewer of count models reads beside the criteria). Null for a record of
+ * least-squares models.
+ */
 export function modelKindsTable(record: StoredComparisonView): Html | null {
   const models = record.result.models ?? [];
   if (!models.some(hasKindFields)) return null;
@@ -79,8 +83,17 @@ export function modelKindsTable(record: StoredComparisonView): Html | null {
   }
   if (present(models, (m) => m.deviance)) columns.push({ heading: 'deviance', cell: (m) => formatSignificant(m.deviance) });
   if (present(models, (m) => m.devianceExplained)) columns.push({ heading: 'deviance explained', cell: (m) => formatPercent(m.devianceExplained) });
+  if (present(models, (m) => m.nullDeviance)) columns.push({ heading: 'null deviance', cell: (m) => formatSignificant(m.nullDeviance) });
+  if (present(models, (m) => m.pearsonChiSquare)) columns.push({ heading: 'Pearson χ²', cell: (m) => formatSignificant(m.pearsonChiSquare) });
+  if (present(models, (m) => m.qaic)) columns.push({ heading: 'QAIC', cell: (m) => formatFixed(m.qaic, 3) });
+  if (present(models, (m) => m.qaicc)) columns.push({ heading: 'QAICc', cell: (m) => formatFixed(m.qaicc, 3) });
   if (present(models, (m) => m.logLikelihoodLogTime)) columns.push({ heading: 'log-likelihood on ln t', cell: (m) => formatFixed(m.logLikelihoodLogTime, 3) });
-  const caption = present(models, (m) => m.devianceExplained) ? 'What each model is (deviance explained: 1 − deviance / null deviance)' : 'What each model is';
+  const notes = [
+    present(models, (m) => m.devianceExplained) ? 'deviance explained: 1 − deviance / null deviance' : null,
+    present(models, (m) => m.pearsonChiSquare) ? 'Pearson χ²: Σ (y − μ)² / V(μ), over its residual degrees of freedom an estimate of overdispersion' : null,
+    present(models, (m) => m.qaic) ? 'QAIC and QAICc with the ĉ of the rankings, k counting ĉ' : null,
+  ].filter((n) => n !== null);
+  const caption = notes.length > 0 ? `What each model is (${notes.join('; ')})` : 'What each model is';
   return table(caption, columns, models, (m) => ({ 'data-model': m.name }), { id: 'model-kinds' });
 }
 
@@ -122,11 +135,6 @@ export function percentilesTable(record: StoredComparisonView): Html | null {
   return table(`Percentiles of life: the time by which that share of units has failed, with ${interval}`, columns, rows, (p) => ({ 'data-model': p.model }), { id: 'percentiles' });
 }
 
-const quasiCaptions = {
-  qaic: 'Ranked by QAIC (smaller is better; −2 log L divided by ĉ, plus 2k)',
-  qaicc: 'Ranked by QAICc (smaller is better; QAIC with the small-sample term)',
-} as const;
-
 /** The ĉ behind the QAIC rankings, in words. */
 function overdispersionNote(record: StoredComparisonView): Html | null {
   const o = record.result.overdispersion;
@@ -138,20 +146,7 @@ function overdispersionNote(record: StoredComparisonView): Html | null {
 
 /** Rankings by QAIC and QAICc, when the comparison asked for them (options.overdispersion). */
 export function quasiRankingTables(record: StoredComparisonView): Html | null {
-  const tables = (['qaic', 'qaicc'] as const).flatMap((key) => {
-    const entries = record.result.rankings?.[key] ?? [];
-    if (entries.length === 0) return [];
-    return [rankingTableOf(entries, {
-      caption: quasiCaptions[key],
-      heading: key === 'qaic' ? 'QAIC' : 'QAICc',
-      value: (v) => formatFixed(v, 3),
-      delta: (d) => formatDelta(d, 'n/a'),
-      // The bands of AIC read the same on the QAIC scale (a difference of information criteria).
-      support: (e, atBest) => supportWording({ band: e.band, delta: finiteOrNull(e.delta) }, 'aic', atBest),
-      banded: true,
-      key,
-    })];
-  });
+  const tables = (['qaic', 'qaicc'] as const).flatMap((key) => ((record.result.rankings?.[key] ?? []).length === 0 ? [] : [rankingTable(record, key)]));
   if (tables.length === 0) return null;
   return fragment(overdispersionNote(record), ...tables);
 }

@@ -67,6 +67,8 @@ const captions: Record<CriterionName, string> = {
   bic: 'Ranked by BIC (smaller is better)',
   hqc: 'Ranked by HQC (smaller is better)',
   adjustedR2: 'Ranked by adjusted R² (larger is better; Δ is the shortfall from the best)',
+  qaic: 'Ranked by QAIC (smaller is better; −2 log L divided by ĉ, plus 2k)',
+  qaicc: 'Ranked by QAICc (smaller is better; QAIC with the small-sample term)',
   loo: 'Ranked by leave-one-out RMSE (smaller is better; a check of prediction error, not counted in the verdict)',
 };
 
@@ -132,6 +134,7 @@ export function supportNote(record: StoredComparisonView): Html | null {
     `This record names no support bands (it predates them); the support column is this page's reading of Δ. For AIC, AICc and HQC: ${describeBands(ownBands.akaike)}. For BIC: ${describeBands(ownBands.bic)}. ${best}`);
 }
 
+/** QAIC and QAICc come after the others, beside the ĉ they use (report-kinds: quasiRankingTables). */
 export function rankingTables(record: StoredComparisonView): Html {
-  return fragment(...rankedCriteria(record).map((c) => rankingTable(record, c)));
+  return fragment(...rankedCriteria(record).filter((c) => c !== 'qaic' && c !== 'qaicc').map((c) => rankingTable(record, c)));
 }

@@ -5,8 +5,8 @@
 // public contract is optional, and numbers may be null where a quantity
 // does not exist.
 
-/** The criteria a ranking can be made by (fixed names of the public contract). */
-export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2', 'loo'] as const;
+/** The criteria a ranking can be made by (fixed names of the public contract); qaic and qaicc only with a ĉ. */
+export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2', 'qaic', 'qaicc', 'loo'] as const;
 export type CriterionName = (typeof criterionNames)[number];
 
 export interface RankingEntry {
@@ -59,6 +59,7 @@ export interface ModelView {
   deviance?: number | null;
   nullDeviance?: number | null;
   devianceExplained?: number | null;
+  pearsonChiSquare?: number | null;
   qaic?: number | null;
   qaicc?: number | null;
   expression?: string;
@@ -111,7 +112,7 @@ export interface ComparisonResultView {
     [extra: string]: unknown;
   };
   models: ModelView[];
-  rankings: Partial<Record<CriterionName | 'qaic' | 'qaicc', RankingEntry[]>>;
+  rankings: Partial<Record<CriterionName, RankingEntry[]>>;
   /** The ĉ behind rankings.qaic and rankings.qaicc (options.overdispersion). */
   overdispersion?: { cHat?: number | null; source?: string | null; df?: number | null; belowOne?: boolean | null };
   verdict?: {

@@ -8,7 +8,7 @@
 // NIST in test/http/glm-comparisons, lifetime and nonlinear-comparisons).
 import { readFileSync } from 'node:fs';
 import t, { type Test } from 'tap';
-import { formatPercent, formatSignificant } from '../../src/render/number-format.ts';
+import { formatFixed, formatPercent, formatSignificant } from '../../src/render/number-format.ts';
 import { buildTestApp } from '../helper.ts';
 import { referenceCase } from '../core/models/glm/reference-data.ts';
 import { solderJoints, SOLDER_TERMS } from '../core/models/lifetime/fixtures.ts';
@@ -61,6 +61,21 @@ t.test('a generalised linear comparison: family and link, θ ± SE, convergence,
   t.same(qaic.map((r) => r.model), quasi.body.rankings.qaic.map((e: { name: string }) => e.name), 'the QAIC ranking in its order');
   t.equal(qaic[0].cells[4], 'best');
   t.equal(rowsOf(quasi.page, 'qaicc').length, 2);
+  // The GLM columns of the kinds table: null deviance and Pearson χ² as R's glm has them
+  // (test/reference/glm: R's glm, versions in the file), QAIC by hand: −2 logL/ĉ + 2k, k counting ĉ.
+  const full = quasi.body.models[0];
+  t.ok(Math.abs(full.nullDeviance - seams.nullDeviance) < 1e-8 * seams.nullDeviance, 'null deviance as R');
+  t.ok(Math.abs(full.pearsonChiSquare - seams.pearsonChiSquare) < 1e-8 * seams.pearsonChiSquare, 'Pearson χ² as R');
+  const cHat = quasi.body.overdispersion.cHat;
+  const qaicFull = (-2 * seams.logLikelihood) / cHat + 2 * (seams.parameters + 1);
+  t.ok(Math.abs(full.qaic - qaicFull) < 1e-9, 'QAIC by hand from R\'s log-likelihood');
+  const seamKinds = rowsOf(quasi.page, 'model-kinds');
+  t.same(seamKinds[0].cells.slice(3), [
+    formatSignificant(full.deviance), formatPercent(full.devianceExplained), formatSignificant(full.nullDeviance),
+    formatSignificant(full.pearsonChiSquare), formatFixed(full.qaic, 3), formatFixed(full.qaicc, 3),
+  ], 'deviance, deviance explained, null deviance, Pearson χ², QAIC, QAICc');
+  t.match(quasi.page.text, /Pearson χ²: Σ \(y − μ\)² \/ V\(μ\)/);
+  t.equal(kinds[0].cells.length, 8, 'without a ĉ: model, kind, θ, fit, deviance, explained, null deviance, Pearson χ²');
   t.match(quasi.page.text, new RegExp(`QAIC and QAICc use ĉ = ${formatSignificant(quasi.body.overdispersion.cHat, 'n/a', 4)}, estimated as Pearson χ² / residual degrees of freedom of full`));
 });
 

@@ -998,8 +998,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -1143,8 +1143,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -1286,8 +1286,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -1429,8 +1429,8 @@ export interface paths {
         get: {
             parameters: {
                 query?: {
-                    /** @description The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy). */
-                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "loo";
+                    /** @description The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy). */
+                    criterion?: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc" | "loo";
                     /** @description A named size: tile 420×280, panel 720 wide, print 680 wide, wide 1200 wide. Default panel. */
                     size?: "tile" | "panel" | "print" | "wide";
                     /** @description Width in pixels, 240..2400; overrides the size's. */
@@ -2212,9 +2212,12 @@ export interface components {
             of: string;
             reference?: string;
         });
-        /** @enum {string} */
-        CriterionInput: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2";
-        /** @description A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows). */
+        /**
+         * @description A ranking criterion. qaic and qaicc exist only in a comparison with options.overdispersion (they divide the log-likelihood by ĉ); naming them without it is refused (422).
+         * @enum {string}
+         */
+        CriterionInput: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc";
+        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
         NestedTestInput: {
             smaller: string;
             larger: string;
@@ -2222,11 +2225,11 @@ export interface components {
             df: number;
             /** @description Denominator df of F: n − rank of the larger model. */
             residualDf: number;
-            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf). */
+            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf); for generalised linear models whose family estimates its dispersion (Gaussian, gamma, inverse Gaussian), ((D_s − D_l)/df) / φ̂ with φ̂ = Pearson χ²/residualDf of the larger model; null where the family fixes the dispersion (binomial, Poisson, negative binomial). */
             fStatistic: number | null;
             /** @description Upper tail of F(df, residualDf), via the regularised incomplete beta function. */
             fPValue: number | null;
-            /** @description Likelihood ratio 2(logL_l − logL_s). */
+            /** @description Likelihood ratio 2(logL_l − logL_s); for binomial and Poisson models the difference of their deviances. */
             lrStatistic: number | null;
             /** @description Upper tail of χ²(df), via the regularised incomplete gamma function. */
             lrPValue: number | null;
@@ -2274,6 +2277,11 @@ export interface components {
                 fn: "log" | "sqrt" | "boxcox";
                 lambda?: number;
             } | null;
+            /** @description The family and link of averaged generalised linear model coefficients (they are on that link scale; models of another family or link are excluded); null for least-squares coefficients. */
+            glm: {
+                family: string;
+                link: string;
+            } | null;
             /** @description Models whose coefficients were not averaged, and why. */
             excluded: {
                 name: string;
@@ -2296,7 +2304,35 @@ export interface components {
             } | null;
             notes: string[];
         };
-        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model's cautions (code assumption_check). */
+        /** @description Overdispersion (Pearson χ²/df) and the standardised deviance residuals of a generalised linear model; leverage and Cook's distance (influence) come from the design weighted by the final IRLS weights. A failed check is said in plain words among the model's cautions (code assumption_check). */
+        GlmChecksInput: {
+            overdispersion: {
+                pearsonChiSquare: number;
+                residualDf: number;
+                /** @description Pearson χ² / residual df: about 1 when the family's variance holds. */
+                ratio: number | null;
+                /** @description The upper 0.05 point of χ²(df)/df: a ratio above it is unlikely by chance under the family's variance. Null where not checked: families that estimate their dispersion (Gaussian, gamma, inverse Gaussian), a 0/1 binomial response, no residual df. */
+                threshold: number | null;
+                /** @description Pearson's goodness-of-fit test: upper tail of χ²(residual df) at Pearson χ² (large-sample). */
+                pValue: number | null;
+                passed: boolean | null;
+                note: string;
+            };
+            devianceResiduals: {
+                /** @description Largest |deviance residual| / √(φ (1 − h)). */
+                maxAbsolute: number | null;
+                /** @description Data row (0-based, as sent) of the largest. */
+                maxAbsoluteRow: number | null;
+                /** @description Standardised deviance residuals beyond ±3 are flagged (common practice: rare for a standard normal). */
+                threshold: number;
+                largeRows: number;
+                /** @description Data rows (0-based, as sent) beyond the threshold. */
+                largeRowIndices: number[];
+                passed: boolean | null;
+                note: string;
+            };
+        };
+        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family's own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model's cautions (code assumption_check). */
         DiagnosticsInput: {
             available: boolean;
             reason: string | null;
@@ -2362,6 +2398,8 @@ export interface components {
                 highLeverageRowIndices: number[];
                 passed: boolean | null;
             };
+            /** @description Generalised linear models fitted here only: the checks that belong to the family. */
+            glm?: components["schemas"]["GlmChecksInput"];
         };
         SummaryWeightsInput: {
             /** @description Σ w over the rows. */
@@ -2597,13 +2635,13 @@ export interface components {
         /** @description One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here). */
         CandidateInput: components["schemas"]["FittedCandidateInput"] | components["schemas"]["ResidualsCandidateInput"] | components["schemas"]["RssCandidateInput"] | components["schemas"]["LikelihoodCandidateInput"] | components["schemas"]["FittedMeansCandidateInput"] | components["schemas"]["LifetimeCandidateInput"] | components["schemas"]["NonlinearCandidateInput"];
         ComparisonOptionsInput: {
-            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
+            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise; a policy ranking by qaic or qaicc ranks a comparison without options.overdispersion by aic or aicc). qaic and qaicc need options.overdispersion (422 without it); the verdict then chooses by QAIC or QAICc, and averages by their weights. May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["CriterionInput"];
             /** @description Cumulative weight of the confidence set; default from the team policy (0.95). */
             confidenceLevel?: number;
             /** @description Confidence level of the coefficient and prediction intervals (default 0.95). */
             intervalLevel?: number;
-            /** @description Pairs to test besides those found automatically; each must be nested. */
+            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). */
             tests?: {
                 smaller: string;
                 larger: string;
@@ -2617,7 +2655,7 @@ export interface components {
              */
             average?: "all" | "confidenceSet";
             overdispersion?: components["schemas"]["OverdispersionOptionInput"];
-            /** @description New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). */
+            /** @description New rows (the columns the fitted candidates use, a GLM's offset column included; not the trials column) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). A generalised linear model predicts its mean (the success probability for the binomial) with the link-scale interval mapped by the inverse link. */
             predict?: {
                 columns: {
                     [key: string]: (number | string | null)[];
@@ -2631,7 +2669,7 @@ export interface components {
             response?: string;
             /** @description The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out). */
             weights?: string | null;
-            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
             trials?: string;
             censoring?: components["schemas"]["CensoringInput"];
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
@@ -2716,10 +2754,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["CautionInput"][];
@@ -2794,6 +2832,7 @@ export interface components {
             band: string | null;
         };
         VerdictInput: {
+            /** @description True when every criterion that ranked a model picks the same one; with options.overdispersion QAIC and QAICc count too, so a model that wins only on the unscaled likelihood does not make the criteria agree. */
             agree: boolean;
             best: {
                 aicc: string | null;
@@ -2801,6 +2840,10 @@ export interface components {
                 bic: string | null;
                 hqc: string | null;
                 adjustedR2: string | null;
+                /** @description With options.overdispersion only. */
+                qaic?: string | null;
+                /** @description With options.overdispersion only. */
+                qaicc?: string | null;
             };
             rankBy: components["schemas"]["CriterionInput"];
             /** @description The best model under rankBy. */
@@ -3162,10 +3205,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["CautionInput"][];
@@ -3412,9 +3455,12 @@ export interface components {
             of: string;
             reference?: string;
         });
-        /** @enum {string} */
-        Criterion: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2";
-        /** @description A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows). */
+        /**
+         * @description A ranking criterion. qaic and qaicc exist only in a comparison with options.overdispersion (they divide the log-likelihood by ĉ); naming them without it is refused (422).
+         * @enum {string}
+         */
+        Criterion: "aicc" | "aic" | "bic" | "hqc" | "adjustedR2" | "qaic" | "qaicc";
+        /** @description A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials). */
         NestedTest: {
             smaller: string;
             larger: string;
@@ -3422,11 +3468,11 @@ export interface components {
             df: number;
             /** @description Denominator df of F: n − rank of the larger model. */
             residualDf: number;
-            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf). */
+            /** @description Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf); for generalised linear models whose family estimates its dispersion (Gaussian, gamma, inverse Gaussian), ((D_s − D_l)/df) / φ̂ with φ̂ = Pearson χ²/residualDf of the larger model; null where the family fixes the dispersion (binomial, Poisson, negative binomial). */
             fStatistic: number | null;
             /** @description Upper tail of F(df, residualDf), via the regularised incomplete beta function. */
             fPValue: number | null;
-            /** @description Likelihood ratio 2(logL_l − logL_s). */
+            /** @description Likelihood ratio 2(logL_l − logL_s); for binomial and Poisson models the difference of their deviances. */
             lrStatistic: number | null;
             /** @description Upper tail of χ²(df), via the regularised incomplete gamma function. */
             lrPValue: number | null;
@@ -3474,6 +3520,11 @@ export interface components {
                 fn: "log" | "sqrt" | "boxcox";
                 lambda?: number;
             } | null;
+            /** @description The family and link of averaged generalised linear model coefficients (they are on that link scale; models of another family or link are excluded); null for least-squares coefficients. */
+            glm: {
+                family: string;
+                link: string;
+            } | null;
             /** @description Models whose coefficients were not averaged, and why. */
             excluded: {
                 name: string;
@@ -3496,7 +3547,35 @@ export interface components {
             } | null;
             notes: string[];
         };
-        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model's cautions (code assumption_check). */
+        /** @description Overdispersion (Pearson χ²/df) and the standardised deviance residuals of a generalised linear model; leverage and Cook's distance (influence) come from the design weighted by the final IRLS weights. A failed check is said in plain words among the model's cautions (code assumption_check). */
+        GlmChecks: {
+            overdispersion: {
+                pearsonChiSquare: number;
+                residualDf: number;
+                /** @description Pearson χ² / residual df: about 1 when the family's variance holds. */
+                ratio: number | null;
+                /** @description The upper 0.05 point of χ²(df)/df: a ratio above it is unlikely by chance under the family's variance. Null where not checked: families that estimate their dispersion (Gaussian, gamma, inverse Gaussian), a 0/1 binomial response, no residual df. */
+                threshold: number | null;
+                /** @description Pearson's goodness-of-fit test: upper tail of χ²(residual df) at Pearson χ² (large-sample). */
+                pValue: number | null;
+                passed: boolean | null;
+                note: string;
+            };
+            devianceResiduals: {
+                /** @description Largest |deviance residual| / √(φ (1 − h)). */
+                maxAbsolute: number | null;
+                /** @description Data row (0-based, as sent) of the largest. */
+                maxAbsoluteRow: number | null;
+                /** @description Standardised deviance residuals beyond ±3 are flagged (common practice: rare for a standard normal). */
+                threshold: number;
+                largeRows: number;
+                /** @description Data rows (0-based, as sent) beyond the threshold. */
+                largeRowIndices: number[];
+                passed: boolean | null;
+                note: string;
+            };
+        };
+        /** @description Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family's own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model's cautions (code assumption_check). */
         Diagnostics: {
             available: boolean;
             reason: string | null;
@@ -3562,6 +3641,8 @@ export interface components {
                 highLeverageRowIndices: number[];
                 passed: boolean | null;
             };
+            /** @description Generalised linear models fitted here only: the checks that belong to the family. */
+            glm?: components["schemas"]["GlmChecks"];
         };
         SummaryWeights: {
             /** @description Σ w over the rows. */
@@ -3800,13 +3881,13 @@ export interface components {
         /** @description One of the seven candidate forms: terms (fitted here: least squares, or a generalised linear model with family), residuals, rss, logLikelihood, fitted (means of a generalised linear model fitted elsewhere), distribution (a life distribution fitted here), or expression (a nonlinear mean function fitted here). */
         Candidate: components["schemas"]["FittedCandidate"] | components["schemas"]["ResidualsCandidate"] | components["schemas"]["RssCandidate"] | components["schemas"]["LikelihoodCandidate"] | components["schemas"]["FittedMeansCandidate"] | components["schemas"]["LifetimeCandidate"] | components["schemas"]["NonlinearCandidate"];
         ComparisonOptions: {
-            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values. */
+            /** @description The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise; a policy ranking by qaic or qaicc ranks a comparison without options.overdispersion by aic or aicc). qaic and qaicc need options.overdispersion (422 without it); the verdict then chooses by QAIC or QAICc, and averages by their weights. May be given here or at the top level of the request (as searches take it), not both with different values. */
             rankBy?: components["schemas"]["Criterion"];
             /** @description Cumulative weight of the confidence set; default from the team policy (0.95). */
             confidenceLevel?: number;
             /** @description Confidence level of the coefficient and prediction intervals (default 0.95). */
             intervalLevel?: number;
-            /** @description Pairs to test besides those found automatically; each must be nested. */
+            /** @description Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). */
             tests?: {
                 smaller: string;
                 larger: string;
@@ -3820,7 +3901,7 @@ export interface components {
              */
             average: "all" | "confidenceSet";
             overdispersion?: components["schemas"]["OverdispersionOption"];
-            /** @description New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). */
+            /** @description New rows (the columns the fitted candidates use, a GLM's offset column included; not the trials column) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). A generalised linear model predicts its mean (the success probability for the binomial) with the link-scale interval mapped by the inverse link. */
             predict?: {
                 columns: {
                     [key: string]: (number | string | null)[];
@@ -3834,7 +3915,7 @@ export interface components {
             response?: string;
             /** @description The name of a numeric column of data.columns holding relative weights (positive; 0 leaves a row out). */
             weights?: string | null;
-            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
             trials?: string;
             censoring?: components["schemas"]["Censoring"];
             /** @description The same as options.rankBy, accepted here as POST /v1/searches takes it; giving both with different values is refused. */
@@ -3919,10 +4000,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["Caution"][];
@@ -3997,6 +4078,7 @@ export interface components {
             band: string | null;
         };
         Verdict: {
+            /** @description True when every criterion that ranked a model picks the same one; with options.overdispersion QAIC and QAICc count too, so a model that wins only on the unscaled likelihood does not make the criteria agree. */
             agree: boolean;
             best: {
                 aicc: string | null;
@@ -4004,6 +4086,10 @@ export interface components {
                 bic: string | null;
                 hqc: string | null;
                 adjustedR2: string | null;
+                /** @description With options.overdispersion only. */
+                qaic?: string | null;
+                /** @description With options.overdispersion only. */
+                qaicc?: string | null;
             };
             rankBy: components["schemas"]["Criterion"];
             /** @description The best model under rankBy. */
@@ -4365,10 +4451,10 @@ export interface components {
             /** @description How predictions relate to the response as sent; null when no predictions were asked for. Predictions are always on the response's original scale. */
             predictionScale: {
                 /**
-                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.
+                 * @description none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model's mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.
                  * @enum {string}
                  */
-                backTransform: "none" | "median";
+                backTransform: "none" | "median" | "inverseLink";
                 description: string;
             } | null;
             cautions: components["schemas"]["Caution"][];

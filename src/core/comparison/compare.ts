@@ -3,7 +3,7 @@
 // convention, rankings under every criterion, the verdict. Returns the result,
 // or every issue that prevents it (never throws for input).
 import { columnsUsedBy, sampleRows } from '../design/index.ts';
-import type { CriterionName } from '../scoring/criteria.ts';
+import type { CriterionName, RankingCriterion } from '../scoring/criteria.ts';
 import { verdict, type Verdict } from '../scoring/verdict.ts';
 import { issue, type Issue } from '../issues.ts';
 import { datasetFingerprint } from '../fingerprint.ts';
@@ -16,13 +16,14 @@ import { NONLINEAR_CONVENTIONS } from '../models/nonlinear/conventions.ts';
 import type { ScoringContext } from '../models/scoring-context.ts';
 import { estimationIssues } from './estimation-rules.ts';
 import { measureMixIssue } from './measure-mix.ts';
-import { overdispersionCriteria, type OverdispersionRequest, type OverdispersionResult } from './overdispersion.ts';
+import { overdispersionCriteria, quasiRankByIssue, unscaledRankingCaution, type OverdispersionRequest, type OverdispersionResult } from './overdispersion.ts';
 import { glmExtraColumns } from '../models/glm/candidate.ts';
 import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
 import { checksCaution, comparisonCautions, type Caution } from '../scoring/cautions.ts';
 import { conventions, type Conventions } from './conventions.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 import { averagingCautions } from './extras/averaging.ts';
+import { trialsUse } from './trials-use.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 import type { CensoringColumns } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
@@ -38,11 +39,15 @@ export interface ComparisonInput {
   weights: string | null;
   candidates: CandidateInput[];
   /** The request's own choices; the policy fills what it leaves out. */
-  rankBy?: CriterionName;
+  rankBy?: RankingCriterion;
+  /** Where the request gave rankBy, to name it in a refusal (default options.rankBy). */
+  rankByPath?: string[];
   confidenceLevel?: number;
   /** Confidence level of coefficient and prediction intervals (default 0.95). */
   intervalLevel?: number;
   expectedFingerprint?: string;
+  /** The request-level trials column, read by binomial candidates (each carries it too). */
+  trials?: string | null;
   /** Request-level censoring: the status column and the upper column of interval rows. */
   censoring?: CensoringColumns | null;
   /** options.percentiles, read by lifetime models. */
@@ -74,6 +79,19 @@ function candidateColumns(c: CandidateInput): string[] {
   if (c.form === 'fitted') return glmExtraColumns(c);
   if (c.form === 'lifetime') return columnsUsedBy(c.terms);
   return [];
+}
+
+/** Trials columns no candidate also reads as a term or offset: prediction rows need not carry them. */
+function trialsOnlyColumns(input: ComparisonInput): Set<string> {
+  const out = new Set(input.candidates.flatMap((c) => ((c.form === 'glm' || c.form === 'fitted') && c.family === 'binomial' && c.trials ? [c.trials] : [])));
+  if (out.size === 0 || !input.columns) return out;
+  for (const c of input.candidates) {
+    const read = c.form === 'expression' ? expressionColumnsUsed(c, input.columns)
+      : c.form === 'glm' ? [...columnsUsedBy(c.terms), ...(c.offset ? [c.offset] : [])]
+        : c.form === 'fitted' ? [] : candidateColumns(c);
+    for (const column of read) out.delete(column);
+  }
+  return out;
 }
 
 type Rows = { ctx: ScoringContext; dropped: number; used: string[]; missingWeights: number; zeroWeights: number };
@@ -117,6 +135,9 @@ function scoringRows(input: ComparisonInput, issues: Issue[]): Rows | null {
 export function compareModels(
   input: ComparisonInput,
 ): { result: ComparisonOutcome } | { issues: Issue[] } {
+  // Before any row is read or model fitted: a trials column nobody reads is a request to fix.
+  const trials = trialsUse(input.trials, input.candidates);
+  if ('issue' in trials) return { issues: [trials.issue] };
   const issues: Issue[] = [];
   const scoring = scoringRows(input, issues);
   if (!scoring) return { issues };
@@ -144,19 +165,24 @@ export function compareModels(
     return { issues: [issue('fingerprint_mismatch', ['datasetFingerprint'], { expected: input.expectedFingerprint, actual: fingerprint })] };
   }
 
+  const refusedRankBy = quasiRankByIssue(input);
+  if (refusedRankBy) return { issues: [refusedRankBy] };
   const largestK = Math.max(...models.map((m) => m.parameters));
   const ratio = largestK > 0 ? ctx.n / largestK : null;
-  const choice = chooseRankBy(input.rankBy, input.policy, ratio);
+  const choice = chooseRankBy(input.rankBy, input.policy, ratio, input.overdispersion !== undefined);
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
-  const rankings = rankAll(models, confidenceLevel, input.policy);
   const quasi = input.overdispersion ? overdispersionCriteria(models, input.overdispersion, confidenceLevel, input.policy) : null;
   if (quasi && 'code' in quasi) return { issues: [quasi] };
   if (quasi) quasi.values.forEach((v, i) => Object.assign(models[i], { qaic: v.qaic, qaicc: v.qaicc }));
+  // QAIC and QAICc, when present, rank, weigh and average like the others.
+  const rankings = { ...rankAll(models, confidenceLevel, input.policy), ...(quasi ? quasi.rankings : {}) };
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
+  const trialsColumns = trialsOnlyColumns(input);
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
-    // The status column decides rows but is no term: prediction rows need not carry it.
-    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status),
+    // The status and trials columns decide rows and likelihoods but are no terms: prediction rows need not carry them
+    // (a binomial predicts the success probability per trial).
+    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status && !trialsColumns.has(c)),
     scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;
@@ -172,9 +198,9 @@ export function compareModels(
       policy: { name: input.policy.name, hash: input.policyHash },
       dataset: { fingerprint, observations: ctx.n, rowsDropped: dropped, response: input.response, weights: input.weights },
       models,
-      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })), ...(quasi ? quasi.rankings : {}) },
+      rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })) },
       ...(quasi ? { overdispersion: { cHat: quasi.cHat, source: quasi.source, df: quasi.df, belowOne: quasi.belowOne } } : {}),
-      verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
+      verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n, cHat: quasi?.cHat ?? null }),
       nestedTests: [...extras.nestedTests, ...lifetimeLikelihoodRatioTests(scored, JSON.stringify([input.response, input.censoring ?? null]))],
       averaged: extras.averaged,
       cautions: [
@@ -183,8 +209,10 @@ export function compareModels(
           weights: input.weights, missingWeights: scoring.missingWeights, zeroWeights: scoring.zeroWeights,
         }),
         ...checksCaution(models),
-        ...averagingCautions(extras.averaged, rankings[choice.rankBy]),
+        ...averagingCautions(extras.averaged, rankings[choice.rankBy] ?? []),
         ...lifetimeCautions(input.candidates),
+        ...unscaledRankingCaution(quasi, choice.rankBy),
+        ...trials.cautions,
       ],
     },
   };

@@ -1,6 +1,6 @@
 // What every response says it did, in words a reviewer can check against the
 // README. Bump CONVENTIONS_VERSION whenever any number could change meaning.
-import type { CriterionName } from '../scoring/criteria.ts';
+import type { RankingCriterion } from '../scoring/criteria.ts';
 import type { RankByChoice } from '../scoring/policy.ts';
 import { ALIAS_TOLERANCE } from '../fit/index.ts';
 import { PIVOT_TOLERANCE } from '../search/sweep.ts';
@@ -22,7 +22,7 @@ export interface Conventions {
   rank: string;
   fittedElsewhere: string;
   responseTransforms: string;
-  rankBy: CriterionName;
+  rankBy: RankingCriterion;
   rankByReason: string;
   confidenceLevel: number;
   inference: string;

@@ -3,7 +3,8 @@
 // logLikelihood candidates join as usual, since they need no rows. Residuals
 // candidates and response transforms need the rows and are refused with the
 // reason. Rankings, verdict, conventions and cautions are the comparison's own.
-import type { CriterionName } from '../scoring/criteria.ts';
+import type { CriterionName, RankingCriterion } from '../scoring/criteria.ts';
+import { quasiRankByIssue } from './overdispersion.ts';
 import { issue, type Issue } from '../issues.ts';
 import { chooseRankBy, type Policy } from '../scoring/policy.ts';
 import { verdict } from '../scoring/verdict.ts';
@@ -24,7 +25,7 @@ import { estimationIssues } from './estimation-rules.ts';
 import { scoreExternalCandidate } from '../models/external/external-model.ts';
 import type { ScoringContext } from '../models/scoring-context.ts';
 import type { ModelResult } from '../models/model-result.ts';
-import { rankAll } from '../scoring/rankings.ts';
+import { rankAll, type BandedEntry } from '../scoring/rankings.ts';
 import { rankByLeaveOneOut } from '../loo.ts';
 import { summaryExtras, type SummaryFitted } from './summary-extras.ts';
 import { averagingCautions } from './extras/averaging.ts';
@@ -37,7 +38,8 @@ export interface SummaryComparisonInput {
   candidates: CandidateInput[];
   /** Refused: censoring belongs to rows. */
   censoring?: unknown;
-  rankBy?: CriterionName;
+  rankBy?: RankingCriterion;
+  rankByPath?: string[];
   confidenceLevel?: number;
   intervalLevel?: number;
   /** Refused from a summary (see below). */
@@ -130,17 +132,19 @@ export function compareFromSummary(input: SummaryComparisonInput): { result: Com
   const confidenceLevel = input.confidenceLevel ?? input.policy.confidenceLevel;
   // No model from a summary has a Pearson χ², and QAIC is for the counts a summary cannot carry.
   if (input.overdispersion) return { issues: [issue('summary_rows_needed', ['options', 'overdispersion'], { form: 'options.overdispersion', reason: 'QAIC concerns models of counts, whose likelihoods sum over the rows' })] };
-  const rankings = rankAll(models, confidenceLevel, input.policy);
+  const refusedRankBy = quasiRankByIssue({ rankBy: input.rankBy, rankByPath: input.rankByPath });
+  if (refusedRankBy) return { issues: [refusedRankBy] };
+  const rankings: Partial<Record<RankingCriterion, BandedEntry[]>> & ReturnType<typeof rankAll> = rankAll(models, confidenceLevel, input.policy);
   const parameters = Object.fromEntries(models.map((m) => [m.name, m.parameters]));
   const intervalLevel = input.intervalLevel ?? DEFAULT_INTERVAL_LEVEL;
   const extras = summaryExtras({
-    fitted, models, ranking: rankings[choice.rankBy], criterion: choice.rankBy, over: input.extras?.average ?? 'all',
+    fitted, models, ranking: rankings[choice.rankBy] ?? [], criterion: choice.rankBy, over: input.extras?.average ?? 'all',
     predict: input.extras?.predict?.columns, intervalLevel,
   });
   if ('issues' in extras) return extras;
   const cautions = comparisonCautions({ dropped: 0, n: summary.rows, hasData: true, models, requestedRankBy: input.rankBy, ratio, policy: input.policy });
   cautions.splice(1, 0, SUMMARY_INPUT_CAUTION);
-  cautions.push(...averagingCautions(extras.averaged, rankings[choice.rankBy]));
+  cautions.push(...averagingCautions(extras.averaged, rankings[choice.rankBy] ?? []));
   return {
     result: {
       // Every fitted candidate here was solved by sweeping the summary's cross products.

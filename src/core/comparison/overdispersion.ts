@@ -10,6 +10,8 @@ import type { ModelResult } from '../models/model-result.ts';
 import { rankModels } from '../scoring/ranking.ts';
 import { deltaBand, type Policy } from '../scoring/policy.ts';
 import type { BandedEntry } from '../scoring/rankings.ts';
+import { isQuasiCriterion, rankingCriterionInfo, type RankingCriterion } from '../scoring/criteria.ts';
+import type { Caution } from '../scoring/cautions.ts';
 
 export interface OverdispersionRequest {
   cHat: number | 'estimate';
@@ -57,4 +59,38 @@ export function overdispersionCriteria(
     values: values.map(({ name, qaic, qaicc }) => ({ name, qaic, qaicc })),
     rankings: { qaic: rank('qaic'), qaicc: rank('qaicc') },
   };
+}
+
+/**
+ * rankBy names QAIC or QAICc but the comparison has no ĉ: refused, since
+ * choosing by a criterion that was never computed would choose nothing.
+ */
+export function quasiRankByIssue(input: { rankBy?: RankingCriterion; rankByPath?: string[]; overdispersion?: OverdispersionRequest }): Issue | null {
+  if (input.rankBy === undefined || !isQuasiCriterion(input.rankBy) || input.overdispersion !== undefined) return null;
+  return issue('rank_by_needs_overdispersion', input.rankByPath ?? ['options', 'rankBy'], { rankBy: input.rankBy });
+}
+
+/**
+ * Where the comparison has a ĉ: said when ĉ > 1 but the choice is made by a
+ * criterion that ignores it, and when ĉ was estimated from a candidate (whose
+ * own lack of fit then counts as overdispersion). Burnham & Anderson 2002, §2.5.
+ */
+export function unscaledRankingCaution(quasi: Omit<OverdispersionResult, 'values' | 'rankings'> | null, rankBy: RankingCriterion): Caution[] {
+  if (!quasi) return [];
+  const out: Caution[] = [];
+  const c = quasi.cHat.toPrecision(4);
+  if (quasi.cHat > 1 && !isQuasiCriterion(rankBy)) {
+    const label = rankingCriterionInfo(rankBy).label;
+    out.push({
+      code: 'overdispersion_not_ranked_by',
+      message: `ĉ = ${c} is above 1: the counts vary more than the family allows, so criteria on the plain log-likelihood (${label} among them) favour models with too many parameters. This comparison chooses by ${label}; QAIC or QAICc (rankBy "qaic" or "qaicc") allow for ĉ.`,
+    });
+  }
+  if (quasi.source !== 'given') {
+    out.push({
+      code: 'overdispersion_estimated',
+      message: `ĉ = ${c} is estimated from candidate ${JSON.stringify(quasi.source)} (Pearson χ² over its residual degrees of freedom), which counts all of that model's lack of fit as overdispersion. If it misses a term or has the wrong link, ĉ is too large and QAIC favours models that are too small; check that model before trusting the QAIC ranking.`,
+    });
+  }
+  return out;
 }

@@ -7,7 +7,7 @@ import { issue, type Issue } from '../issues.ts';
 import { predictionWithIntervals, type ScaledPrediction } from '../inference/prediction-intervals.ts';
 import { twoSidedCritical } from '../inference/coefficient-tests.ts';
 import { responseScale } from '../inference/back-transform.ts';
-import type { CriterionName } from '../scoring/criteria.ts';
+import type { RankingCriterion } from '../scoring/criteria.ts';
 import type { SummaryFit } from '../summary/index.ts';
 import { predictFromSummary } from '../summary/summary-predict.ts';
 import type { ModelResult } from '../models/model-result.ts';
@@ -49,7 +49,7 @@ export function summaryExtras(input: {
   fitted: readonly SummaryFitted[];
   models: ModelResult[];
   ranking: readonly BandedEntry[];
-  criterion: CriterionName;
+  criterion: RankingCriterion;
   over: 'all' | 'confidenceSet';
   predict: PredictionColumns | undefined;
   intervalLevel: number;

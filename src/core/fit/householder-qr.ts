@@ -98,7 +98,21 @@ export function householderQR(
     if (chosen < 0) break;
     accepted.push(chosen);
     const offV = chosen * n;
-    for (let d = next; d < q; d++) {
+    let d = next;
+    if (current >= 0) {
+      // Four (then two) pending columns per pass: each column's operations are
+      // exactly those of applyAndDot, so the result is bit-identical, but the two
+      // reflectors are read once for all of them and the dot products accumulate
+      // side by side instead of waiting on one another (~30% less time at
+      // 100,000 x 31, scripts/bench-large-fit.ts).
+      for (; d + 3 < q; d += 4) {
+        applyAndDotQuad(work, n, current * n, k - 1, beta[k - 1], d, dots, offV);
+      }
+      for (; d + 1 < q; d += 2) {
+        applyAndDotPair(work, n, current * n, k - 1, beta[k - 1], d * n, (d + 1) * n, dots, d, offV);
+      }
+    }
+    for (; d < q; d++) {
       const offD = d * n;
       if (current < 0) {
         let s = 0;
@@ -144,6 +158,78 @@ function applyAndDot(
     t += work[offW + i] * x;
   }
   return t;
+}
+
+/** applyAndDot for the columns at offD and offE (dots[d] and dots[d + 1]) in one pass; results in dots. */
+function applyAndDotPair(
+  work: Float64Array, n: number, offV: number, k: number, b: number, offD: number, offE: number,
+  dots: Float64Array, d: number, offW: number,
+): void {
+  const f = dots[d] / b;
+  const g = dots[d + 1] / b;
+  if (k < n) {
+    work[offD + k] -= f * work[offV + k];
+    work[offE + k] -= g * work[offV + k];
+  }
+  let t = 0;
+  let u = 0;
+  for (let i = k + 1; i < n; i++) {
+    const v = work[offV + i];
+    const w = work[offW + i];
+    const x = work[offD + i] - f * v;
+    const y = work[offE + i] - g * v;
+    work[offD + i] = x;
+    work[offE + i] = y;
+    t += w * x;
+    u += w * y;
+  }
+  dots[d] = t;
+  dots[d + 1] = u;
+}
+
+/** applyAndDot for the four columns d..d+3 (each n long, dots[d..d+3]) in one pass; results in dots. */
+function applyAndDotQuad(
+  work: Float64Array, n: number, offV: number, k: number, b: number, d: number, dots: Float64Array, offW: number,
+): void {
+  const o0 = d * n;
+  const o1 = o0 + n;
+  const o2 = o1 + n;
+  const o3 = o2 + n;
+  const f0 = dots[d] / b;
+  const f1 = dots[d + 1] / b;
+  const f2 = dots[d + 2] / b;
+  const f3 = dots[d + 3] / b;
+  if (k < n) {
+    const v = work[offV + k];
+    work[o0 + k] -= f0 * v;
+    work[o1 + k] -= f1 * v;
+    work[o2 + k] -= f2 * v;
+    work[o3 + k] -= f3 * v;
+  }
+  let t0 = 0;
+  let t1 = 0;
+  let t2 = 0;
+  let t3 = 0;
+  for (let i = k + 1; i < n; i++) {
+    const v = work[offV + i];
+    const w = work[offW + i];
+    const x0 = work[o0 + i] - f0 * v;
+    const x1 = work[o1 + i] - f1 * v;
+    const x2 = work[o2 + i] - f2 * v;
+    const x3 = work[o3 + i] - f3 * v;
+    work[o0 + i] = x0;
+    work[o1 + i] = x1;
+    work[o2 + i] = x2;
+    work[o3 + i] = x3;
+    t0 += w * x0;
+    t1 += w * x1;
+    t2 += w * x2;
+    t3 += w * x3;
+  }
+  dots[d] = t0;
+  dots[d + 1] = t1;
+  dots[d + 2] = t2;
+  dots[d + 3] = t3;
 }
 
 // applyQt and applyQ fuse the update by one reflector with the dot product for

@@ -6,7 +6,7 @@
 // the textbook result for the Gaussian linear model). With relative weights
 // the same holds for the weighted fit, whose se_j are already scaled by
 // σ̂² = Σ w e² / (n − p).
-import { tQuantile, tTwoSidedPValue } from './distributions.ts';
+import { normalQuantile, tQuantile, tTwoSidedPValue } from './distributions.ts';
 
 /** The confidence level of every interval unless a request says otherwise. */
 export const DEFAULT_INTERVAL_LEVEL = 0.95;
@@ -26,7 +26,8 @@ const NONE: CoefficientTest = { tStatistic: null, pValue: null, lower: null, upp
  */
 export function twoSidedCritical(level: number, df: number): number | null {
   if (!(df > 0) || !(level > 0 && level < 1)) return null;
-  const q = tQuantile((1 + level) / 2, df);
+  // df = Infinity: the standard normal, the large-sample interval of a GLM with its dispersion fixed by the family.
+  const q = Number.isFinite(df) ? tQuantile((1 + level) / 2, df) : normalQuantile((1 + level) / 2);
   return Number.isFinite(q) ? q : null;
 }
 

@@ -14,7 +14,7 @@
 import type { LeastSquaresFit } from '../types.ts';
 import { chiSquareUpperTail, fUpperTail } from './distributions.ts';
 import type { StatisticsIssue } from './issue.ts';
-import { collectNestedTests, type NestedPairRequest } from './nested-pairs.ts';
+import { collectNestedTests, type NestedPairRequest, type NestingRules } from './nested-pairs.ts';
 
 export interface NestedCandidate {
   name: string;
@@ -104,6 +104,18 @@ export function nestedTest(smaller: NestedCandidate, larger: NestedCandidate): N
   return { ...base, fStatistic, fPValue: fUpperTail(fStatistic, df, residualDf), lrStatistic, lrPValue, reason: null };
 }
 
+/** What "nested" means between least-squares fits and what a test computes (see nested-pairs.ts). */
+export const LEAST_SQUARES_NESTING: NestingRules<NestedCandidate, { smaller: NestedCandidate; larger: NestedCandidate }, NestedTest> = {
+  order: nestingOrder,
+  test: (order) => nestedTest(order.smaller, order.larger),
+  notNested: (pair, a, b) => ({
+    code: 'nested-test-not-nested',
+    message: notNestedReason(a, b),
+    facts: { smaller: pair.smaller, larger: pair.larger, smallerRank: a.fit.rank, largerRank: b.fit.rank },
+  }),
+  unknownCandidate: 'A requested nested test names a candidate that is not among those compared, or one that is not tested on request: requested tests are F and likelihood-ratio tests between least-squares candidates fitted here (not a model fitted elsewhere, a nonlinear, generalised linear or life candidate; life candidates get their likelihood-ratio tests without asking).',
+};
+
 /**
  * Every nested pair among the candidates (in candidate order of the smaller,
  * then the larger), plus the pairs a request names. A named pair that is not
@@ -114,16 +126,7 @@ export function nestedTests(
   candidates: readonly NestedCandidate[],
   requested: readonly NestedPairRequest[] = [],
 ): { tests: NestedTest[]; issues: StatisticsIssue[] } {
-  return collectNestedTests(candidates, requested, {
-    order: nestingOrder,
-    test: (order) => nestedTest(order.smaller, order.larger),
-    notNested: (pair, a, b) => ({
-      code: 'nested-test-not-nested',
-      message: notNestedReason(a, b),
-      facts: { smaller: pair.smaller, larger: pair.larger, smallerRank: a.fit.rank, largerRank: b.fit.rank },
-    }),
-    unknownCandidate: 'A requested nested test names a candidate that is not among those compared, or one that is not tested on request: requested tests are F and likelihood-ratio tests between least-squares candidates fitted here (not a model fitted elsewhere, a nonlinear, generalised linear or life candidate; life candidates get their likelihood-ratio tests without asking).',
-  });
+  return collectNestedTests(candidates, requested, LEAST_SQUARES_NESTING);
 }
 
 function notNestedReason(a: NestedCandidate, b: NestedCandidate): string {

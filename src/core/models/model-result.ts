@@ -11,7 +11,8 @@ import type { NonlinearConvergence } from './nonlinear/result.ts';
 
 /** How a model's predictions relate to the response as sent. */
 export interface PredictionScale {
-  backTransform: 'none' | 'median';
+  /** inverseLink: a generalised linear model's mean, its link-scale interval mapped by the inverse link. */
+  backTransform: 'none' | 'median' | 'inverseLink';
   description: string;
 }
 

@@ -4,7 +4,7 @@
 // what it can offer after the ranking. Ranking, averaging and the checks ask a
 // model for a capability; they never look inside how it was fitted.
 import type { ModelDiagnostics } from '../diagnostics/index.ts';
-import type { NestedCandidate } from '../inference/nested.ts';
+import type { NestingOffer } from '../inference/nesting-offers.ts';
 import type { LifetimeNestingCandidate } from './lifetime/nested.ts';
 import type { PredictionWithIntervals, ScaledPrediction } from '../inference/prediction-intervals.ts';
 import type { Issue } from '../issues.ts';
@@ -48,8 +48,11 @@ export interface ModelCapabilities {
   checks?: (rows: readonly number[]) => ModelChecks;
   /** Mean response at new rows with standard errors and intervals. */
   predict?: (at: PredictionRequest) => ModelPredictions | { issues: Issue[] };
-  /** What a nested-model test needs; `sample` names the response scale and rows it was fitted to. */
-  nested?: (sample: string) => NestedCandidate;
+  /**
+   * The model offered to nested-model tests under its kind's rules (least squares, GLM); `sample` names the
+   * response, weights and rows it was fitted to. Only models under the same rules are paired.
+   */
+  nested?: (sample: string) => NestingOffer;
   /** What a likelihood-ratio test between life models needs (their own nesting rules: lifetime/nested.ts). */
   lifetimeNesting?: (sample: string) => LifetimeNestingCandidate;
   /** Identities of its coefficients' columns, for averaging coefficients across models. */

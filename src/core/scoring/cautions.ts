@@ -1,5 +1,5 @@
 // Cautions that concern the whole comparison rather than one model.
-import type { CriterionName } from './criteria.ts';
+import { rankingCriterionInfo, type RankingCriterion } from './criteria.ts';
 import type { Policy } from './policy.ts';
 
 export interface Caution {
@@ -25,7 +25,7 @@ export interface ComparisonCautionFacts {
   n: number;
   hasData: boolean;
   models: readonly ScaleFacts[];
-  requestedRankBy: CriterionName | undefined;
+  requestedRankBy: RankingCriterion | undefined;
   /** n / k of the largest candidate. */
   ratio: number | null;
   policy: Policy;
@@ -74,10 +74,12 @@ export function comparisonCautions(f: ComparisonCautionFacts): Caution[] {
     });
   }
   const threshold = f.policy.preferAiccBelowRatio;
-  if (f.requestedRankBy === 'aic' && threshold !== null && f.ratio !== null && f.ratio < threshold) {
+  const requested = f.requestedRankBy;
+  if ((requested === 'aic' || requested === 'qaic') && threshold !== null && f.ratio !== null && f.ratio < threshold) {
+    const label = rankingCriterionInfo(requested).label;
     out.push({
       code: 'small_sample_aic',
-      message: `n/k = ${f.ratio.toFixed(1)} for the largest candidate is below ${threshold}; AIC's penalty is then too light and AICc is the usual choice (Burnham & Anderson 2002). The request asked for AIC, so it ranks by AIC.`,
+      message: `n/k = ${f.ratio.toFixed(1)} for the largest candidate is below ${threshold}; ${label}'s penalty is then too light and ${label}c is the usual choice (Burnham & Anderson 2002). The request asked for ${label}, so it ranks by ${label}.`,
     });
   }
   return out;

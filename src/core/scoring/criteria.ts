@@ -132,6 +132,36 @@ export function criterionDefinition(name: CriterionName): CriterionDefinition {
   return CRITERIA.find((c) => c.name === name)!;
 }
 
+/** What ranking and the verdict need to know of a criterion: everything but how to compute it. */
+export type RankingCriterionInfo = Omit<CriterionDefinition, 'compute'>;
+
+/**
+ * Criteria on the quasi-likelihood of overdispersed counts (Burnham & Anderson
+ * 2002, §2.5): ℓ divided by one overdispersion factor ĉ for the whole
+ * comparison, k counting ĉ. They exist only when a comparison has a ĉ
+ * (options.overdispersion), so they are not computed per model with the
+ * criteria above; whoever holds ĉ computes them and ranks them like AIC.
+ */
+export const QUASI_CRITERIA = [
+  { name: 'qaic', label: 'QAIC', direction: 'smaller', weighted: true, formula: '-2 logL/ĉ + 2k, k counting ĉ' },
+  { name: 'qaicc', label: 'QAICc', direction: 'smaller', weighted: true, formula: 'qaic + 2k(k+1)/(n-k-1), null when n-k-1 <= 0' },
+] as const satisfies readonly RankingCriterionInfo[];
+
+export type QuasiCriterionName = (typeof QUASI_CRITERIA)[number]['name'];
+
+/** Every criterion a comparison may rank and choose by. */
+export type RankingCriterion = CriterionName | QuasiCriterionName;
+
+export const RANKING_CRITERIA: readonly (RankingCriterionInfo & { name: RankingCriterion })[] = [...CRITERIA, ...QUASI_CRITERIA];
+
+export function isQuasiCriterion(name: RankingCriterion): name is QuasiCriterionName {
+  return QUASI_CRITERIA.some((c) => c.name === name);
+}
+
+export function rankingCriterionInfo(name: RankingCriterion): RankingCriterionInfo {
+  return RANKING_CRITERIA.find((c) => c.name === name)!;
+}
+
 /** R² = 1 - RSS/TSS, on the TSS the fit supplies (centred or uncentred). */
 export function coefficientOfDetermination(s: FitSummary): Computed {
   if (s.rss === null || s.tss === null) return { undefinedBecause: 'r2_unavailable' };

@@ -1,7 +1,7 @@
 // A team policy: the defaults a team agrees on once (POLICY_FILE), so that two
 // dashboards ranking the same data use the same rules and can prove it (every
 // response names the policy and its hash).
-import type { CriterionName } from './criteria.ts';
+import { rankingCriterionInfo, type QuasiCriterionName, type RankingCriterion } from './criteria.ts';
 
 export interface DeltaBand {
   /** Upper end of the band; null for the last, open-ended band. */
@@ -13,14 +13,15 @@ export interface DeltaBand {
 
 export interface Policy {
   name: string;
-  rankBy: CriterionName;
+  /** QAIC or QAICc apply where the comparison has a ĉ; elsewhere AIC or AICc stand in (chooseRankBy). */
+  rankBy: RankingCriterion;
   confidenceLevel: number;
   /**
-   * Rank by AICc instead of AIC when n/k of the largest candidate is below this
+   * Rank by AICc instead of AIC (QAICc instead of QAIC) when n/k of the largest candidate is below this
    * ratio (Burnham & Anderson 2002's rule of thumb: 40); null turns it off.
    */
   preferAiccBelowRatio: number | null;
-  /** Wording for Δ on AIC, AICc and HQC. */
+  /** Wording for Δ on AIC, AICc, HQC, QAIC and QAICc. */
   akaikeBands: DeltaBand[];
   /** Wording for Δ on BIC (2 ln of an approximate Bayes factor). */
   bicBands: DeltaBand[];
@@ -52,7 +53,7 @@ export const DEFAULT_POLICY: Policy = {
   ],
 };
 
-export function deltaBand(delta: number | null, criterion: CriterionName, policy: Policy): string | null {
+export function deltaBand(delta: number | null, criterion: RankingCriterion, policy: Policy): string | null {
   if (delta === null) return null;
   const bands = criterion === 'bic' ? policy.bicBands : criterion === 'adjustedR2' ? null : policy.akaikeBands;
   if (!bands) return null;
@@ -64,24 +65,46 @@ export function deltaBand(delta: number | null, criterion: CriterionName, policy
 }
 
 export interface RankByChoice {
-  rankBy: CriterionName;
+  rankBy: RankingCriterion;
   /** How it was chosen, for conventions.rankBy and the reader. */
   reason: string;
 }
 
+/** The likelihood criterion a quasi criterion reduces to without a ĉ (ĉ = 1). */
+const UNSCALED: Record<QuasiCriterionName, 'aic' | 'aicc'> = { qaic: 'aic', qaicc: 'aicc' };
+/** The small-sample form of a criterion with one. */
+const SMALL_SAMPLE: Partial<Record<RankingCriterion, RankingCriterion>> = { aic: 'aicc', qaic: 'qaicc' };
+
 /**
- * The request's criterion wins; otherwise the policy's default, switched from
- * AIC to AICc when the sample is small for the largest model (n/k below the
- * policy's ratio), where AIC's penalty is known to be too light.
+ * The request's criterion wins; otherwise the policy's default. A policy that
+ * ranks by QAIC or QAICc ranks a comparison without a ĉ (no
+ * options.overdispersion) by AIC or AICc, what they become at ĉ = 1. Then
+ * AIC is switched to AICc (QAIC to QAICc) when the sample is small for the
+ * largest model (n/k below the policy's ratio), where the lighter penalty is
+ * known to be too light.
  */
-export function chooseRankBy(requested: CriterionName | undefined, policy: Policy, smallestRatio: number | null): RankByChoice {
+export function chooseRankBy(
+  requested: RankingCriterion | undefined, policy: Policy, smallestRatio: number | null, hasCHat = false,
+): RankByChoice {
   if (requested) return { rankBy: requested, reason: 'named by the request' };
+  const named = JSON.stringify(policy.name);
+  let rankBy = policy.rankBy;
+  let fallback: string | null = null;
+  if ((rankBy === 'qaic' || rankBy === 'qaicc') && !hasCHat) {
+    const label = rankingCriterionInfo(rankBy).label;
+    rankBy = UNSCALED[rankBy];
+    fallback = `policy ${named} ranks by ${label}, which needs ĉ (options.overdispersion); without one the ranking uses ${rankingCriterionInfo(rankBy).label}, what ${label} is at ĉ = 1`;
+  }
   const ratio = policy.preferAiccBelowRatio;
-  if (policy.rankBy === 'aic' && ratio !== null && smallestRatio !== null && smallestRatio < ratio) {
+  const smaller = SMALL_SAMPLE[rankBy];
+  if (smaller && ratio !== null && smallestRatio !== null && smallestRatio < ratio) {
+    const from = rankingCriterionInfo(rankBy).label;
+    const to = rankingCriterionInfo(smaller).label;
+    const switched = `switched to ${to} because n/k = ${smallestRatio.toFixed(1)} is below ${ratio}`;
     return {
-      rankBy: 'aicc',
-      reason: `policy ${JSON.stringify(policy.name)} ranks by AIC, switched to AICc because n/k = ${smallestRatio.toFixed(1)} is below ${ratio}`,
+      rankBy: smaller,
+      reason: fallback === null ? `policy ${named} ranks by ${from}, ${switched}` : `${fallback}, ${switched}`,
     };
   }
-  return { rankBy: policy.rankBy, reason: `the default of policy ${JSON.stringify(policy.name)}` };
+  return { rankBy, reason: fallback ?? `the default of policy ${named}` };
 }

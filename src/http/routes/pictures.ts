@@ -59,7 +59,7 @@ export const reportPolicyHeader = `${reportContentSecurityPolicy}; frame-ancesto
 const presetNames = Object.keys(sizePresets) as [string, ...string[]];
 export const PictureQuery = z.strictObject({
   criterion: z.enum(criterionNames).optional().meta({
-    description: 'The ranking to draw; one the comparison ranked. Default: the criterion the comparison ranked by (verdict.rankBy).',
+    description: 'The ranking to draw; one the comparison ranked (qaic and qaicc only with options.overdispersion, drawn against the AIC reference lines). Default: the criterion the comparison ranked by (verdict.rankBy).',
   }),
   size: z.enum(presetNames).optional().meta({
     description: `A named size: ${Object.entries(sizePresets).map(([k, v]) => `${k} ${v.width}${v.height === null ? ' wide' : `×${v.height}`}`).join(', ')}. Default panel.`,

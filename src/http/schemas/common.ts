@@ -66,5 +66,8 @@ export const Term = z
       'A column name (numeric: one column; text: a factor), or a power, product, transform or factor of columns.',
   });
 
-export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2'] as const;
-export const Criterion = z.enum(criterionNames).meta({ id: 'Criterion' });
+export const criterionNames = ['aicc', 'aic', 'bic', 'hqc', 'adjustedR2', 'qaic', 'qaicc'] as const;
+export const Criterion = z.enum(criterionNames).meta({
+  id: 'Criterion',
+  description: 'A ranking criterion. qaic and qaicc exist only in a comparison with options.overdispersion (they divide the log-likelihood by ĉ); naming them without it is refused (422).',
+});

@@ -11,13 +11,13 @@ export const NestedTest = z
     larger: z.string(),
     df: z.number().int().meta({ description: 'Rank difference: numerator df of F and df of the χ² test.' }),
     residualDf: z.number().int().meta({ description: 'Denominator df of F: n − rank of the larger model.' }),
-    fStatistic: n.meta({ description: 'Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf).' }),
+    fStatistic: n.meta({ description: 'Partial F = ((RSS_s − RSS_l)/df) / (RSS_l/residualDf); for generalised linear models whose family estimates its dispersion (Gaussian, gamma, inverse Gaussian), ((D_s − D_l)/df) / φ̂ with φ̂ = Pearson χ²/residualDf of the larger model; null where the family fixes the dispersion (binomial, Poisson, negative binomial).' }),
     fPValue: n.meta({ description: 'Upper tail of F(df, residualDf), via the regularised incomplete beta function.' }),
-    lrStatistic: n.meta({ description: 'Likelihood ratio 2(logL_l − logL_s).' }),
+    lrStatistic: n.meta({ description: 'Likelihood ratio 2(logL_l − logL_s); for binomial and Poisson models the difference of their deviances.' }),
     lrPValue: n.meta({ description: 'Upper tail of χ²(df), via the regularised incomplete gamma function.' }),
     reason: z.string().nullable().meta({ description: 'Why statistics are null, when they are.' }),
   })
-  .meta({ id: 'NestedTest', description: 'A pair of fitted models, one nested in the other (its design columns a subset, same response, weights and rows).' });
+  .meta({ id: 'NestedTest', description: 'A pair of fitted models of one kind, one nested in the other (its design columns a subset, same response, weights and rows; for generalised linear models also the same family, link, offset and trials).' });
 
 const predictionFields = {
   estimate: n.meta({ description: 'The predicted (median = mean, for a model of y itself) response at the row, on the response\'s original scale.' }),
@@ -55,6 +55,10 @@ export const Averaged = z
       .strictObject({ fn: z.enum(['log', 'sqrt', 'boxcox']), lambda: z.number().optional() })
       .nullable()
       .meta({ description: 'The scale of the averaged coefficients (the scale holding the most weight): null for the response as sent.' }),
+    glm: z
+      .strictObject({ family: z.string(), link: z.string() })
+      .nullable()
+      .meta({ description: 'The family and link of averaged generalised linear model coefficients (they are on that link scale; models of another family or link are excluded); null for least-squares coefficients.' }),
     excluded: z.array(z.strictObject({ name: z.string(), reason: z.string() })).meta({ description: 'Models whose coefficients were not averaged, and why.' }),
     estimator: z.enum(['eq6.12', 'eq4.9']),
     estimatorDescription: z.string(),
@@ -72,6 +76,29 @@ export const Averaged = z
   .meta({ id: 'Averaged', description: 'Model-averaged coefficients (Burnham & Anderson 2002) over the ranking criterion\'s weights.' });
 
 const Check = { passed: z.boolean().nullable() };
+
+const GlmChecks = z
+  .strictObject({
+    overdispersion: z.strictObject({
+      pearsonChiSquare: z.number(),
+      residualDf: z.number().int(),
+      ratio: n.meta({ description: 'Pearson χ² / residual df: about 1 when the family\'s variance holds.' }),
+      threshold: n.meta({ description: 'The upper 0.05 point of χ²(df)/df: a ratio above it is unlikely by chance under the family\'s variance. Null where not checked: families that estimate their dispersion (Gaussian, gamma, inverse Gaussian), a 0/1 binomial response, no residual df.' }),
+      pValue: n.meta({ description: 'Pearson\'s goodness-of-fit test: upper tail of χ²(residual df) at Pearson χ² (large-sample).' }),
+      ...Check,
+      note: z.string(),
+    }),
+    devianceResiduals: z.strictObject({
+      maxAbsolute: n.meta({ description: 'Largest |deviance residual| / √(φ (1 − h)).' }),
+      maxAbsoluteRow: z.number().int().nullable().meta({ description: 'Data row (0-based, as sent) of the largest.' }),
+      threshold: z.number().meta({ description: 'Standardised deviance residuals beyond ±3 are flagged (common practice: rare for a standard normal).' }),
+      largeRows: z.number().int(),
+      largeRowIndices: z.array(z.number().int()).meta({ description: 'Data rows (0-based, as sent) beyond the threshold.' }),
+      ...Check,
+      note: z.string(),
+    }),
+  })
+  .meta({ id: 'GlmChecks', description: 'Overdispersion (Pearson χ²/df) and the standardised deviance residuals of a generalised linear model; leverage and Cook\'s distance (influence) come from the design weighted by the final IRLS weights. A failed check is said in plain words among the model\'s cautions (code assumption_check).' });
 
 export const Diagnostics = z
   .strictObject({
@@ -106,7 +133,8 @@ export const Diagnostics = z
       highLeverageRowIndices: z.array(z.number().int()).meta({ description: 'Data rows (0-based, as sent) above the leverage threshold.' }),
       ...Check,
     }),
+    glm: GlmChecks.optional().meta({ description: 'Generalised linear models fitted here only: the checks that belong to the family.' }),
   })
-  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors. What a failed check means is said once, among the model\'s cautions (code assumption_check).' });
+  .meta({ id: 'Diagnostics', description: 'Checks of the assumptions behind every criterion: independent, identically distributed normal errors for least squares; for a generalised linear model, its family\'s own (glm), the normal-error checks only for the Gaussian family. What a failed check means is said once, among the model\'s cautions (code assumption_check).' });
 
 export const PairToTest = z.strictObject({ smaller: z.string().min(1), larger: z.string().min(1) });

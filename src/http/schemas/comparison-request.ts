@@ -190,17 +190,17 @@ export const Candidate = z
 
 export const ComparisonOptions = z
   .strictObject({
-    rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise). May be given here or at the top level of the request (as searches take it), not both with different values.' }),
+    rankBy: Criterion.optional().meta({ description: 'The criterion the verdict chooses by; default from the team policy (aicc unless the policy says otherwise; a policy ranking by qaic or qaicc ranks a comparison without options.overdispersion by aic or aicc). qaic and qaicc need options.overdispersion (422 without it); the verdict then chooses by QAIC or QAICc, and averages by their weights. May be given here or at the top level of the request (as searches take it), not both with different values.' }),
     confidenceLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Cumulative weight of the confidence set; default from the team policy (0.95).' }),
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
-    tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested.' }),
+    tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion).' }),
     percentiles: Percentiles.optional(),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
     overdispersion: OverdispersionOption.optional(),
     predict: z
       .strictObject({ columns: z.record(ColumnName, z.array(z.union([FiniteNumber, z.string().max(200), z.null()])).max(100_000)) })
       .optional()
-      .meta({ description: 'New rows (the columns the fitted candidates use) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1).' }),
+      .meta({ description: 'New rows (the columns the fitted candidates use, a GLM\'s offset column included; not the trials column) at which every fitted model and the average predict, with intervals; may carry the weights column to give new observations weights (default 1). A generalised linear model predicts its mean (the success probability for the binomial) with the link-scale interval mapped by the inverse link.' }),
   })
   .meta({ id: 'ComparisonOptions' });
 

@@ -63,7 +63,7 @@ export const ModelResult = z
     predictions: z.array(Prediction).nullable(),
     predictionScale: z
       .strictObject({
-        backTransform: z.enum(['none', 'median']).meta({ description: 'none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median.' }),
+        backTransform: z.enum(['none', 'median', 'inverseLink']).meta({ description: 'none: a model of the response itself; median: a model of a transformed response, taken back to the original scale as the median; inverseLink: a generalised linear model\'s mean (the success probability for the binomial), its interval built on the link scale and both ends mapped by the inverse link.' }),
         description: z.string(),
       })
       .nullable()
@@ -95,13 +95,15 @@ const Ranking = z.array(RankingEntry);
 
 export const Verdict = z
   .strictObject({
-    agree: z.boolean(),
+    agree: z.boolean().meta({ description: 'True when every criterion that ranked a model picks the same one; with options.overdispersion QAIC and QAICc count too, so a model that wins only on the unscaled likelihood does not make the criteria agree.' }),
     best: z.strictObject({
       aicc: z.string().nullable(),
       aic: z.string().nullable(),
       bic: z.string().nullable(),
       hqc: z.string().nullable(),
       adjustedR2: z.string().nullable(),
+      qaic: z.string().nullable().optional().meta({ description: 'With options.overdispersion only.' }),
+      qaicc: z.string().nullable().optional().meta({ description: 'With options.overdispersion only.' }),
     }),
     rankBy: Criterion,
     chosen: z.string().nullable().meta({ description: 'The best model under rankBy.' }),

@@ -7,12 +7,17 @@ import { ColumnName, FiniteNumber } from './common.ts';
 import { Convergence, DistributionParameters } from './model-kind-fields.ts';
 import { FAMILY_NAMES, GLM_CONVENTIONS, LINK_NAMES } from '../../core/models/glm/index.ts';
 
-export const GlmFamily = z.enum(FAMILY_NAMES).meta({
+// Each field says what it takes when given something else ({ "family": 7 }):
+// validation.ts resolves the candidate union to the form the caller meant,
+// so these are the words the caller reads.
+const oneOf = (field: string, names: readonly string[]) => `${field} must be one of ${names.map((n) => JSON.stringify(n)).join(', ')}`;
+
+export const GlmFamily = z.enum(FAMILY_NAMES, { error: () => oneOf('family', FAMILY_NAMES) }).meta({
   id: 'GlmFamily',
   description: 'The distribution of the response. gaussian (the default) with the identity link and no offset is least squares, unchanged.',
 });
 
-export const GlmLink = z.enum(LINK_NAMES).meta({
+export const GlmLink = z.enum(LINK_NAMES, { error: () => oneOf('link', LINK_NAMES) }).meta({
   id: 'GlmLink',
   description: 'Default: the family\'s canonical link (identity for gaussian, logit for binomial, log for poisson and negativeBinomial, inverse for gamma, inverseSquare for inverseGaussian). A link the family does not admit is a 422.',
 });
@@ -21,11 +26,12 @@ export const GlmLink = z.enum(LINK_NAMES).meta({
 export const GlmCandidateFields = {
   family: GlmFamily.optional(),
   link: GlmLink.optional(),
-  offset: ColumnName.optional().meta({ description: 'A numeric column added to the linear predictor as it is (for example the log of an exposure); rows where it is missing are left out for every candidate.' }),
+  offset: z.string({ error: () => 'offset names a numeric column of data.columns (its name as a string, such as "logExposure"), not the values themselves' })
+    .min(1, 'a column name cannot be empty').max(200, 'a column name has at most 200 characters').optional().meta({ description: 'A numeric column added to the linear predictor as it is (for example the log of an exposure); rows where it is missing are left out for every candidate.' }),
 };
 
 export const TrialsColumn = ColumnName.optional().meta({
-  description: 'A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response.',
+  description: 'A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so.',
 });
 
 const Positive = FiniteNumber.positive();

@@ -7,12 +7,14 @@ import { Convergence, DistributionParameters } from './model-kind-fields.ts';
 import { CENSORING_STATUSES } from '../../core/models/lifetime/censoring.ts';
 import { DISTRIBUTION_NAMES } from '../../core/models/lifetime/distributions.ts';
 
+const distributionWords = `distribution must be one of ${DISTRIBUTION_NAMES.map((n) => JSON.stringify(n)).join(', ')}`;
+
 export const LifetimeCandidate = z
   .strictObject({
     name: z.string().min(1).max(200),
     // A string first: a candidate without the key then fails like the other
     // forms (the union's forms message), one with an unknown name at its field.
-    distribution: z.string().pipe(z.enum(DISTRIBUTION_NAMES)).meta({
+    distribution: z.string({ error: () => distributionWords }).pipe(z.enum(DISTRIBUTION_NAMES, { error: () => distributionWords })).meta({
       description: 'The life distribution fitted by maximum likelihood. exponential, weibull, lognormal, loglogistic and gamma are distributions of positive time (their location is that of ln t); normal, logistic and smallestExtremeValue are on the time scale.',
     }),
     terms: z.array(Term).max(200).default([]).meta({

@@ -3,20 +3,24 @@
 //
 // - Coefficients are averaged only over models on one response scale: a
 //   coefficient of a model of log y and one of a model of y measure different
-//   things. The scale holding the most weight is the one averaged (the
+//   things, and so do coefficients of generalised linear models of another
+//   family or link (each lives on its own link scale; a Gaussian identity
+//   GLM is least squares). The scale holding the most weight is the one averaged (the
 //   response as sent on a tie); `models` names the models averaged and
 //   `weightCovered` their summed weight, and a caution says when it is below 1.
 // - Predictions are averaged over every model that can predict, each taken
 //   to the response's original scale first (the median; see
 //   inference/back-transform.ts), so the winner is never left out for being a
-//   model of log y.
+//   model of log y. A GLM predicts its mean (the inverse link of its
+//   link-scale interval): beside a model of a transformed response, which
+//   predicts the median, a note says the average mixes the two.
 //
 // Models fitted elsewhere have neither coefficients nor predictions here.
 // Coefficients are matched by design column key, not label (see
 // design/column-identity.ts), so differently coded dummies are never pooled.
 import { averageModels, averagePredictions, type AveragedPrediction, type ModelAverage } from '../../averaging/index.ts';
 import { columnQualifier, keyReferences } from '../../design/index.ts';
-import type { CriterionName } from '../../scoring/criteria.ts';
+import type { RankingCriterion } from '../../scoring/criteria.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
 import type { BandedEntry } from '../../scoring/rankings.ts';
 import type { ModelResult } from '../../models/model-result.ts';
@@ -25,10 +29,12 @@ import type { Caution } from '../../scoring/cautions.ts';
 import { transformLabel } from '../../models/response-transform.ts';
 
 export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
-  criterion: CriterionName;
+  criterion: RankingCriterion;
   over: 'all' | 'confidenceSet';
   /** The scale of the averaged coefficients: null for the response as sent. */
   responseTransform: ResponseTransformSpec | null;
+  /** The family and link of averaged GLM coefficients (their link scale); null for least-squares coefficients. */
+  glm: { family: string; link: string } | null;
   /** Summed criterion weight of the models whose coefficients were averaged. */
   weightCovered: number;
   excluded: { name: string; reason: string }[];
@@ -41,7 +47,7 @@ export interface AveragedResult extends Omit<ModelAverage, 'issues'> {
 export interface AveragingInput {
   models: readonly ModelResult[];
   ranking: readonly BandedEntry[];
-  criterion: CriterionName;
+  criterion: RankingCriterion;
   over: 'all' | 'confidenceSet';
   /** Each predicting model's predictions on its own scale, by name. */
   predictions: ReadonlyMap<string, readonly ScaledPrediction[]>;
@@ -50,9 +56,19 @@ export interface AveragingInput {
   intervalLevel: number;
 }
 
-const scaleKey = (m: ModelResult) => (m.responseTransform ? JSON.stringify({ fn: m.responseTransform.fn, lambda: m.responseTransform.lambda }) : 'response');
+/** A GLM's coefficients are on its link scale: only one family and link share them (the Gaussian identity GLM is least squares). */
+const glmScale = (m: ModelResult) => (m.family && m.link && !(m.family === 'gaussian' && m.link === 'identity') ? { family: m.family, link: m.link } : null);
 
-function scaleWords(spec: ResponseTransformSpec | null): string {
+const scaleKey = (m: ModelResult) => {
+  const glm = glmScale(m);
+  if (glm) return JSON.stringify(glm);
+  return m.responseTransform ? JSON.stringify({ fn: m.responseTransform.fn, lambda: m.responseTransform.lambda }) : 'response';
+};
+
+function scaleWords(m: ModelResult): string {
+  const glm = glmScale(m);
+  if (glm) return `the ${glm.link} link of a ${glm.family} mean`;
+  const spec = specOf(m);
   return spec ? `${transformLabel(spec)}(response)` : 'the response as sent';
 }
 
@@ -66,7 +82,6 @@ function specOf(m: ModelResult): ResponseTransformSpec | null {
 /** Why a model fitted here offers no coefficients to match by design column. */
 function unmatchedCoefficientsReason(m: ModelResult): string {
   if (m.expression !== undefined) return 'a nonlinear model: its parameters are not coefficients of design columns';
-  if (m.family !== undefined && m.family !== null) return `a generalised linear model (${m.family}, ${m.link ?? 'its link'}): its coefficients are on its link scale and are not averaged with others here`;
   return 'its design columns carry no identity to match coefficients by';
 }
 
@@ -99,12 +114,14 @@ export function averagedModels(input: AveragingInput): AveragedResult | null {
       excluded.push({ name: m.name, reason: unmatchedCoefficientsReason(m) });
     } else chosen.push(m);
   }
-  const scale = specOf(byScale.get(chosenKey)![0]);
+  const representative = byScale.get(chosenKey)![0];
+  const scale = specOf(representative);
+  const coefficientGlm = glmScale(representative);
   for (const m of eligible) {
     if (scaleKey(m) !== chosenKey) {
       excluded.push({
         name: m.name,
-        reason: `describes ${scaleWords(specOf(m))}, while the averaged coefficients are of ${scaleWords(scale)} (the scale holding the most weight); its coefficients measure something else${input.predictions.has(m.name) ? ', but its predictions are averaged on the original scale' : ''}`,
+        reason: `describes ${scaleWords(m)}, while the averaged coefficients are of ${scaleWords(representative)} (the scale holding the most weight); its coefficients measure something else${input.predictions.has(m.name) ? ', but its predictions are averaged on the original scale' : ''}`,
       });
     }
   }
@@ -127,11 +144,15 @@ export function averagedModels(input: AveragingInput): AveragedResult | null {
     ? averagePredictions(predicting.map((m) => ({ name: m.name, weight: weightOf(m)!, predictions: input.predictions.get(m.name)! })), input.intervalLevel)
     : null;
   if (predicted) notes.push(...predicted.issues.map((i) => i.message));
+  if (predicting.some((m) => m.responseTransform) && predicting.some((m) => glmScale(m) && m.link !== 'identity')) {
+    notes.push('The averaged predictions mix medians (models of a transformed response, taken back to its scale) with means (generalised linear models, through their inverse link); for a skewed response the two differ, so read the average as a central value rather than a mean.');
+  }
   return {
     ...rest,
     criterion,
     over,
     responseTransform: scale,
+    glm: coefficientGlm,
     weightCovered: sum(chosen),
     excluded,
     predictions: predicted?.predictions ?? [],

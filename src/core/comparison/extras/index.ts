@@ -1,10 +1,11 @@
 // After the ranking: nested-model tests, leave-one-out error and its ranking,
 // assumption checks, predictions and model averaging — the numbers a
 // practitioner needs once the criteria have spoken.
-import { nestedTests as findNestedTests, type NestedTest } from '../../inference/nested.ts';
+import type { NestedTest } from '../../inference/nested.ts';
+import { testNestingOffers } from '../../inference/nesting-offers.ts';
 import { rankByLeaveOneOut } from '../../loo.ts';
 import { issue, type Issue } from '../../issues.ts';
-import type { CriterionName } from '../../scoring/criteria.ts';
+import type { CriterionName, RankingCriterion } from '../../scoring/criteria.ts';
 import type { RankingEntry } from '../../scoring/ranking.ts';
 import type { Columns } from '../../types.ts';
 import type { ModelResult } from '../../models/model-result.ts';
@@ -39,8 +40,9 @@ export interface ExtrasInput {
   /** Every model in candidate order; `models` are their reports. */
   scored: readonly ScoredModel[];
   models: ModelResult[];
-  rankings: Record<CriterionName, BandedEntry[]>;
-  rankBy: CriterionName;
+  /** With QAIC and QAICc when the comparison has a ĉ. */
+  rankings: Record<CriterionName, BandedEntry[]> & Partial<Record<RankingCriterion, BandedEntry[]>>;
+  rankBy: RankingCriterion;
   options: ExtrasOptions;
 }
 
@@ -85,7 +87,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   }
   if (issues.length > 0) return { issues };
 
-  const nested = findNestedTests(
+  const nested = testNestingOffers(
     scored.flatMap((m) => (m.capabilities.nested ? [m.capabilities.nested(input.sample)] : [])),
     options.tests ?? [],
   );
@@ -98,7 +100,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
     };
   }
   const loo = rankByLeaveOneOut(models.map((m) => ({ name: m.name, looRmse: m.looRmse ?? null })));
-  const ranking = input.rankings[input.rankBy];
+  const ranking = input.rankings[input.rankBy] ?? [];
   const averaged = ranking.some((e) => e.weight !== null)
     ? averagedModels({
       models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: columnKeys(scored), intervalLevel: input.intervalLevel,

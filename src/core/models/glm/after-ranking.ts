@@ -9,7 +9,7 @@
 //   Cook's distance    (r_P / (1 - h))² h / (φ p), r_P Pearson, p = rank
 //   overdispersion     Pearson χ² / (n - rank), about 1 when the family's variance holds
 import type { DesignMatrix } from '../../types.ts';
-import { modelGeometry } from '../../inference/model-geometry.ts';
+import { modelGeometry, type ModelGeometry } from '../../inference/model-geometry.ts';
 import { cooksDistances } from '../../diagnostics/influence.ts';
 import { FAMILIES } from './families.ts';
 import { LINKS } from './links.ts';
@@ -50,10 +50,14 @@ export interface GlmInfluence {
   cooksDistances: (number | null)[];
 }
 
-/** `design` is the design the model was fitted on. */
-export function glmInfluence(fit: GlmFit, design: DesignMatrix): GlmInfluence {
-  const { leverages } = modelGeometry(fit.working.fit, design, fit.working.weights);
-  const pearson = glmResiduals(fit).pearson;
+/** `design` is the design the model was fitted on; `geometry` its factorisation at the IRLS weights, when already made. */
+export function glmInfluence(
+  fit: GlmFit,
+  design: DesignMatrix,
+  geometry: ModelGeometry = modelGeometry(fit.working.fit, design, fit.working.weights),
+  pearson: Float64Array = glmResiduals(fit).pearson,
+): GlmInfluence {
+  const { leverages } = geometry;
   return { leverages, cooksDistances: cooksDistances(pearson, leverages, fit.rank, Math.sqrt(fit.dispersion.value)) };
 }
 

@@ -16,6 +16,7 @@ import type { ScoringContext } from '../scoring-context.ts';
 import { alignToUsedRows } from '../aligned-rows.ts';
 import type { FittedMeansCandidateInput, GlmCandidateInput } from './candidate.ts';
 import { fitGlm } from './fit-glm.ts';
+import { glmCapabilities } from './capabilities.ts';
 import { scoreFittedMeans } from './fitted-means.ts';
 import { glmModelResult, r2Caution } from './report.ts';
 
@@ -72,8 +73,8 @@ export function scoreGlmCandidates(candidates: ReadonlyMap<number, GlmCandidateI
       for (const found of fit.issues) if (!issues.some((i) => i.code === found.code && samePath(i.path, found.path))) issues.push(found);
       continue;
     }
-    // No leave-one-out, residual checks, predictions, nested tests or averaging yet: those capabilities are absent, so their fields stay null.
-    scored.set(i, scoredModel(glmModelResult(c.name, fit, design.intercept, intervalLevel ?? DEFAULT_INTERVAL_LEVEL), fit.measure));
+    const capabilities = glmCapabilities({ fit, design, candidate: c, index: i, trials: trials === null ? null : c.trials ?? null });
+    scored.set(i, scoredModel(glmModelResult(c.name, fit, design.intercept, intervalLevel ?? DEFAULT_INTERVAL_LEVEL), fit.measure, capabilities));
   }
   return scored;
 }

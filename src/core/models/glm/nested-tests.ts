@@ -11,6 +11,9 @@
 //    (n - rank) of the larger model, on (df, n - rank_larger) — R's
 //    anova.glm(test = "F").
 import { chiSquareUpperTail, fUpperTail } from '../../inference/distributions.ts';
+import type { NestedTest } from '../../inference/nested.ts';
+import type { NestingRules } from '../../inference/nested-pairs.ts';
+import type { NestingOffer } from '../../inference/nesting-offers.ts';
 import type { GlmFit } from './types.ts';
 
 export interface GlmNestedCandidate {
@@ -75,4 +78,38 @@ export function glmNestedTest(smaller: GlmNestedCandidate, larger: GlmNestedCand
     fPValue = fUpperTail(fStatistic, rankDf, residualDf);
   }
   return { smaller: smaller.name, larger: larger.name, df, lrStatistic, lrPValue, fStatistic, fPValue, residualDf };
+}
+
+/** The test in the shape every nested test of the answer has, `reason` saying what was and was not computed. */
+export function glmNestedTestResult(smaller: GlmNestedCandidate, larger: GlmNestedCandidate): NestedTest {
+  const test = glmNestedTest(smaller, larger);
+  const family = larger.fit.family;
+  let reason: string | null = null;
+  if (test.lrStatistic === null) reason = 'a log-likelihood is not finite, so there is no likelihood-ratio test';
+  else if (!ESTIMATED_DISPERSION.has(family)) {
+    reason = `${family}: the dispersion is fixed by the family, so the likelihood-ratio (deviance) test against χ² is the test; no F test`;
+  } else if (test.fStatistic === null) reason = `"${larger.name}" leaves no residual degrees of freedom, so the F test is undefined`;
+  return { ...test, reason };
+}
+
+/** What "nested" means between GLM fits (one family and link, one sample, a subset of columns) and what a test computes. */
+export const GLM_NESTING: NestingRules<GlmNestedCandidate, { smaller: GlmNestedCandidate; larger: GlmNestedCandidate }, NestedTest> = {
+  order: (a, b) => {
+    const order = glmNestingOrder(a, b);
+    return 'reason' in order ? null : order;
+  },
+  test: (order) => glmNestedTestResult(order.smaller, order.larger),
+  notNested: (pair, a, b) => {
+    const order = glmNestingOrder(a, b);
+    return {
+      code: 'nested-test-not-nested',
+      message: `"${a.name}" and "${b.name}" cannot be tested against each other: ${'reason' in order ? order.reason : 'they are not nested.'}`,
+      facts: { smaller: pair.smaller, larger: pair.larger },
+    };
+  },
+  unknownCandidate: 'A requested nested test names a candidate that is not among the generalised linear models fitted here.',
+};
+
+export function glmNestingOffer(candidate: GlmNestedCandidate): NestingOffer<GlmNestedCandidate> {
+  return { candidate, rules: GLM_NESTING };
 }

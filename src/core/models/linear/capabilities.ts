@@ -1,6 +1,7 @@
 // What a least-squares model offers after the ranking. One factorisation of
 // its design (the geometry: R factor and leverages) serves the checks and the
 // predictions, made on first use and kept.
+import { LEAST_SQUARES_NESTING } from '../../inference/nested.ts';
 import { modelGeometry, type ModelGeometry } from '../../inference/model-geometry.ts';
 import { predictionDesign } from '../../comparison/extras/prediction-rows.ts';
 import type { ModelCapabilities } from '../scored-model.ts';
@@ -24,7 +25,10 @@ export function leastSquaresCapabilities(
       if ('issues' in built) return built;
       return modelPredictions(model, built.design, weights, at.newWeights, at.intervalLevel, geometryOnce());
     },
-    nested: (sample) => ({ name: model.result.name, keys: model.design.keys ?? null, fit: model.fit, sample: `${sample}|${JSON.stringify(candidate.response ?? null)}` }),
+    nested: (sample) => ({
+      candidate: { name: model.result.name, keys: model.design.keys ?? null, fit: model.fit, sample: `${sample}|${JSON.stringify(candidate.response ?? null)}` },
+      rules: LEAST_SQUARES_NESTING,
+    }),
     ...(model.design.keys ? { columnKeys: model.design.keys } : {}),
   };
 }

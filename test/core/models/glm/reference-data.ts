@@ -27,9 +27,18 @@ export interface ReferenceCase {
   cooksDistances: number[];
   devianceResiduals: number[];
   pearsonResiduals: number[];
+  /** r_D / √(φ (1 − h)) with the service's φ. */
+  standardisedDevianceResiduals: number[];
+  /** Pearson's goodness-of-fit p-value, and qchisq(0.95, df) / df. */
+  pearsonPValue: number;
+  overdispersionThreshold: number;
   /** Set when R fitted another basis of the same column space (coefficients not comparable). */
   coefficientBasis?: string;
-  prediction?: { rows: Record<string, (number | string)[]>; offset: number[] | null; link: number[]; standardError: number[] };
+  /** Link-scale fit and standard error (R predict.glm), and the mean with its 95% interval mapped from the link scale. */
+  prediction?: {
+    rows: Record<string, (number | string)[]>; offset: number[] | null; link: number[]; standardError: number[];
+    mean: number[]; lower: number[]; upper: number[];
+  };
 }
 
 export interface ReferenceTest {
