@@ -20,6 +20,7 @@ export function toSearchInput(body: SearchRequest): SearchRequestInput {
     intercept: body.intercept,
     top: body.top,
     responseTransform: body.responseTransform ?? null,
+    trials: body.trials ?? null,
     glm: isLeastSquaresSearch(body) ? null : { family: body.family ?? 'gaussian', link: body.link, offset: body.offset, trials: body.trials },
   };
 }

@@ -38,9 +38,11 @@ t.test('refusals name the field, as a comparison candidate\'s do', async (t) => 
 
   const { trials: _trials, ...untrialled } = base();
   const noBinomial = await post({ ...untrialled, family: 'poisson', trials: 'tested' });
-  t.equal(noBinomial.statusCode, 400);
-  t.equal(noBinomial.json().errors[0].path, 'trials', 'trials without a binomial family');
-  t.match(noBinomial.json().errors[0].message, /binomial/);
+  t.equal(noBinomial.statusCode, 422);
+  t.same(errors(noBinomial), [['trials_without_binomial', 'trials']], 'trials without a binomial family, as a comparison refuses them');
+  t.match(noBinomial.json().errors[0].message, /family "poisson"/);
+  const leastSquares = await post({ ...untrialled, family: undefined, trials: 'tested' });
+  t.same(errors(leastSquares), [['trials_without_binomial', 'trials']], 'and with least squares');
 
   const above = base();
   above.data.columns.cracked[4] = 99;

@@ -3403,7 +3403,7 @@ export interface components {
             link?: components["schemas"]["GlmLinkInput"];
             /** @description A numeric column added to every subset's linear predictor as it is (for example the log of an exposure); rows where it is missing are left out of every subset. */
             offset?: string;
-            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
             trials?: string;
             /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
             rankBy?: components["schemas"]["SearchCriterionInput"];
@@ -4649,7 +4649,7 @@ export interface components {
             link?: components["schemas"]["GlmLink"];
             /** @description A numeric column added to every subset's linear predictor as it is (for example the log of an exposure); rows where it is missing are left out of every subset. */
             offset?: string;
-            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. */
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
             trials?: string;
             /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
             rankBy?: components["schemas"]["SearchCriterion"];

@@ -29,6 +29,8 @@ export interface SearchRequestInput {
   responseTransform?: ResponseTransformSpec | null;
   /** Every subset a generalised linear model of this family (search/glm); null or absent for least squares. */
   glm?: GlmSearchSpec | null;
+  /** The request's trials column: read by a binomial search only, refused with any other (as a comparison refuses it without a binomial candidate). */
+  trials?: string | null;
 }
 
 export type SearchSource =
@@ -179,6 +181,10 @@ function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: Hie
 
 /** What the search may cost was settled from the request's shape before this runs (src/core/pricing). */
 export function prepareSearch(input: SearchRequestInput): PreparedSearch | { issues: Issue[] } {
+  if (input.trials && input.glm?.family !== 'binomial') {
+    const subsets = input.glm ? `every subset (family ${JSON.stringify(input.glm.family)})` : 'every subset (least squares)';
+    return { issues: [issue('trials_without_binomial', ['trials'], { trials: input.trials, candidates: [subsets] })] };
+  }
   const rules = input.hierarchy ? hierarchyRules(input.pool, input.always) : noHierarchy(input.pool.length);
   if (rules.alwaysUnmet.length > 0) {
     // Every subset holds the always terms, so a need of theirs outside always breaks the rule in some or every subset.

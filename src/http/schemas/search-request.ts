@@ -50,9 +50,6 @@ export const SearchRequest = z
     if (r.responseTransform && ((r.family ?? 'gaussian') !== 'gaussian' || r.link !== undefined || r.offset !== undefined)) {
       ctx.addIssue({ code: 'custom', path: ['responseTransform'], message: 'a response transform applies to least-squares searches only; a generalised linear model relates the response to its terms through its link' });
     }
-    if (r.trials !== undefined && r.family !== 'binomial') {
-      ctx.addIssue({ code: 'custom', path: ['trials'], message: `trials counts the trials of a binomial response; this search's family is ${r.family ?? 'gaussian (the default)'}: set family to "binomial" or leave trials out` });
-    }
   })
   .meta({ id: 'SearchRequest' });
 
