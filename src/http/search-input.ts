@@ -4,6 +4,10 @@ import type { SearchRequestInput } from '../core/search/request-problem.ts';
 import { ownColumns } from './comparison-input.ts';
 import type { SearchRequest } from './schemas/search-request.ts';
 
+/** As for a comparison candidate: no family other than gaussian, no link other than identity, no offset is least squares, unchanged. */
+export const isLeastSquaresSearch = (body: Pick<SearchRequest, 'family' | 'link' | 'offset'>): boolean =>
+  (body.family ?? 'gaussian') === 'gaussian' && (body.link ?? 'identity') === 'identity' && body.offset === undefined;
+
 export function toSearchInput(body: SearchRequest): SearchRequestInput {
   return {
     columns: 'columns' in body.data ? ownColumns(body.data.columns) : null,
@@ -16,5 +20,7 @@ export function toSearchInput(body: SearchRequest): SearchRequestInput {
     intercept: body.intercept,
     top: body.top,
     responseTransform: body.responseTransform ?? null,
+    trials: body.trials ?? null,
+    glm: isLeastSquaresSearch(body) ? null : { family: body.family ?? 'gaussian', link: body.link, offset: body.offset, trials: body.trials },
   };
 }

@@ -22,6 +22,7 @@ export const SEARCH_REPORT_ROW_LIMITS = { models: 100, importance: 60 } as const
 const methodWords: Record<string, string> = {
   exhaustive: 'every subset scored',
   branchAndBound: 'branch and bound (subsets that provably cannot enter the best list are not scored one by one)',
+  stepwiseSwaps: 'stepwise selection with swaps (a generalised-linear pool too large to fit every subset: the best found, not proven the best)',
 };
 
 /** passedOver and budget in words (the JSON keys are for programs). */
@@ -32,6 +33,7 @@ const countWords: Record<string, string> = {
   rankDeficient: 'with aliased columns (a smaller model again)',
   sameColumnSpace: 'spanning the column space of one counted',
   exactFit: 'fitting exactly',
+  fitFailed: 'whose IRLS fit separated or did not converge (skipped)',
   maxSubsets: 'at most {} subsets scored one by one',
   maxBranchAndBoundTerms: 'branch and bound up to {} terms',
   maxNodes: 'at most {} tree nodes',

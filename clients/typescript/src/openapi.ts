@@ -859,6 +859,8 @@ export interface paths {
          * Score every subset of a pool of terms, refit the best and record the search
          * @description Every subset of `pool` (with the `always` terms; with `hierarchy`, only subsets holding the terms a power or product is built from) is a candidate, scored on the workers of the compute pool (branch and bound beyond 2^24 subsets, with `proven` saying whether the top list is proven); the best `top` are refitted exactly and returned with their weights over every subset scored, and the search is appended to the audit chain. The example is the demo scenario (tile shrinkage, invented data).
          *
+         *     With `family` (and `link`, `offset`, `trials`) every subset is a generalised linear model fitted by IRLS, each started from the coefficients of the subset it was reached from: every subset when the pool has at most 16 terms and the price affords them all, else stepwise selection with swaps (`method: "stepwiseSwaps"`, `proven: false`); subsets that separate or do not converge are skipped and counted in `glm.fitFailures`. Criteria rank the subsets; they do not validate the chosen model.
+         *
          *     With Accept: text/event-stream the answer is server-sent events: `progress` ({ covered, total, nodes, bound }: subsets accounted for, of all; for branch and bound the tree nodes visited and the criterion value a subset must beat to enter the best `top` known so far, else 0 and null) at most every 250 ms, then one `result` (this 200 body) or `problem` (a problem+json body). Requests that cannot start (priced over a limit, the compute queue full) are answered with their status as usual.
          */
         post: {
@@ -3285,6 +3287,30 @@ export interface components {
             /** @description Wall time of the subset scoring (not the refits). */
             elapsedMs: number;
         };
+        /** @description Present for a generalised-linear search (family other than gaussian, a link other than identity, or an offset). */
+        GlmSearchFactsInput: {
+            family: components["schemas"]["GlmFamilyInput"];
+            link: components["schemas"]["GlmLinkInput"];
+            offset: string | null;
+            trials: string | null;
+            /** @description How the subsets were searched: every subset, or stepwise selection with swaps (and why not branch and bound). */
+            searchRule: string;
+            /** @description How each subset's IRLS was started, and why the start does not change the converged answer beyond the convergence rule's tolerance. */
+            warmStart: string;
+            /** @description Subsets skipped because their fit failed; the search went on without them and they take no part in weights. */
+            fitFailures: {
+                /** @description Subsets whose coefficients run to infinity (separation): no maximum-likelihood estimate. */
+                separation: number;
+                /** @description Subsets whose IRLS (or θ) did not settle within its caps, or left the family's domain. */
+                notConverged: number;
+                /** @description Subsets with too few rows for their columns, or a dispersion of 0. */
+                other: number;
+            };
+            /** @description Weighted least-squares solves over every subset fit. */
+            solves: number;
+            /** @description Fits started from the coefficients of the subset they were reached from. */
+            warmStarts: number;
+        };
         SearchResultInput: {
             id: string;
             createdAt: string;
@@ -3304,8 +3330,11 @@ export interface components {
                 /** @description Σ ln g'(y) over the rows, added to every subset's log-likelihood. */
                 jacobian: number;
             } | null;
-            /** @enum {string} */
-            method: "exhaustive" | "branchAndBound";
+            /**
+             * @description exhaustive: every subset scored. branchAndBound: least squares beyond the exhaustive budget (`proven` says whether the best are proven). stepwiseSwaps: a generalised-linear search too large to fit every subset, by stepwise selection with swaps (a local optimum: `proven` is false).
+             * @enum {string}
+             */
+            method: "exhaustive" | "branchAndBound" | "stepwiseSwaps";
             /** @description Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded). */
             evaluated: number;
             /** @description 2^m: every subset of the pool. */
@@ -3325,6 +3354,8 @@ export interface components {
                 sameColumnSpace: number;
                 /** @description Subsets reproducing the response exactly (residuals at rounding level): unbounded likelihood, no criterion value; named in a caution. */
                 exactFit: number;
+                /** @description Generalised-linear searches: subsets whose IRLS fit has no maximum-likelihood answer (separation, no convergence), skipped; glm.fitFailures splits them. */
+                fitFailed?: number;
             };
             /** @description Subsets with aliased design columns, all passed over (the same count as passedOver.rankDeficient). */
             rankDeficient: number;
@@ -3339,6 +3370,7 @@ export interface components {
                 label: string;
                 weight: number;
             }[];
+            glm?: components["schemas"]["GlmSearchFactsInput"];
             cautions: components["schemas"]["CautionInput"][];
         };
         /** @enum {string} */
@@ -3366,6 +3398,13 @@ export interface components {
             intercept?: boolean;
             /** @description Every subset describes g(response) instead of the response: fitted to the transformed values, scored with the Jacobian so AIC, AICc, BIC and HQC stay on the scale of the response (comparable with a search or comparison of the response itself). Needs data.columns: the Jacobian sums over the rows. */
             responseTransform?: components["schemas"]["ResponseTransformInput"];
+            /** @description Every subset a generalised linear model of this family, fitted by IRLS (absent, or gaussian with the identity link and no offset: least squares over cross products, as before). Needs data.columns. A pool small enough to fit every subset within the price is searched exhaustively (proven); a larger one by stepwise selection with swaps (proven false). Each subset starts IRLS from the coefficients of the subset it was reached from; the listed models are refitted as a comparison fits them. A subset that separates or does not converge is skipped and counted (glm.fitFailures), the search goes on. */
+            family?: components["schemas"]["GlmFamilyInput"];
+            link?: components["schemas"]["GlmLinkInput"];
+            /** @description A numeric column added to every subset's linear predictor as it is (for example the log of an exposure); rows where it is missing are left out of every subset. */
+            offset?: string;
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
+            trials?: string;
             /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
             rankBy?: components["schemas"]["SearchCriterionInput"];
             /**
@@ -4494,6 +4533,30 @@ export interface components {
             /** @description Wall time of the subset scoring (not the refits). */
             elapsedMs: number;
         };
+        /** @description Present for a generalised-linear search (family other than gaussian, a link other than identity, or an offset). */
+        GlmSearchFacts: {
+            family: components["schemas"]["GlmFamily"];
+            link: components["schemas"]["GlmLink"];
+            offset: string | null;
+            trials: string | null;
+            /** @description How the subsets were searched: every subset, or stepwise selection with swaps (and why not branch and bound). */
+            searchRule: string;
+            /** @description How each subset's IRLS was started, and why the start does not change the converged answer beyond the convergence rule's tolerance. */
+            warmStart: string;
+            /** @description Subsets skipped because their fit failed; the search went on without them and they take no part in weights. */
+            fitFailures: {
+                /** @description Subsets whose coefficients run to infinity (separation): no maximum-likelihood estimate. */
+                separation: number;
+                /** @description Subsets whose IRLS (or θ) did not settle within its caps, or left the family's domain. */
+                notConverged: number;
+                /** @description Subsets with too few rows for their columns, or a dispersion of 0. */
+                other: number;
+            };
+            /** @description Weighted least-squares solves over every subset fit. */
+            solves: number;
+            /** @description Fits started from the coefficients of the subset they were reached from. */
+            warmStarts: number;
+        };
         SearchResult: {
             id: string;
             createdAt: string;
@@ -4513,8 +4576,11 @@ export interface components {
                 /** @description Σ ln g'(y) over the rows, added to every subset's log-likelihood. */
                 jacobian: number;
             } | null;
-            /** @enum {string} */
-            method: "exhaustive" | "branchAndBound";
+            /**
+             * @description exhaustive: every subset scored. branchAndBound: least squares beyond the exhaustive budget (`proven` says whether the best are proven). stepwiseSwaps: a generalised-linear search too large to fit every subset, by stepwise selection with swaps (a local optimum: `proven` is false).
+             * @enum {string}
+             */
+            method: "exhaustive" | "branchAndBound" | "stepwiseSwaps";
             /** @description Subsets scored; delta, weights and importance are over exactly these (each distinct model once, exact fits excluded). */
             evaluated: number;
             /** @description 2^m: every subset of the pool. */
@@ -4534,6 +4600,8 @@ export interface components {
                 sameColumnSpace: number;
                 /** @description Subsets reproducing the response exactly (residuals at rounding level): unbounded likelihood, no criterion value; named in a caution. */
                 exactFit: number;
+                /** @description Generalised-linear searches: subsets whose IRLS fit has no maximum-likelihood answer (separation, no convergence), skipped; glm.fitFailures splits them. */
+                fitFailed?: number;
             };
             /** @description Subsets with aliased design columns, all passed over (the same count as passedOver.rankDeficient). */
             rankDeficient: number;
@@ -4548,6 +4616,7 @@ export interface components {
                 label: string;
                 weight: number;
             }[];
+            glm?: components["schemas"]["GlmSearchFacts"];
             cautions: components["schemas"]["Caution"][];
         };
         /** @enum {string} */
@@ -4575,6 +4644,13 @@ export interface components {
             intercept: boolean;
             /** @description Every subset describes g(response) instead of the response: fitted to the transformed values, scored with the Jacobian so AIC, AICc, BIC and HQC stay on the scale of the response (comparable with a search or comparison of the response itself). Needs data.columns: the Jacobian sums over the rows. */
             responseTransform?: components["schemas"]["ResponseTransform"];
+            /** @description Every subset a generalised linear model of this family, fitted by IRLS (absent, or gaussian with the identity link and no offset: least squares over cross products, as before). Needs data.columns. A pool small enough to fit every subset within the price is searched exhaustively (proven); a larger one by stepwise selection with swaps (proven false). Each subset starts IRLS from the coefficients of the subset it was reached from; the listed models are refitted as a comparison fits them. A subset that separates or does not converge is skipped and counted (glm.fitFailures), the search goes on. */
+            family?: components["schemas"]["GlmFamily"];
+            link?: components["schemas"]["GlmLink"];
+            /** @description A numeric column added to every subset's linear predictor as it is (for example the log of an exposure); rows where it is missing are left out of every subset. */
+            offset?: string;
+            /** @description A numeric column with the number of trials of each row: binomial candidates then read the response as successes (whole numbers, 0 ≤ y ≤ trials). Without it, binomial candidates need a 0/1 response. Only binomial candidates read it: with none it is refused (422 naming trials and the candidates); the other candidates beside binomial ones model the response without it, and a caution (trials_not_read) says so. */
+            trials?: string;
             /** @description Default from the team policy (aicc when the policy ranks by adjustedR2). */
             rankBy?: components["schemas"]["SearchCriterion"];
             /**

@@ -17,6 +17,7 @@ import type { SearchRequestInput } from '../search/request-problem.ts';
 import { NO_DATA, shapeOfColumns, shapeOfSummary } from './data-shape.ts';
 import { designWidth } from './design-width.ts';
 import { ANSWER_BYTES, FIXED_WORK, leastSquaresFit, leastSquaresFromSummary } from './least-squares-cost.ts';
+import { priceGlmSearch } from './glm-search-price.ts';
 import { totalPrice, type PriceCaps, type PricePart, type RequestPrice } from './types.ts';
 
 /** Fewer nodes than this could not settle the top of any pool worth a branch and bound. */
@@ -39,6 +40,8 @@ export interface SearchPricingOptions {
 const SEARCH_REMEDY = 'Narrow the pool, move terms to always, drop factors with many levels from it, or ask for fewer top models';
 
 export function priceSearch(input: SearchRequestInput, options: SearchPricingOptions): SearchPricing {
+  // Every subset an IRLS fit, not a sweep of cross products: priced by fits.
+  if (input.glm && input.columns) return priceGlmSearch({ ...input, glm: input.glm }, options);
   const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
   const shape = input.summary ? shapeOfSummary(input.summary) : input.columns ? shapeOfColumns(input.columns) : NO_DATA;
   const n = shape.rows;

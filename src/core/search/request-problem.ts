@@ -11,6 +11,8 @@ import { transformResponse, type ResponseTransformSpec } from '../models/respons
 import { hierarchyRules, noHierarchy, type HierarchyRules } from './hierarchy.ts';
 import { subsetProblemFromDesign, subsetProblemFromSummary } from './problem.ts';
 import type { SubsetProblem } from './types.ts';
+import type { GlmSearchSpec } from './glm/types.ts';
+import { glmExtraColumns } from '../models/glm/candidate.ts';
 
 export interface SearchRequestInput {
   /** Exactly one of columns and summary. */
@@ -25,6 +27,10 @@ export interface SearchRequestInput {
   top: number;
   /** Every subset describes g(response) (needs rows: the Jacobian sums over them); null for the response itself. */
   responseTransform?: ResponseTransformSpec | null;
+  /** Every subset a generalised linear model of this family (search/glm); null or absent for least squares. */
+  glm?: GlmSearchSpec | null;
+  /** The request's trials column: read by a binomial search only, refused with any other (as a comparison refuses it without a binomial candidate). */
+  trials?: string | null;
 }
 
 export type SearchSource =
@@ -58,7 +64,8 @@ function intoRequest(found: Issue, poolSize: number): Issue {
 
 function fromRows(input: SearchRequestInput, columns: Columns, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
   const terms = [...input.pool, ...input.always];
-  const used = columnsUsedBy(terms);
+  // A GLM search's offset and trials columns leave out the rows where they are missing, as a comparison's candidates do.
+  const used = [...columnsUsedBy(terms), ...(input.glm ? glmExtraColumns(input.glm) : [])];
   const sample = sampleRows(columns, input.response, input.weights, used);
   if ('issues' in sample) return sample;
   const { rows, dropped, zeroWeights } = sample;
@@ -130,6 +137,10 @@ function codingIssues(input: SearchRequestInput, columns: Columns, rows: number[
 }
 
 function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: HierarchyRules): PreparedSearch | { issues: Issue[] } {
+  if (input.glm) {
+    // IRLS reweights every row at every step; cross products summed once cannot be reweighted.
+    return { issues: [issue('summary_rows_needed', ['family'], { form: 'a generalised linear search', reason: 'each IRLS step reweights every row, which cross products summed once cannot do' })] };
+  }
   if (input.responseTransform) {
     // The summary holds cross products of y, not of g(y), and the Jacobian sums ln g'(y) over rows it does not carry.
     return { issues: [issue('summary_rows_needed', ['responseTransform'], { form: 'a response transform', reason: 'its Jacobian sums ln g\'(y) over the rows' })] };
@@ -170,6 +181,10 @@ function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: Hie
 
 /** What the search may cost was settled from the request's shape before this runs (src/core/pricing). */
 export function prepareSearch(input: SearchRequestInput): PreparedSearch | { issues: Issue[] } {
+  if (input.trials && input.glm?.family !== 'binomial') {
+    const subsets = input.glm ? `every subset (family ${JSON.stringify(input.glm.family)})` : 'every subset (least squares)';
+    return { issues: [issue('trials_without_binomial', ['trials'], { trials: input.trials, candidates: [subsets] })] };
+  }
   const rules = input.hierarchy ? hierarchyRules(input.pool, input.always) : noHierarchy(input.pool.length);
   if (rules.alwaysUnmet.length > 0) {
     // Every subset holds the always terms, so a need of theirs outside always breaks the rule in some or every subset.

@@ -11,6 +11,7 @@ import { budgetIssue, type SearchAnswer } from '../jobs/search-jobs.ts';
 import { forWorker } from '../jobs/transport.ts';
 import type { Problem } from '../problems.ts';
 import type { SearchRequest } from '../schemas/search-request.ts';
+import { isLeastSquaresSearch } from '../search-input.ts';
 import type { ComputeService } from './run.ts';
 
 export type SearchComputed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Problem };
@@ -56,6 +57,15 @@ export async function computeSearch(
   hooks: SearchRunHooks = {},
 ): Promise<SearchComputed> {
   const { body, policy, budget, compute } = work;
+  if (!isLeastSquaresSearch(body)) {
+    // Every subset an IRLS fit: the whole search is one job on one worker, answered (or refused) before any stream opens.
+    const done = await session.run<JobResults['glmSearch']>(forWorker({ kind: 'glmSearch', body, policy, budget, resultCap: compute.caps.resultBytes }));
+    if ('result' in done) {
+      hooks.onPrepared?.();
+      return { answer: done.result };
+    }
+    return done;
+  }
   const prepared = await session.run<JobResults['searchPrepare']>(forWorker({ kind: 'searchPrepare', body, policy, budget }));
   if ('issues' in prepared) return prepared;
   hooks.onPrepared?.();

@@ -5,15 +5,17 @@ import type { SearchPartial } from '../../core/search/index.ts';
 import type { SearchTask } from '../../search/workers/messages.ts';
 import { runTask } from '../../search/workers/run-task.ts';
 import { comparisonJob, type ComparisonJob, type ComparisonJobOutcome } from './comparison-job.ts';
+import { glmSearchJob, type GlmSearchJob } from './glm-search-job.ts';
 import { searchPrepareJob, searchReportJob, type SearchPrepareJob, type SearchReportJob } from './search-jobs.ts';
 
-export type Job = ComparisonJob | SearchPrepareJob | { kind: 'searchTask'; task: SearchTask } | SearchReportJob;
+export type Job = ComparisonJob | SearchPrepareJob | { kind: 'searchTask'; task: SearchTask } | SearchReportJob | GlmSearchJob;
 
 export interface JobResults {
   comparison: ComparisonJobOutcome;
   searchPrepare: ReturnType<typeof searchPrepareJob>;
   searchTask: SearchPartial;
   searchReport: ReturnType<typeof searchReportJob>;
+  glmSearch: ReturnType<typeof glmSearchJob>;
 }
 
 export function runJob<J extends Job>(job: J): JobResults[J['kind']] {
@@ -26,6 +28,8 @@ export function runJob<J extends Job>(job: J): JobResults[J['kind']] {
       return runTask(job.task) as JobResults[J['kind']];
     case 'searchReport':
       return searchReportJob(job) as JobResults[J['kind']];
+    case 'glmSearch':
+      return glmSearchJob(job) as JobResults[J['kind']];
     default:
       throw new Error(`unknown job kind ${(job as { kind: string }).kind}`);
   }

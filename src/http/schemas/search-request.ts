@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { ColumnName, Term } from './common.ts';
 import { DataSchema, ResponseTransform, WeightsColumn } from './comparison-request.ts';
 import { SummaryData } from './summary.ts';
+import { GlmFamily, GlmLink, TrialsColumn } from './glm.ts';
 
 export const MAX_POOL_TERMS = 60;
 
@@ -28,6 +29,12 @@ export const SearchRequest = z
     responseTransform: ResponseTransform.optional().meta({
       description: 'Every subset describes g(response) instead of the response: fitted to the transformed values, scored with the Jacobian so AIC, AICc, BIC and HQC stay on the scale of the response (comparable with a search or comparison of the response itself). Needs data.columns: the Jacobian sums over the rows.',
     }),
+    family: GlmFamily.optional().meta({
+      description: 'Every subset a generalised linear model of this family, fitted by IRLS (absent, or gaussian with the identity link and no offset: least squares over cross products, as before). Needs data.columns. A pool small enough to fit every subset within the price is searched exhaustively (proven); a larger one by stepwise selection with swaps (proven false). Each subset starts IRLS from the coefficients of the subset it was reached from; the listed models are refitted as a comparison fits them. A subset that separates or does not converge is skipped and counted (glm.fitFailures), the search goes on.',
+    }),
+    link: GlmLink.optional(),
+    offset: ColumnName.optional().meta({ description: 'A numeric column added to every subset\'s linear predictor as it is (for example the log of an exposure); rows where it is missing are left out of every subset.' }),
+    trials: TrialsColumn,
     rankBy: SearchCriterionSchema.optional().meta({ description: 'Default from the team policy (aicc when the policy ranks by adjustedR2).' }),
     top: z.number().int().min(1).max(100).default(20).meta({ description: 'How many of the best subsets to return, refitted.' }),
     exhaustive: z.boolean().default(false).meta({
@@ -38,6 +45,10 @@ export const SearchRequest = z
   .superRefine((r, ctx) => {
     if ('summary' in r.data && r.weights) {
       ctx.addIssue({ code: 'custom', path: ['weights'], message: 'with data.summary the weights are inside the summary (summary.weights: { sum, sumLog }); leave weights out' });
+    }
+    // The same words as a comparison candidate's (comparison-request.ts): a GLM relates the response through its link.
+    if (r.responseTransform && ((r.family ?? 'gaussian') !== 'gaussian' || r.link !== undefined || r.offset !== undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['responseTransform'], message: 'a response transform applies to least-squares searches only; a generalised linear model relates the response to its terms through its link' });
     }
   })
   .meta({ id: 'SearchRequest' });
