@@ -52,6 +52,7 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     expectedFingerprint: body.datasetFingerprint,
     censoring: body.censoring ?? null,
     percentiles: body.options.percentiles,
+    survivalAt: body.options.survivalAt,
     extras: {
       tests: body.options.tests,
       average: body.options.average,

@@ -24,9 +24,8 @@ import { conventions, type Conventions } from './conventions.ts';
 import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/index.ts';
 import { averagingCautions } from './extras/averaging.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
-import type { CensoringColumns } from '../models/lifetime/index.ts';
+import { lifePicture, type CensoringColumns, type LifePicture } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
-import { lifetimeLikelihoodRatioTests } from './lifetime-nested.ts';
 import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
@@ -47,6 +46,8 @@ export interface ComparisonInput {
   censoring?: CensoringColumns | null;
   /** options.percentiles, read by lifetime models. */
   percentiles?: readonly number[];
+  /** options.survivalAt, read by lifetime models. */
+  survivalAt?: readonly number[];
   extras?: ExtrasOptions;
   /** QAIC and QAICc under one ĉ, given or estimated (options.overdispersion). */
   overdispersion?: OverdispersionRequest;
@@ -65,6 +66,8 @@ export interface ComparisonOutcome {
   nestedTests: Extras['nestedTests'];
   averaged: Extras['averaged'];
   cautions: Caution[];
+  /** With life models: what the life-data picture draws (lifetime/life-picture.ts). */
+  lifePicture?: LifePicture;
 }
 
 /** The data columns a candidate reads besides the response and weights: its terms, and a GLM's offset and trials. */
@@ -129,7 +132,9 @@ export function compareModels(
 
   const censored = censoredSample({ ...input, censoring: input.censoring ?? null }, ctx, issues);
   if (issues.length > 0) return { issues };
-  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles }, issues);
+  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles,
+    survivalAt: input.survivalAt, predicting: input.extras?.predict !== undefined,
+  }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
   const mixed = issues.length === 0 ? measureMixIssue(scored) : null;
   if (mixed) issues.push(mixed);
@@ -156,10 +161,12 @@ export function compareModels(
   const extras = comparisonExtras({
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
     // The status column decides rows but is no term: prediction rows need not carry it.
-    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status),
+    sample: JSON.stringify([input.response, input.weights]), lifetimeSample: JSON.stringify([input.response, input.censoring ?? null]), termColumns: used.filter((c) => c !== input.censoring?.status),
     scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;
+  const lifeCurves = scored.flatMap((m) => (m.capabilities.lifeCurve ? [m.capabilities.lifeCurve] : []));
+  const picture = censored && lifeCurves.length > 0 ? lifePicture(censored, lifeCurves, intervalLevel) : null;
 
   return {
     result: {
@@ -175,7 +182,7 @@ export function compareModels(
       rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })), ...(quasi ? quasi.rankings : {}) },
       ...(quasi ? { overdispersion: { cHat: quasi.cHat, source: quasi.source, df: quasi.df, belowOne: quasi.belowOne } } : {}),
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n }),
-      nestedTests: [...extras.nestedTests, ...lifetimeLikelihoodRatioTests(scored, JSON.stringify([input.response, input.censoring ?? null]))],
+      nestedTests: extras.nestedTests,
       averaged: extras.averaged,
       cautions: [
         ...comparisonCautions({
@@ -186,6 +193,7 @@ export function compareModels(
         ...averagingCautions(extras.averaged, rankings[choice.rankBy]),
         ...lifetimeCautions(input.candidates),
       ],
+      ...(picture ? { lifePicture: picture } : {}),
     },
   };
 }

@@ -13,6 +13,7 @@ import { checkPredictionRows, type PredictionColumns } from './prediction-rows.t
 import type { ScoredModel } from '../../models/scored-model.ts';
 import { averagedModels, type AveragedResult } from './averaging.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
+import { lifetimeLikelihoodRatioTests, routeRequestedTests } from '../lifetime-nested.ts';
 
 export interface ExtrasOptions {
   tests?: { smaller: string; larger: string }[];
@@ -35,6 +36,8 @@ export interface ExtrasInput {
   intervalLevel: number;
   /** Identity of the response, its weights and rows, shared by every candidate. */
   sample: string;
+  /** Identity of the censored response life models were fitted to (response and censoring columns). */
+  lifetimeSample: string;
   termColumns: readonly string[];
   /** Every model in candidate order; `models` are their reports. */
   scored: readonly ScoredModel[];
@@ -59,7 +62,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   }
   const issues: Issue[] = [];
   for (const model of scored) {
-    const { checks: checkRows, predict } = model.capabilities;
+    const { checks: checkRows, predict, lifePredict } = model.capabilities;
     const result = model.report;
     if (checkRows) {
       const checks = checkRows(input.rows!);
@@ -82,16 +85,30 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       predictions.set(result.name, p.scaled);
       result.cautions.push(...p.cautions);
     }
+    if (predictCount !== null && lifePredict) {
+      const p = lifePredict({
+        columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,
+      });
+      if ('issues' in p) {
+        issues.push(...p.issues);
+        continue;
+      }
+      result.lifePredictions = p.rows;
+      result.cautions.push(...p.cautions);
+    }
   }
   if (issues.length > 0) return { issues };
 
+  const routed = routeRequestedTests(scored, options.tests ?? []);
   const nested = findNestedTests(
     scored.flatMap((m) => (m.capabilities.nested ? [m.capabilities.nested(input.sample)] : [])),
-    options.tests ?? [],
+    routed.leastSquares,
   );
-  if (nested.issues.length > 0) {
+  const lifetime = lifetimeLikelihoodRatioTests(scored, input.lifetimeSample, routed.lifetime);
+  const problems = [...nested.issues, ...lifetime.issues];
+  if (problems.length > 0) {
     return {
-      issues: nested.issues.map((n) => {
+      issues: problems.map((n) => {
         const i = (options.tests ?? []).findIndex((t) => t.smaller === n.facts.smaller && t.larger === n.facts.larger);
         return issue('nested_test_invalid', ['options', 'tests', Math.max(0, i)], { reason: n.message });
       }),
@@ -104,7 +121,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: columnKeys(scored), intervalLevel: input.intervalLevel,
     })
     : null;
-  return { nestedTests: nested.tests, averaged, loo };
+  return { nestedTests: [...nested.tests, ...lifetime.tests], averaged, loo };
 }
 
 /** Each model's coefficient column keys, by model name. */
