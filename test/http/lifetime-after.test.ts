@@ -21,7 +21,7 @@ async function post(t: Parameters<typeof buildTestApp>[0], payload: unknown) {
   return app.inject({ method: 'POST', url: '/v1/comparisons', payload: payload as object });
 }
 
-function close(t: Tap.Test, got: number | null, want: number, what: string) {
+function close(t: { ok(v: boolean, m: string): unknown }, got: number | null, want: number, what: string) {
   t.ok(got !== null && relativeError(got, want) < TOLERANCE, `${what}: ${got} vs survreg ${want}`);
 }
 
