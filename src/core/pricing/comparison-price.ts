@@ -68,7 +68,10 @@ function lifePicturePart(input: ComparisonInput, shape: DataShape, summary: Data
 export function priceComparison(input: ComparisonInput, summary: DataSummary | null, maxDesignColumns: number): RequestPrice {
   const shape = summary ? shapeOfSummary(summary) : input.columns ? shapeOfColumns(input.columns) : NO_DATA;
   const m = summary ? 0 : predictionRows(input);
-  const ctx = { shape, fromSummary: summary !== null, predictionRows: m, maxDesignColumns };
+  const ctx = {
+    shape, fromSummary: summary !== null, predictionRows: m, maxDesignColumns,
+    lifeValuesPerRow: 1 + (input.percentiles?.length ?? 0) + (input.survivalAt?.length ?? 0),
+  };
   const parts: PricePart[] = [dataPart(shape, input, summary)];
   const prediction = { work: 0, heldBytes: 0, passingBytes: 0, resultBytes: 0 };
   let fitted = 0;

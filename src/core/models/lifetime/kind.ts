@@ -12,7 +12,7 @@ import { scoredModel, type ScoredModel } from '../scored-model.ts';
 import type { CensoredResponse } from './censoring.ts';
 import { fitLifetime } from './fit-lifetime.ts';
 import { nestingCandidateOf } from './nested.ts';
-import { priceLifetime } from './pricing.ts';
+import { priceLifePredictions, priceLifetime } from './pricing.ts';
 import { lifetimeReport } from './report.ts';
 import { lifePredictions } from './life-predictions.ts';
 import { lifeCurve } from './life-picture.ts';
@@ -116,8 +116,13 @@ export function priceLifetimeCandidate(c: LifetimeCandidateInput, ctx: Candidate
       passingBytes: 8 * n * p + 24 * n,
       resultBytes: ANSWER_BYTES.model + m * ANSWER_BYTES.coefficient,
     },
-    // No predictions at new rows yet (README: life data).
-    prediction: NO_COST,
+    // Values at new rows (life-predictions.ts); the rows' own price is the comparison's.
+    prediction: ctx.predictionRows === 0 ? NO_COST : {
+      work: priceLifePredictions({ rows: n, designColumns: p, predictionRows: ctx.predictionRows, valuesPerRow: ctx.lifeValuesPerRow ?? 1, distribution: c.distribution }) / OPERATIONS_PER_MULTIPLY_ADD,
+      heldBytes: 16 * (n + ctx.predictionRows) * p,
+      passingBytes: 0,
+      resultBytes: ctx.predictionRows * (ANSWER_BYTES.prediction + (ctx.lifeValuesPerRow ?? 1) * ANSWER_BYTES.coefficient),
+    },
     ...common,
   };
 }

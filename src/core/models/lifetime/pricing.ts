@@ -62,6 +62,20 @@ export function priceNonparametric(shape: { rows: number; leftOrIntervalCensored
 }
 
 /**
+ * Values at new rows (life-predictions.ts): the prediction rows' design
+ * (built with the data's rows, as for least squares), then per row and
+ * value one quantile or survival function (a gamma percentile about five
+ * incomplete gamma evaluations) and a quadratic form in the covariance.
+ */
+export function priceLifePredictions(shape: { rows: number; designColumns: number; predictionRows: number; valuesPerRow: number; distribution: DistributionName }): number {
+  const m = Math.max(0, shape.predictionRows);
+  if (m === 0) return 0;
+  const d = Math.max(1, shape.designColumns) + 1;
+  const perValue = (shape.distribution === 'gamma' ? 5 * GAMMA_CENSORED_ROW : LOCATION_SCALE_ROW) + 2 * d * d;
+  return 4 * (shape.rows + m) * d + m * (Math.max(1, shape.valuesPerRow) * perValue + 2 * d * d);
+}
+
+/**
  * The life-data picture stored with a comparison (life-picture.ts): the
  * nonparametric estimate once, then each model's curve — a sort of its
  * rows' locations and PICTURE_POINTS times × at most PICTURE_GROUPS
