@@ -79,12 +79,17 @@ t.test('without prediction rows a model with terms says where its percentiles wo
 });
 
 t.test('a model without terms gives survival at options.survivalAt, as survreg', async (t) => {
-  const res = await post(t, {
+  const { app } = await buildTestApp(t);
+  const res = await app.inject({ method: 'POST', url: '/v1/comparisons', payload: {
     data: { columns: { endurance: bearings() } }, response: 'endurance',
     candidates: FAMILIES.map((d) => ({ name: d, distribution: d })),
     options: { percentiles: ref.probabilities, survivalAt: ref.bearingTimes },
-  });
+  } });
   t.equal(res.statusCode, 200, res.body.slice(0, 600));
+  const report = await app.inject({ method: 'GET', url: `/v1/comparisons/${res.json().id}/report` });
+  t.match(report.body, /id="survival"/, 'the report lists survival probabilities');
+  const survivalTable = /<table[^>]*id="survival"[\s\S]*?<\/table>/.exec(report.body)?.[0] ?? '';
+  t.equal((survivalTable.match(/<tr data-model="weibull"/g) ?? []).length, ref.bearingTimes.length, 'one row per time for the Weibull');
   for (const d of FAMILIES) {
     const m = res.json().models.find((x: { name: string }) => x.name === d);
     const want = ref.bearings[d][0];
