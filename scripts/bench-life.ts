@@ -17,7 +17,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildDesign } from '../src/core/design/index.ts';
 import { fitLeastSquares } from '../src/core/fit/index.ts';
-import { DISTRIBUTION_NAMES, fitLifetime, type CensoredResponse } from '../src/core/models/lifetime/index.ts';
+import { DISTRIBUTION_NAMES, fitLifetime, lifePicture, type CensoredResponse, type LifetimeFit } from '../src/core/models/lifetime/index.ts';
+import { lifeCurve } from '../src/core/models/lifetime/life-picture.ts';
 import type { Columns, DesignMatrix } from '../src/core/types.ts';
 
 const units = Number(process.argv[2] ?? 100_000);
@@ -40,6 +41,13 @@ function best<T>(f: () => T): [T, number] {
     if (next[1] < out[1]) out = next;
   }
   return out;
+}
+
+/** The life-data picture a comparison stores (life-picture.ts): its time, and the size of its JSON. */
+function picture(label: string, response: CensoredResponse, fits: LifetimeFit[], hasTerms: boolean): void {
+  const [stored, s] = best(() => lifePicture(response, fits.map((f) => (times: readonly number[]) => lifeCurve(f, hasTerms, times)), 0.95));
+  const parts = stored.estimate.method === 'kaplanMeier' ? `${stored.estimate.steps.length} steps kept` : `${stored.estimate.intervals.length} intervals kept`;
+  console.log(`${label.padEnd(34)} ${s.toFixed(3).padStart(8)} s   ${JSON.stringify(stored).length} bytes of JSON, ${parts}`);
 }
 
 function hasR(): boolean {
@@ -112,6 +120,7 @@ console.log(`Figures from a shared, busy machine: read the ratios, not the secon
     const ref = survreg(csvOf(response, { stress, humidity, line }), 'Surv(lo, s == 0) ~ stress + humidity + line', 'weibull', dir);
     console.log(`   survreg                          ${ref.seconds.toFixed(3).padStart(8)} s   ours / survreg = ${(ourSeconds / ref.seconds).toFixed(2)}; ours - survreg's log-likelihood ${(fit.logLikelihood - ref.logLikelihood).toExponential(1)}`);
   }
+  picture('   the stored life picture (Kaplan–Meier, the row-averaged curve)', response, [fit], true);
 }
 
 // 2. Eight distributions, one covariate, every kind of censoring.
@@ -141,6 +150,7 @@ console.log(`Figures from a shared, busy machine: read the ratios, not the secon
     normal: 'gaussian', logistic: 'logistic', smallestExtremeValue: 'extreme',
   };
   const csv = r ? csvOf(response, { load }) : '';
+  const fits: LifetimeFit[] = [];
   for (const distribution of DISTRIBUTION_NAMES) {
     const [fit, s] = best(() => fitLifetime({ name: distribution, distribution, design: X }, response));
     if ('issues' in fit) throw new Error(JSON.stringify(fit.issues));
@@ -150,6 +160,8 @@ console.log(`Figures from a shared, busy machine: read the ratios, not the secon
       tail = `   survreg ${ref.seconds.toFixed(3)} s, ours / survreg = ${(s / ref.seconds).toFixed(2)}; ours - survreg's logL ${(fit.logLikelihood - ref.logLikelihood).toExponential(1)}`;
     } else if (r) tail = '   (survreg has no gamma)';
     console.log(`   ${distribution.padEnd(22)} ${s.toFixed(3).padStart(8)} s   ${(s / lsSeconds).toFixed(1).padStart(6)} x least squares, ${String(fit.convergence.iterations).padStart(2)} iterations${tail}`);
+    fits.push(fit);
   }
+  picture("   the stored life picture (Turnbull's estimate, eight row-averaged curves)", response, fits, true);
 }
 rmSync(dir, { recursive: true, force: true });

@@ -61,3 +61,50 @@ writeLines(paste0("{\n \"source\": \"survival::survfit: Kaplan-Meier (conf.type 
                   " \"sealsTurnbull\": ", obj(time = vec(sb$time), survival = vec(sb$surv)), "\n}"),
            file.path(out_dir, "survfit-nonparametric.json"))
 cat("wrote", out_dir, "\n")
+
+# survreg-predictions.json: values at stated reference rows of the mixed-data
+# fits (and of the intercept-only bearing fits), for life predictions:
+# - the location (linear predictor) with its standard error (predict type "lp");
+# - percentiles on the log scale (predict type "uquantile", se.fit), the
+#   interval exp(uq -/+ z se) at 95%;
+# - survival probabilities S(t) at given times with the delta method on the
+#   standardised deviate z = (ln t - lp)/scale, gradient (-x/scale, -z) in
+#   (coefficients, log scale) against vcov(fit), the interval S(z + q se),
+#   S(z - q se); written out here, survreg has no survival predictions.
+rows <- data.frame(kelvin = c(358.15, 398.15), finish = factor(c("gloss", "matte"), levels = c("matte", "gloss")), load = c(1.0, 1.5))
+surv_law <- list(weibull = function(z) exp(-exp(z)), lognormal = function(z) pnorm(-z), loglogistic = function(z) plogis(-z))
+q <- qnorm(0.975)
+probabilities <- c(0.1, 0.5)
+times <- c(500, 1000, 2000)
+predict_json <- function(f, fam, newdata, x, times) {
+  lp <- predict(f, newdata = newdata, type = "lp", se.fit = TRUE)
+  uq <- predict(f, newdata = newdata, type = "uquantile", p = probabilities, se.fit = TRUE)
+  uq_fit <- matrix(uq$fit, nrow = nrow(x))
+  uq_se <- matrix(uq$se.fit, nrow = nrow(x))
+  v <- vcov(f)
+  per_row <- sapply(seq_len(nrow(x)), function(i) {
+    z <- (log(times) - lp$fit[i]) / f$scale
+    se <- sapply(z, function(zz) { g <- c(-x[i, ] / f$scale, -zz); sqrt(drop(t(g) %*% v %*% g)) })
+    obj(location = num(lp$fit[i]), locationSE = num(lp$se.fit[i]),
+        percentile = vec(exp(uq_fit[i, ])), percentileLower = vec(exp(uq_fit[i, ] - q * uq_se[i, ])), percentileUpper = vec(exp(uq_fit[i, ] + q * uq_se[i, ])),
+        survival = vec(surv_law[[fam]](z)), survivalLower = vec(surv_law[[fam]](z + q * se)), survivalUpper = vec(surv_law[[fam]](z - q * se)))
+  })
+  paste0("[", paste(per_row, collapse = ", "), "]")
+}
+x_rows <- cbind(1, 1 / rows$kelvin, as.numeric(rows$finish == "gloss"), rows$load)
+aft <- sapply(names(surv_law), function(fam) {
+  f <- survreg(Surv(t1, t2, type = "interval2") ~ I(1 / kelvin) + finish + load, data = d, dist = fam, control = control)
+  predict_json(f, fam, rows, x_rows, times)
+})
+plain <- sapply(names(surv_law), function(fam) {
+  f <- survreg(Surv(bearings) ~ 1, dist = fam, control = control)
+  predict_json(f, fam, data.frame(one = 1), matrix(1, 1, 1), c(25, 50, 100))
+})
+writeLines(paste0("{\n \"source\": \"survival::survreg fits of survreg-aft.json (mixed data) and of the bearings; location and percentiles by predict(type = lp / uquantile, se.fit = TRUE), 95% intervals exp(uq -/+ 1.959964 se); survival by the delta method on the standardised deviate against vcov(fit), written in this script\",\n",
+                  " \"versions\": ", versions, ",\n",
+                  " \"rows\": ", obj(kelvin = vec(rows$kelvin), finish = paste0("[", paste(str(as.character(rows$finish)), collapse = ", "), "]"), load = vec(rows$load)), ",\n",
+                  " \"probabilities\": ", vec(probabilities), ", \"times\": ", vec(times), ", \"bearingTimes\": ", vec(c(25, 50, 100)), ",\n",
+                  " \"aft\": {", paste(sprintf("\"%s\": %s", names(aft), aft), collapse = ", "), "},\n",
+                  " \"bearings\": {", paste(sprintf("\"%s\": %s", names(plain), plain), collapse = ", "), "}\n}"),
+           file.path(out_dir, "survreg-predictions.json"))
+cat("wrote survreg-predictions.json\n")

@@ -27,6 +27,7 @@ import { comparisonRoutes } from './routes/comparisons.ts';
 import { recordRoutes } from './routes/records.ts';
 import { pictureRoutes } from './routes/pictures.ts';
 import { searchPictureRoutes } from './routes/search-pictures.ts';
+import { lifePictureRoutes } from './routes/life-pictures.ts';
 import { auditRoutes } from './routes/audit.ts';
 import { replayRoutes } from './routes/replay.ts';
 import { searchReplayRoutes } from './routes/search-replay.ts';
@@ -131,6 +132,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
   await app.register(recordRoutes, { store });
   await app.register(pictureRoutes, { store });
   await app.register(searchPictureRoutes, { store });
+  await app.register(lifePictureRoutes, { store });
   await app.register(auditRoutes, { store });
   await app.register(replayRoutes, { store, policy, compute });
   await app.register(searchReplayRoutes, { store, policy, compute });

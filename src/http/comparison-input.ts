@@ -54,6 +54,7 @@ export function toComparisonInput(body: ComparisonRequest, policy: ActivePolicy)
     trials: body.trials ?? null,
     censoring: body.censoring ?? null,
     percentiles: body.options.percentiles,
+    survivalAt: body.options.survivalAt,
     extras: {
       tests: body.options.tests,
       average: body.options.average,

@@ -16,6 +16,8 @@ export { escapeText, escapeAttribute, toCarriableText } from './escape.ts';
 export type { StoredComparisonView, ComparisonResultView, ModelView, RankingEntry, CriterionName } from './types.ts';
 export { criterionNames } from './types.ts';
 export { storedComparisonView } from './stored-view.ts';
+export { storedLifePicture } from './life-view.ts';
+export { renderLifeChartSvg } from './life-chart.ts';
 export { REPORT_ROW_LIMITS } from './bounded-rows.ts';
 export type { StoredRecordLike } from './stored-view.ts';
 export { storedSearchView } from './search-view.ts';

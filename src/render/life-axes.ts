@@ -1,7 +1,6 @@
 // Scales and ticks of the life-data picture: time on a log axis (decades,
-// with 2 and 5 between them when few decades are shown) for the
-// distributions of positive time, on a linear axis otherwise; the fraction
-// failed F(t) from 0 to 1.
+// with 2 and 5 between them when few decades are shown) when every time is
+// positive, on a linear axis otherwise; the fraction failed F(t) from 0 to 1.
 
 export interface TimeScale {
   log: boolean;
@@ -26,15 +25,16 @@ export function tickLabel(value: number): string {
   return String(Number(value.toPrecision(6)));
 }
 
-/** The time axis over the given times, drawn between screen x0 and x1. */
-export function timeScale(times: readonly number[], log: boolean, x0: number, x1: number): TimeScale {
-  const usable = times.filter((t) => Number.isFinite(t) && (!log || t > 0));
-  let min = usable.length > 0 ? Math.min(...usable) : log ? 1 : 0;
-  let max = usable.length > 0 ? Math.max(...usable) : log ? 10 : 1;
+/**
+ * The time axis between min and max (the stored picture's axis: whole
+ * decades on a log axis), drawn between screen x0 and x1; a linear axis is
+ * rounded out to whole steps.
+ */
+export function timeScale(lo: number, hi: number, log: boolean, x0: number, x1: number): TimeScale {
+  let min = lo;
+  let max = hi;
   if (log) {
-    // Half a decade of margin each side, at least one decade shown.
-    min = 10 ** Math.floor(Math.log10(min) - 0.2);
-    max = 10 ** Math.ceil(Math.log10(max) + 0.2);
+    if (!(min > 0) || !(max > min)) { min = 1; max = 10; }
     const to = (t: number) => (Math.log10(t) - Math.log10(min)) / (Math.log10(max) - Math.log10(min));
     const decades = Math.round(Math.log10(max / min));
     const ticks: { value: number; label: string }[] = [];
@@ -47,7 +47,7 @@ export function timeScale(times: readonly number[], log: boolean, x0: number, x1
     }
     return { log, min, max, ticks, x: (t) => x0 + (x1 - x0) * Math.min(1, Math.max(0, t > 0 ? to(t) : 0)) };
   }
-  if (max === min) { min -= 1; max += 1; }
+  if (!(max > min)) { min -= 1; max += 1; }
   const step = niceStep(max - min, 6);
   min = Math.floor(min / step) * step;
   max = Math.ceil(max / step) * step;

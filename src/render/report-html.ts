@@ -14,6 +14,7 @@ import { diagnosticsSection } from './report-diagnostics.ts';
 import { averagedSection, cautionsSection, nestedTestsSection } from './report-extras.ts';
 import { censoringLine, modelKindsTable, percentilesTable, quasiRankingTables } from './report-kinds.ts';
 import { integrityNotice } from './report-integrity.ts';
+import { lifePictureSection } from './report-life.ts';
 import { reportStyle } from './report-style.ts';
 import { breakableName, factsList } from './report-table.ts';
 import { modelFitTable, modelsTable, rankingTables, supportNote } from './report-tables.ts';
@@ -91,6 +92,7 @@ export function renderReportHtml(record: StoredComparisonView, options: ReportOp
     modelsTable(record),
     modelFitTable(record),
     percentilesTable(record),
+    lifePictureSection(record),
     nestedTestsSection(record),
     averagedSection(record),
     diagnosticsSection(record),

@@ -3,8 +3,9 @@
 // curve per fitted model in order, the nonparametric estimate drawn the way
 // its method needs, hostile model names inert, no non-numbers in the markup.
 import t from 'tap';
-import { fitLifetime, fittedDistributionCurve, nonparametricEstimate } from '../../src/core/models/lifetime/index.ts';
-import { lifeChartTimes, renderLifeChartSvg } from '../../src/render/life-chart.ts';
+import { fitLifetime, lifePicture } from '../../src/core/models/lifetime/index.ts';
+import { lifeCurve } from '../../src/core/models/lifetime/life-picture.ts';
+import { renderLifeChartSvg } from '../../src/render/life-chart.ts';
 import { summariseSvg } from './parse-with-python.ts';
 import { design, response, solderJoints } from '../core/models/lifetime/fixtures.ts';
 
@@ -13,15 +14,14 @@ const hostile = '<script>alert(1)</script> & "weibull"';
 
 function picture(time: string, censoring: { status: string; upper?: string }, names: string[]) {
   const r = response(columns, time, censoring);
-  const estimate = nonparametricEstimate(r, 0.9);
-  const times = lifeChartTimes(estimate, true);
   const curves = names.map((name) => {
     const distribution = name === hostile ? 'weibull' : name;
     const f = fitLifetime({ name, distribution, design: design(columns, []) }, r);
     if ('issues' in f) throw new Error('fit');
-    return { name, times, cdf: fittedDistributionCurve(f, times) };
+    return (times: readonly number[]) => lifeCurve(f, false, times);
   });
-  return { estimate, svg: renderLifeChartSvg({ title: 'Solder joints: cycles to a cracked joint', estimate, curves, logTime: true }) };
+  const stored = lifePicture(r, curves, 0.9);
+  return { estimate: stored.estimate, svg: renderLifeChartSvg({ title: 'Solder joints: cycles to a cracked joint', picture: stored }) };
 }
 
 t.test('Kaplan–Meier picture: band, censoring marks and one curve per model', async (t) => {

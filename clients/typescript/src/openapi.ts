@@ -1554,6 +1554,151 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/v1/comparisons/{id}/life.svg": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The life-data picture of a stored comparison with life models, as SVG
+         * @description The nonparametric estimate of the fraction failed F(t) — Kaplan–Meier with its band when every row is exact or right-censored, Turnbull's estimate with a shaded box wherever it is not determined otherwise — against each fitted life distribution's F(t), on a log-time axis when every time is positive.
+         *
+         *     Drawn only from the numbers stored with the comparison (lifePicture of GET /v1/comparisons/{id}): nothing is refitted. A model with terms (an accelerated-failure-time model) is drawn as F(t | x) averaged over the comparison's rows, and its legend entry says so.
+         *
+         *     A comparison without life models (or stored before the picture existed) has none: 422.
+         *
+         *     Caching, the ETag and the integrity handling are those of chart.svg.
+         *
+         *     Like the criteria, the picture compares models; it does not validate one. A life model for a safety-relevant decision needs domain review and local rules.
+         */
+        get: {
+            parameters: {
+                query?: {
+                    /** @description A named width, as for chart.svg (tile is also 280 high). Default 760×460. */
+                    size?: "tile" | "panel" | "print" | "wide";
+                    /** @description Width in pixels, 240..2400; overrides the size's. */
+                    width?: number;
+                    /** @description Height in pixels, 160..2400. */
+                    height?: number;
+                };
+                header?: never;
+                path: {
+                    /** @description The id POST /v1/comparisons (or, under /v1/searches, POST /v1/searches) returned. */
+                    id: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The chart as SVG: no scripts and no external references; its title and desc say the ranking in words. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "image/svg+xml": string;
+                    };
+                };
+                /** @description Not modified: the copy the client holds (If-None-Match) is current. No body. */
+                304: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content?: never;
+                };
+                /** @description Default Response */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description No API key, or one the service does not know (WWW-Authenticate: Bearer). */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key lacks the role this operation needs (the problem names it). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The request was not received within REQUEST_TIMEOUT_MS. */
+                408: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description The key exceeded RATE_LIMIT_PER_MINUTE, or this client address made more than AUTH_FAILURES_PER_MINUTE requests with a missing or unknown key (every keyed request from it waits out the minute). Retry-After says when to come back; the problem names the setting. */
+                429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+                /** @description Default Response */
+                503: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["Problem"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/v1/audit/verify": {
         parameters: {
             query?: never;
@@ -2547,6 +2692,35 @@ export interface components {
             /** @description A numeric column holding the end of the window on interval rows (read on those rows only: null elsewhere drops nothing). */
             upper?: string;
         };
+        LifeRowPredictionInput: {
+            /** @description μ = x'β at the row, with its Wald interval: of ln t for the distributions of positive time, of t for normal, logistic and smallestExtremeValue. */
+            location: {
+                estimate: number;
+                standardError: number | null;
+                lower: number | null;
+                upper: number | null;
+            };
+            /** @description The median life at the row (the 50th percentile), with its interval (delta method on ln t for the distributions of positive time). */
+            medianLife: {
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            };
+            /** @description The percentiles asked for in options.percentiles, at the row. */
+            percentiles: {
+                probability: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[];
+            /** @description Survival probabilities at options.survivalAt, at the row. */
+            survival: {
+                time: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[];
+        };
         DataInput: {
             /** @description Equal-length arrays: numbers, strings (categorical) or null (missing). */
             columns: {
@@ -2646,8 +2820,10 @@ export interface components {
                 smaller: string;
                 larger: string;
             }[];
-            /** @description Probabilities at which a lifetime model without terms reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel. */
+            /** @description Probabilities at which a lifetime model reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel: for a model without terms in models[].percentiles, for a model with terms at each options.predict row (models[].lifePredictions). */
             percentiles?: number[];
+            /** @description Times at which a lifetime model reports the probability of surviving beyond them, S(t), with delta-method intervals at intervalLevel on the scale of the distribution's standardised deviate (log-log for the Weibull, exponential and smallest extreme value, logit for the log-logistic and logistic, probit for the lognormal and normal; log-log for the gamma), mapped back so they stay inside 0..1. For a model without terms in models[].survival, for a model with terms at each options.predict row. */
+            survivalAt?: number[];
             /**
              * @description Average over all fitted candidates or over the confidence set.
              * @default all
@@ -2684,6 +2860,60 @@ export interface components {
              */
             options?: components["schemas"]["ComparisonOptionsInput"];
             label?: string;
+        };
+        /** @description Present when the comparison has life models: what GET /v1/comparisons/{id}/life.svg draws, computed when the comparison ran. A picture shows how the fitted distributions follow the data; like the criteria, it does not validate a life model. */
+        LifePictureInput: {
+            /** @description A log-time axis (every observed time positive); otherwise linear. */
+            logTime: boolean;
+            /** @description The ends of the time axis the picture draws. */
+            axis: {
+                min: number;
+                max: number;
+            };
+            /** @description The 81 times, evenly spread over the axis, at which every curve is given. */
+            times: number[];
+            /** @description The nonparametric estimate: Kaplan–Meier when every row is exact or right-censored, Turnbull's estimate as soon as one is left- or interval-censored. */
+            estimate: {
+                /** @constant */
+                method: "kaplanMeier";
+                intervalLevel: number;
+                /** @description The Kaplan–Meier estimate of the fraction failed F(t) = 1 − S(t) just after each kept failure time, with its band (Greenwood's variance on the log(−log S) scale). A step is kept once F has risen by 0.002 since the last kept one, so the stored steps are never further than that from the full estimate. */
+                steps: {
+                    time: number;
+                    fractionFailed: number;
+                    lower: number | null;
+                    upper: number | null;
+                }[];
+                /** @description Times of right-censored units (distinct, at most 200, spread by rank), for tick marks. */
+                censoredTimes: number[];
+                /** @description How many units were right-censored. */
+                censoredCount: number;
+            } | {
+                /** @constant */
+                method: "turnbull";
+                /** @description Turnbull's estimate: where F rises, from before (just below left) to after (at right; right null: beyond every inspection); inside each interval it is not determined. Neighbouring intervals are merged while together they rise by less than 0.002. */
+                intervals: {
+                    left: number;
+                    right: number | null;
+                    before: number;
+                    after: number;
+                }[];
+                /** @description Whether the self-consistency iteration met its rule (conventions.lifetime). */
+                converged: boolean;
+            };
+            curves: {
+                model: string;
+                distribution: string;
+                /**
+                 * @description single: the model has no terms, one F(t) for every unit. rowAverage: the model has terms; drawn as F(t | x) averaged over the comparison's rows (at most 256 equal-count groups of rows by location), the counterpart of the estimate from the whole sample.
+                 * @enum {string}
+                 */
+                reference: "single" | "rowAverage";
+                /** @description F(t) at each of times. */
+                fractionFailed: (number | null)[];
+            }[];
+            /** @description The rules above in words. */
+            notes: string[];
         };
         CautionInput: {
             /** @description A stable machine-readable reason. */
@@ -2797,13 +3027,22 @@ export interface components {
              * @enum {string}
              */
             distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
-            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for, or when the model has terms (a caution, life_values_depend_on_row, then says so and where the values are). */
             percentiles?: {
                 probability: number;
                 estimate: number;
                 lower: number | null;
                 upper: number | null;
             }[] | null;
+            /** @description Lifetime models without terms: survival probabilities at options.survivalAt with their intervals; null as for percentiles. */
+            survival?: {
+                time: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models, with options.predict: one entry per new row (null where the row breaks a relation among aliased columns). Life models have no mean response, so predictions stays null for them. */
+            lifePredictions?: (components["schemas"]["LifeRowPredictionInput"] | null)[];
             /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
             logLikelihoodLogTime?: number | null;
             /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
@@ -2928,6 +3167,7 @@ export interface components {
             nestedTests: components["schemas"]["NestedTestInput"][];
             averaged: components["schemas"]["AveragedInput"] | null;
             cautions: components["schemas"]["CautionInput"][];
+            lifePicture?: components["schemas"]["LifePictureInput"];
         };
         /** @description RFC 9457 problem details (application/problem+json). */
         ProblemInput: {
@@ -3248,13 +3488,22 @@ export interface components {
              * @enum {string}
              */
             distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
-            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for, or when the model has terms (a caution, life_values_depend_on_row, then says so and where the values are). */
             percentiles?: {
                 probability: number;
                 estimate: number;
                 lower: number | null;
                 upper: number | null;
             }[] | null;
+            /** @description Lifetime models without terms: survival probabilities at options.survivalAt with their intervals; null as for percentiles. */
+            survival?: {
+                time: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models, with options.predict: one entry per new row (null where the row breaks a relation among aliased columns). Life models have no mean response, so predictions stays null for them. */
+            lifePredictions?: (components["schemas"]["LifeRowPredictionInput"] | null)[];
             /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
             logLikelihoodLogTime?: number | null;
             /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
@@ -3793,6 +4042,35 @@ export interface components {
             /** @description A numeric column holding the end of the window on interval rows (read on those rows only: null elsewhere drops nothing). */
             upper?: string;
         };
+        LifeRowPrediction: {
+            /** @description μ = x'β at the row, with its Wald interval: of ln t for the distributions of positive time, of t for normal, logistic and smallestExtremeValue. */
+            location: {
+                estimate: number;
+                standardError: number | null;
+                lower: number | null;
+                upper: number | null;
+            };
+            /** @description The median life at the row (the 50th percentile), with its interval (delta method on ln t for the distributions of positive time). */
+            medianLife: {
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            };
+            /** @description The percentiles asked for in options.percentiles, at the row. */
+            percentiles: {
+                probability: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[];
+            /** @description Survival probabilities at options.survivalAt, at the row. */
+            survival: {
+                time: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[];
+        };
         Data: {
             /** @description Equal-length arrays: numbers, strings (categorical) or null (missing). */
             columns: {
@@ -3892,8 +4170,10 @@ export interface components {
                 smaller: string;
                 larger: string;
             }[];
-            /** @description Probabilities at which a lifetime model without terms reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel. */
+            /** @description Probabilities at which a lifetime model reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel: for a model without terms in models[].percentiles, for a model with terms at each options.predict row (models[].lifePredictions). */
             percentiles?: number[];
+            /** @description Times at which a lifetime model reports the probability of surviving beyond them, S(t), with delta-method intervals at intervalLevel on the scale of the distribution's standardised deviate (log-log for the Weibull, exponential and smallest extreme value, logit for the log-logistic and logistic, probit for the lognormal and normal; log-log for the gamma), mapped back so they stay inside 0..1. For a model without terms in models[].survival, for a model with terms at each options.predict row. */
+            survivalAt?: number[];
             /**
              * @description Average over all fitted candidates or over the confidence set.
              * @default all
@@ -3930,6 +4210,60 @@ export interface components {
              */
             options: components["schemas"]["ComparisonOptions"];
             label?: string;
+        };
+        /** @description Present when the comparison has life models: what GET /v1/comparisons/{id}/life.svg draws, computed when the comparison ran. A picture shows how the fitted distributions follow the data; like the criteria, it does not validate a life model. */
+        LifePicture: {
+            /** @description A log-time axis (every observed time positive); otherwise linear. */
+            logTime: boolean;
+            /** @description The ends of the time axis the picture draws. */
+            axis: {
+                min: number;
+                max: number;
+            };
+            /** @description The 81 times, evenly spread over the axis, at which every curve is given. */
+            times: number[];
+            /** @description The nonparametric estimate: Kaplan–Meier when every row is exact or right-censored, Turnbull's estimate as soon as one is left- or interval-censored. */
+            estimate: {
+                /** @constant */
+                method: "kaplanMeier";
+                intervalLevel: number;
+                /** @description The Kaplan–Meier estimate of the fraction failed F(t) = 1 − S(t) just after each kept failure time, with its band (Greenwood's variance on the log(−log S) scale). A step is kept once F has risen by 0.002 since the last kept one, so the stored steps are never further than that from the full estimate. */
+                steps: {
+                    time: number;
+                    fractionFailed: number;
+                    lower: number | null;
+                    upper: number | null;
+                }[];
+                /** @description Times of right-censored units (distinct, at most 200, spread by rank), for tick marks. */
+                censoredTimes: number[];
+                /** @description How many units were right-censored. */
+                censoredCount: number;
+            } | {
+                /** @constant */
+                method: "turnbull";
+                /** @description Turnbull's estimate: where F rises, from before (just below left) to after (at right; right null: beyond every inspection); inside each interval it is not determined. Neighbouring intervals are merged while together they rise by less than 0.002. */
+                intervals: {
+                    left: number;
+                    right: number | null;
+                    before: number;
+                    after: number;
+                }[];
+                /** @description Whether the self-consistency iteration met its rule (conventions.lifetime). */
+                converged: boolean;
+            };
+            curves: {
+                model: string;
+                distribution: string;
+                /**
+                 * @description single: the model has no terms, one F(t) for every unit. rowAverage: the model has terms; drawn as F(t | x) averaged over the comparison's rows (at most 256 equal-count groups of rows by location), the counterpart of the estimate from the whole sample.
+                 * @enum {string}
+                 */
+                reference: "single" | "rowAverage";
+                /** @description F(t) at each of times. */
+                fractionFailed: (number | null)[];
+            }[];
+            /** @description The rules above in words. */
+            notes: string[];
         };
         Caution: {
             /** @description A stable machine-readable reason. */
@@ -4043,13 +4377,22 @@ export interface components {
              * @enum {string}
              */
             distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
-            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for, or when the model has terms (a caution, life_values_depend_on_row, then says so and where the values are). */
             percentiles?: {
                 probability: number;
                 estimate: number;
                 lower: number | null;
                 upper: number | null;
             }[] | null;
+            /** @description Lifetime models without terms: survival probabilities at options.survivalAt with their intervals; null as for percentiles. */
+            survival?: {
+                time: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models, with options.predict: one entry per new row (null where the row breaks a relation among aliased columns). Life models have no mean response, so predictions stays null for them. */
+            lifePredictions?: (components["schemas"]["LifeRowPrediction"] | null)[];
             /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
             logLikelihoodLogTime?: number | null;
             /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */
@@ -4174,6 +4517,7 @@ export interface components {
             nestedTests: components["schemas"]["NestedTest"][];
             averaged: components["schemas"]["Averaged"] | null;
             cautions: components["schemas"]["Caution"][];
+            lifePicture?: components["schemas"]["LifePicture"];
         };
         /** @description RFC 9457 problem details (application/problem+json). */
         Problem: {
@@ -4494,13 +4838,22 @@ export interface components {
              * @enum {string}
              */
             distribution?: "exponential" | "weibull" | "lognormal" | "loglogistic" | "gamma" | "normal" | "logistic" | "smallestExtremeValue";
-            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms. */
+            /** @description Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for, or when the model has terms (a caution, life_values_depend_on_row, then says so and where the values are). */
             percentiles?: {
                 probability: number;
                 estimate: number;
                 lower: number | null;
                 upper: number | null;
             }[] | null;
+            /** @description Lifetime models without terms: survival probabilities at options.survivalAt with their intervals; null as for percentiles. */
+            survival?: {
+                time: number;
+                estimate: number;
+                lower: number | null;
+                upper: number | null;
+            }[] | null;
+            /** @description Lifetime models, with options.predict: one entry per new row (null where the row breaks a relation among aliased columns). Life models have no mean response, so predictions stays null for them. */
+            lifePredictions?: (components["schemas"]["LifeRowPrediction"] | null)[];
             /** @description Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked. */
             logLikelihoodLogTime?: number | null;
             /** @description Lifetime models: how many rows of each censoring status the model was fitted to. */

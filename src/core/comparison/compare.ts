@@ -25,9 +25,8 @@ import { comparisonExtras, type Extras, type ExtrasOptions } from './extras/inde
 import { averagingCautions } from './extras/averaging.ts';
 import { trialsUse } from './trials-use.ts';
 import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
-import type { CensoringColumns } from '../models/lifetime/index.ts';
+import { lifePicture, type CensoringColumns, type LifePicture } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
-import { lifetimeLikelihoodRatioTests } from './lifetime-nested.ts';
 import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
@@ -52,6 +51,8 @@ export interface ComparisonInput {
   censoring?: CensoringColumns | null;
   /** options.percentiles, read by lifetime models. */
   percentiles?: readonly number[];
+  /** options.survivalAt, read by lifetime models. */
+  survivalAt?: readonly number[];
   extras?: ExtrasOptions;
   /** QAIC and QAICc under one ĉ, given or estimated (options.overdispersion). */
   overdispersion?: OverdispersionRequest;
@@ -70,6 +71,8 @@ export interface ComparisonOutcome {
   nestedTests: Extras['nestedTests'];
   averaged: Extras['averaged'];
   cautions: Caution[];
+  /** With life models: what the life-data picture draws (lifetime/life-picture.ts). */
+  lifePicture?: LifePicture;
 }
 
 /** The data columns a candidate reads besides the response and weights: its terms, and a GLM's offset and trials. */
@@ -150,7 +153,9 @@ export function compareModels(
 
   const censored = censoredSample({ ...input, censoring: input.censoring ?? null }, ctx, issues);
   if (issues.length > 0) return { issues };
-  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles }, issues);
+  const scored = scoreCandidates(input.candidates, { columns: input.columns, ctx, intervalLevel: input.intervalLevel, censored, percentiles: input.percentiles,
+    survivalAt: input.survivalAt, predicting: input.extras?.predict !== undefined,
+  }, issues);
   const models: ModelResult[] = scored.map((m) => m.report);
   const mixed = issues.length === 0 ? measureMixIssue(scored) : null;
   if (mixed) issues.push(mixed);
@@ -182,10 +187,12 @@ export function compareModels(
     columns: input.columns, rows: ctx.rows, weights: ctx.weights?.values, weightsColumn: input.weights, intervalLevel,
     // The status and trials columns decide rows and likelihoods but are no terms: prediction rows need not carry them
     // (a binomial predicts the success probability per trial).
-    sample: JSON.stringify([input.response, input.weights]), termColumns: used.filter((c) => c !== input.censoring?.status && !trialsColumns.has(c)),
+    sample: JSON.stringify([input.response, input.weights]), lifetimeSample: JSON.stringify([input.response, input.censoring ?? null]), termColumns: used.filter((c) => c !== input.censoring?.status && !trialsColumns.has(c)),
     scored, models, rankings, rankBy: choice.rankBy, options: input.extras ?? {},
   });
   if ('issues' in extras) return extras;
+  const lifeCurves = scored.flatMap((m) => (m.capabilities.lifeCurve ? [m.capabilities.lifeCurve] : []));
+  const picture = censored && lifeCurves.length > 0 ? lifePicture(censored, lifeCurves, intervalLevel) : null;
 
   return {
     result: {
@@ -201,7 +208,7 @@ export function compareModels(
       rankings: { ...rankings, loo: extras.loo.map((e) => ({ ...e, band: null })) },
       ...(quasi ? { overdispersion: { cHat: quasi.cHat, source: quasi.source, df: quasi.df, belowOne: quasi.belowOne } } : {}),
       verdict: verdict(rankings, choice.rankBy, { parameters, observations: ctx.n, cHat: quasi?.cHat ?? null }),
-      nestedTests: [...extras.nestedTests, ...lifetimeLikelihoodRatioTests(scored, JSON.stringify([input.response, input.censoring ?? null]))],
+      nestedTests: extras.nestedTests,
       averaged: extras.averaged,
       cautions: [
         ...comparisonCautions({
@@ -214,6 +221,7 @@ export function compareModels(
         ...unscaledRankingCaution(quasi, choice.rankBy),
         ...trials.cautions,
       ],
+      ...(picture ? { lifePicture: picture } : {}),
     },
   };
 }

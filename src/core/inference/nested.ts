@@ -113,7 +113,7 @@ export const LEAST_SQUARES_NESTING: NestingRules<NestedCandidate, { smaller: Nes
     message: notNestedReason(a, b),
     facts: { smaller: pair.smaller, larger: pair.larger, smallerRank: a.fit.rank, largerRank: b.fit.rank },
   }),
-  unknownCandidate: 'A requested nested test names a candidate that is not among those compared, or one that is not tested on request: requested tests are F and likelihood-ratio tests between least-squares candidates fitted here, linear or nonlinear (not a model fitted elsewhere, a generalised linear or life candidate; life candidates get their likelihood-ratio tests without asking).',
+  unknownCandidate: 'A requested nested test names a candidate that is not among those compared, or one that is not tested on request: requested tests are F and likelihood-ratio tests between least-squares candidates fitted here, linear or nonlinear (not a model fitted elsewhere, a generalised linear or life candidate; a pair naming a life model is tested by the likelihood-ratio test between life models).',
 };
 
 /**

@@ -14,7 +14,7 @@ export interface NestingOffer<C extends { name: string } = { name: string }> {
   rules: NestingRules<C, { smaller: C; larger: C }, NestedTest>;
 }
 
-const UNKNOWN_CANDIDATE = 'A requested nested test names a candidate that is not among those compared, or one whose kind is not tested on request: requested tests pair least-squares models fitted here (linear, or nonlinear on the caller\'s word), or generalised linear models fitted here of one family and link (a model fitted elsewhere has nothing to test; life candidates get their likelihood-ratio tests without asking).';
+const UNKNOWN_CANDIDATE = 'A requested nested test names a candidate that is not among those compared, or one whose kind is not tested on request: requested tests pair least-squares models fitted here (linear, or nonlinear on the caller\'s word), or generalised linear models fitted here of one family and link (a model fitted elsewhere has nothing to test; a pair naming a life model is tested by the likelihood-ratio test between life models).';
 
 /** Every nested pair within each kind's offers (candidate order), plus the pairs the request names. */
 export function testNestingOffers(

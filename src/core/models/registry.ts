@@ -43,6 +43,10 @@ export interface ScoringSample {
   censored?: CensoredResponse | null;
   /** options.percentiles: life percentiles a lifetime model without terms reports. */
   percentiles?: readonly number[];
+  /** options.survivalAt: times at which a lifetime model without terms gives survival probabilities. */
+  survivalAt?: readonly number[];
+  /** Whether options.predict rows were sent (life models with terms give their percentiles there). */
+  predicting?: boolean;
 }
 
 export interface CandidateKind<C extends CandidateInput> {
@@ -96,8 +100,8 @@ const fittedMeans: CandidateKind<FittedMeansCandidateInput> = {
 
 /** Life distributions fitted by maximum likelihood to censored (or exact) times. */
 const lifetime: CandidateKind<LifetimeCandidateInput> = {
-  score: (candidates, { columns, ctx, censored, percentiles, intervalLevel }, issues) =>
-    scoreLifetimeCandidates(candidates, { columns, rows: ctx.rows, censored: censored ?? null, percentiles, intervalLevel }, issues),
+  score: (candidates, { columns, ctx, censored, percentiles, survivalAt, predicting, intervalLevel }, issues) =>
+    scoreLifetimeCandidates(candidates, { columns, rows: ctx.rows, censored: censored ?? null, percentiles, survivalAt, predicting, intervalLevel }, issues),
   price: priceLifetimeCandidate,
 };
 

@@ -7,6 +7,8 @@ import type { ModelDiagnostics } from '../diagnostics/index.ts';
 import type { NestingOffer } from '../inference/nesting-offers.ts';
 import type { LifetimeNestingCandidate } from './lifetime/nested.ts';
 import type { LeastSquaresFacts } from './nonlinear/extra-sum-of-squares.ts';
+import type { LifePredictions } from './lifetime/life-predictions.ts';
+import type { LifeCurve } from './lifetime/life-picture.ts';
 import type { PredictionWithIntervals, ScaledPrediction } from '../inference/prediction-intervals.ts';
 import type { Issue } from '../issues.ts';
 import type { Columns } from '../types.ts';
@@ -58,6 +60,10 @@ export interface ModelCapabilities {
   leastSquaresFacts?: (sample: string) => LeastSquaresFacts;
   /** What a likelihood-ratio test between life models needs (their own nesting rules: lifetime/nested.ts). */
   lifetimeNesting?: (sample: string) => LifetimeNestingCandidate;
+  /** A life model's location, median life, percentiles and survival at new rows (lifetime/life-predictions.ts). */
+  lifePredict?: (at: PredictionRequest) => LifePredictions | { issues: Issue[] };
+  /** A life model's fraction failed at the picture's times (lifetime/life-picture.ts). */
+  lifeCurve?: (times: readonly number[]) => LifeCurve;
   /** Identities of its coefficients' columns, for averaging coefficients across models. */
   columnKeys?: readonly string[];
 }

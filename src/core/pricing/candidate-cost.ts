@@ -10,6 +10,8 @@ export interface CandidateContext {
   fromSummary: boolean;
   /** New rows to predict at (options.predict), 0 when none. */
   predictionRows: number;
+  /** Values a life model gives at each new row: the median, options.percentiles and options.survivalAt (1 when absent). */
+  lifeValuesPerRow?: number;
   /** The design-column cap: level counts stop just past it. */
   maxDesignColumns: number;
 }

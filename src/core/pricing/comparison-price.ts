@@ -9,6 +9,7 @@ import { NO_DATA, shapeOfColumns, shapeOfSummary, type DataShape } from './data-
 import { candidatePath, priceCandidate } from './candidate-prices.ts';
 import { ANSWER_BYTES, FIXED_WORK } from './least-squares-cost.ts';
 import { totalPrice, type PricePart, type RequestPrice } from './types.ts';
+import { priceLifePicture } from '../models/lifetime/pricing.ts';
 
 /** Rankings: the five criteria and leave-one-out, one entry per model each. */
 const RANKINGS = 6;
@@ -38,10 +39,39 @@ function dataPart(shape: DataShape, input: ComparisonInput, summary: DataSummary
   return { ...base, work: 4 * shape.rows * (used + 2), heldBytes: 24 * shape.rows, passingBytes: 0 };
 }
 
+/**
+ * The life-data picture a comparison with life models stores: Turnbull's
+ * estimate is paid for only when the status column holds a left or interval
+ * row (read, not copied: a pass over a column the request already holds).
+ */
+function lifePicturePart(input: ComparisonInput, shape: DataShape, summary: DataSummary | null): PricePart | null {
+  const life = input.candidates.filter((c) => c.form === 'lifetime');
+  if (life.length === 0 || summary || !input.columns) return null;
+  const status = input.censoring ? input.columns[input.censoring.status] : undefined;
+  const leftOrIntervalCensored = Array.isArray(status) && status.some((s) => s === 'left' || s === 'interval');
+  const work = priceLifePicture({
+    rows: shape.rows, models: life.length, gammaModels: life.filter((c) => c.distribution === 'gamma').length, leftOrIntervalCensored,
+  }) / 2; // operations to multiply-adds, as kind.ts prices a fit
+  return {
+    what: `the life-data picture (the nonparametric estimate and ${life.length} fitted curves)`,
+    path: ['candidates'],
+    work,
+    heldBytes: 40 * shape.rows,
+    passingBytes: 0,
+    // Bounded by the thinning: at most 1/PICTURE_RISE steps, 200 marks, 81 points per curve.
+    resultBytes: 60_000 + life.length * 2_000,
+    designColumns: null,
+    remedy: 'Send fewer rows or fewer life candidates',
+  };
+}
+
 export function priceComparison(input: ComparisonInput, summary: DataSummary | null, maxDesignColumns: number): RequestPrice {
   const shape = summary ? shapeOfSummary(summary) : input.columns ? shapeOfColumns(input.columns) : NO_DATA;
   const m = summary ? 0 : predictionRows(input);
-  const ctx = { shape, fromSummary: summary !== null, predictionRows: m, maxDesignColumns };
+  const ctx = {
+    shape, fromSummary: summary !== null, predictionRows: m, maxDesignColumns,
+    lifeValuesPerRow: 1 + (input.percentiles?.length ?? 0) + (input.survivalAt?.length ?? 0),
+  };
   const parts: PricePart[] = [dataPart(shape, input, summary)];
   const prediction = { work: 0, heldBytes: 0, passingBytes: 0, resultBytes: 0 };
   let fitted = 0;
@@ -78,6 +108,8 @@ export function priceComparison(input: ComparisonInput, summary: DataSummary | n
       remedy: 'Predict at fewer new rows (options.predict.columns), or from fewer candidates',
     });
   }
+  const picture = lifePicturePart(input, shape, summary);
+  if (picture) parts.push(picture);
   const models = input.candidates.length;
   const pairs = (fitted * (fitted - 1)) / 2 + (input.extras?.tests?.length ?? 0);
   parts.push({

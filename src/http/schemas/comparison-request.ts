@@ -5,7 +5,7 @@ import { ColumnName, Criterion, FiniteNumber, Term } from './common.ts';
 import { PairToTest } from './comparison-extras.ts';
 import { SummaryData } from './summary.ts';
 import { FittedMeansCandidate, GlmCandidateFields, OverdispersionOption, TrialsColumn } from './glm.ts';
-import { Censoring, LifetimeCandidate, Percentiles } from './lifetime.ts';
+import { Censoring, LifetimeCandidate, Percentiles, SurvivalTimes } from './lifetime.ts';
 import { nonlinearCandidate } from './nonlinear-candidate.ts';
 import { isMissingMarker, readsAsNumber } from '../../core/design/text-values.ts';
 
@@ -195,6 +195,7 @@ export const ComparisonOptions = z
     intervalLevel: z.number().gt(0).lt(1).optional().meta({ description: 'Confidence level of the coefficient and prediction intervals (default 0.95).' }),
     tests: z.array(PairToTest).max(200).optional().meta({ description: 'Pairs to test besides those found automatically; each must be nested: two least-squares models fitted here, or two generalised linear models fitted here of one family and link, offset and trials (a deviance test, and an F test where the family estimates its dispersion). A pair with a nonlinear (expression) candidate is taken as nested on the caller\'s word — expressions have no columns to compare — after checking the same sample, fewer parameters in the smaller and a larger model fitting at least as well; its reason says so.' }),
     percentiles: Percentiles.optional(),
+    survivalAt: SurvivalTimes.optional(),
     average: z.enum(['all', 'confidenceSet']).default('all').meta({ description: 'Average over all fitted candidates or over the confidence set.' }),
     overdispersion: OverdispersionOption.optional(),
     predict: z

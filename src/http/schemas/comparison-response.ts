@@ -5,6 +5,7 @@ import { Criterion } from './comparison-request.ts';
 import { Averaged, Diagnostics, NestedTest, Prediction } from './comparison-extras.ts';
 import { GlmConventions, GlmModelFields, OverdispersionResult } from './glm.ts';
 import { LIFETIME_MODEL_FIELDS, LifetimeConventions } from './lifetime.ts';
+import { LifePicture } from './life-picture.ts';
 import { NonlinearConventions } from './nonlinear-candidate.ts';
 
 const nullableNumber = z.number().nullable();
@@ -174,6 +175,7 @@ export const ComparisonResult = z
     nestedTests: z.array(NestedTest),
     averaged: Averaged.nullable(),
     cautions: z.array(Caution),
+    lifePicture: LifePicture.optional(),
   })
   .meta({ id: 'ComparisonResult' });
 

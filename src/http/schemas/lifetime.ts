@@ -8,6 +8,7 @@ import { CENSORING_STATUSES } from '../../core/models/lifetime/censoring.ts';
 import { DISTRIBUTION_NAMES } from '../../core/models/lifetime/distributions.ts';
 
 const distributionWords = `distribution must be one of ${DISTRIBUTION_NAMES.map((n) => JSON.stringify(n)).join(', ')}`;
+const nullableNumber = z.number().nullable();
 
 export const LifetimeCandidate = z
   .strictObject({
@@ -37,9 +38,29 @@ export const Percentiles = z
   .array(z.number().gt(0, 'a percentile is asked for by its probability, strictly between 0 and 1').lt(1, 'a percentile is asked for by its probability, strictly between 0 and 1'))
   .min(1)
   .max(100)
-  .meta({ description: 'Probabilities at which a lifetime model without terms reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel.' });
+  .meta({ description: 'Probabilities at which a lifetime model reports its percentiles of life (e.g. 0.1 for the B10 life), with Wald intervals at intervalLevel: for a model without terms in models[].percentiles, for a model with terms at each options.predict row (models[].lifePredictions).' });
 
-const nullableNumber = z.number().nullable();
+export const SurvivalTimes = z
+  .array(z.number())
+  .min(1)
+  .max(100)
+  .meta({ description: 'Times at which a lifetime model reports the probability of surviving beyond them, S(t), with delta-method intervals at intervalLevel on the scale of the distribution\'s standardised deviate (log-log for the Weibull, exponential and smallest extreme value, logit for the log-logistic and logistic, probit for the lognormal and normal; log-log for the gamma), mapped back so they stay inside 0..1. For a model without terms in models[].survival, for a model with terms at each options.predict row.' });
+
+const Bounded = z.strictObject({ estimate: z.number(), lower: nullableNumber, upper: nullableNumber });
+const SurvivalEntry = z.strictObject({ time: z.number(), estimate: z.number(), lower: nullableNumber, upper: nullableNumber });
+const PercentileEntry = z.strictObject({ probability: z.number(), estimate: z.number(), lower: nullableNumber, upper: nullableNumber });
+
+const LifeRowPrediction = z
+  .strictObject({
+    location: z.strictObject({ estimate: z.number(), standardError: nullableNumber, lower: nullableNumber, upper: nullableNumber }).meta({
+      description: 'μ = x\'β at the row, with its Wald interval: of ln t for the distributions of positive time, of t for normal, logistic and smallestExtremeValue.',
+    }),
+    medianLife: Bounded.meta({ description: 'The median life at the row (the 50th percentile), with its interval (delta method on ln t for the distributions of positive time).' }),
+    percentiles: z.array(PercentileEntry).meta({ description: 'The percentiles asked for in options.percentiles, at the row.' }),
+    survival: z.array(SurvivalEntry).meta({ description: 'Survival probabilities at options.survivalAt, at the row.' }),
+  })
+  .meta({ id: 'LifeRowPrediction' });
+
 
 /** The fields a lifetime model adds to ModelResult (absent on the other kinds). */
 export const LIFETIME_MODEL_FIELDS = {
@@ -47,10 +68,19 @@ export const LIFETIME_MODEL_FIELDS = {
   distributionParameters: DistributionParameters,
   convergence: Convergence,
   percentiles: z
-    .array(z.strictObject({ probability: z.number(), estimate: z.number(), lower: nullableNumber, upper: nullableNumber }))
+    .array(PercentileEntry)
     .nullable()
     .optional()
-    .meta({ description: 'Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for or the model has terms.' }),
+    .meta({ description: 'Lifetime models without terms: the percentiles of life asked for in options.percentiles, with Wald intervals at options.intervalLevel; null when none were asked for, or when the model has terms (a caution, life_values_depend_on_row, then says so and where the values are).' }),
+  survival: z
+    .array(SurvivalEntry)
+    .nullable()
+    .optional()
+    .meta({ description: 'Lifetime models without terms: survival probabilities at options.survivalAt with their intervals; null as for percentiles.' }),
+  lifePredictions: z
+    .array(LifeRowPrediction.nullable())
+    .optional()
+    .meta({ description: 'Lifetime models, with options.predict: one entry per new row (null where the row breaks a relation among aliased columns). Life models have no mean response, so predictions stays null for them.' }),
   logLikelihoodLogTime: nullableNumber.optional().meta({
     description: 'Lifetime models of positive time: the same likelihood on the ln t scale (logLikelihood + Σ ln t over exact failures), for matching tools that report that one; never ranked.',
   }),

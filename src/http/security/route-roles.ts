@@ -34,6 +34,7 @@ export const routeRoles: Readonly<Record<string, Access>> = Object.freeze({
   'GET /v1/audit/records/:id': role('read'),
   'GET /v1/comparisons/:id/chart.svg': role('read'),
   'GET /v1/comparisons/:id/report': role('read'),
+  'GET /v1/comparisons/:id/life.svg': role('read'),
   'GET /v1/audit/verify': role('admin'),
   'POST /v1/comparisons/:id/replay': role('admin'),
   'POST /v1/searches/:id/replay': role('admin'),

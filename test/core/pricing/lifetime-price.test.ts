@@ -4,6 +4,7 @@
 import t from 'tap';
 import { buildDesign } from '../../../src/core/design/index.ts';
 import { priceLifetime } from '../../../src/core/models/lifetime/index.ts';
+import { TURNBULL_MAX_ITERATIONS } from '../../../src/core/models/lifetime/nonparametric/turnbull.ts';
 import { CANDIDATE_PRICES, priceComparison, priceIssues, type PriceCaps } from '../../../src/core/pricing/index.ts';
 import { shapeOfColumns } from '../../../src/core/pricing/data-shape.ts';
 import { FIXED_WORK } from '../../../src/core/pricing/least-squares-cost.ts';
@@ -28,7 +29,7 @@ t.test('a lifetime candidate costs its core operation count in multiply-adds, at
   t.equal(cost.designColumns, 4);
   t.equal(cost.fit.work, FIXED_WORK.modelFittedHere + priceLifetime({ rows, designColumns: 4, distribution: 'weibull' }) / 2);
   t.equal(cost.widestTerm, 1, 'the factor makes the widest term');
-  t.equal(cost.prediction.work, 0, 'no predictions at new rows');
+  t.equal(cost.prediction.work, 0, 'no new rows, no prediction cost');
   const gamma = CANDIDATE_PRICES.lifetime({ form: 'lifetime', name: 'g', distribution: 'gamma', terms }, ctx);
   t.ok(gamma.fit.work > cost.fit.work, 'a gamma pays for its incomplete gamma functions on censored rows');
 });
@@ -50,4 +51,26 @@ t.test('a life comparison over the work cap is refused before anything is fitted
   t.equal(issues.length, 1);
   t.match(issues[0].message, /MAX_REQUEST_WORK/);
   t.match(JSON.stringify(issues[0]), /candidate 0/);
+});
+
+t.test('values at new rows and the life-data picture are priced before anything is fitted', async (t) => {
+  const predicting = { ...ctx, predictionRows: 50, lifeValuesPerRow: 4 };
+  const cost = CANDIDATE_PRICES.lifetime({ form: 'lifetime', name: 'w', distribution: 'weibull', terms }, predicting);
+  t.ok(cost.prediction.work > 50 * 4 * 600 / 2, 'each row pays for each value it gives (a distribution function or quantile, ~600 operations)');
+  const more = CANDIDATE_PRICES.lifetime({ form: 'lifetime', name: 'w', distribution: 'weibull', terms }, { ...predicting, lifeValuesPerRow: 8 });
+  t.ok(more.prediction.work > cost.prediction.work, 'more percentiles or survival times cost more');
+  const base = {
+    columns, response: 'hours', weights: null, censoring: { status: 'status' },
+    candidates: [{ form: 'lifetime' as const, name: 'w', distribution: 'weibull' as const, terms }],
+    policy: DEFAULT_POLICY, policyHash: 'x',
+  };
+  const picture = (c: Columns) => priceComparison({ ...base, columns: c }, null, 2000).parts.find((p) => p.what.startsWith('the life-data picture'));
+  const rightOnly = picture(columns);
+  t.ok(rightOnly, 'a comparison with a life model pays for its picture');
+  const inspected = picture({ ...columns, status: columns.status.map((s, i) => (i === 7 ? 'interval' : s)) });
+  // priceNonparametric: 12 operations per row and innermost interval (at most one per row), twice, per iteration; halved to multiply-adds.
+  const turnbullWork = (TURNBULL_MAX_ITERATIONS * 12 * 2 * rows) / 2;
+  t.ok(Math.abs(inspected!.work - rightOnly!.work - turnbullWork) < 1e-9 * turnbullWork, "one interval row: Turnbull's iteration cap is paid for");
+  const noLife = priceComparison({ ...base, censoring: null, candidates: [{ form: 'fit' as const, name: 'l', terms: [] }] } as never, null, 2000);
+  t.notOk(noLife.parts.some((p) => p.what.startsWith('the life-data picture')), 'no life model, no picture');
 });

@@ -33,9 +33,17 @@ async function routesUnderTest(t: Test) {
   const searched = await app.inject({ method: 'POST', url: '/v1/searches', payload: sampleRequest('POST', '/v1/searches').payload as object, headers: bearer(secrets.scorer) });
   t.equal(searched.statusCode, 200, 'a search record to read');
   const searchId = searched.json().id as string;
+  // The life-data picture needs a comparison with a life model: the demo's response as a measurement.
+  const life = await app.inject({
+    method: 'POST', url: '/v1/comparisons', headers: bearer(secrets.scorer),
+    payload: { ...demoComparison(), candidates: [{ name: 'normal', distribution: 'normal' }] },
+  });
+  t.equal(life.statusCode, 200, 'a record with a life picture');
+  const lifeId = life.json().id as string;
+  const idFor = (url: string) => (url.startsWith('/v1/searches/') ? searchId : url.endsWith('/life.svg') ? lifeId : id);
   const routes = app.registeredRoutes
     .filter((r) => r.method !== 'HEAD' && !r.url.startsWith('/docs'))
-    .map((r) => ({ ...r, path: r.url.replace(/:id\b/g, r.url.startsWith('/v1/searches/') ? searchId : id) }));
+    .map((r) => ({ ...r, path: r.url.replace(/:id\b/g, idFor(r.url)) }));
   return { app, store, id, routes };
 }
 

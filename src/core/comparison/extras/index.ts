@@ -15,6 +15,7 @@ import type { ScoredModel } from '../../models/scored-model.ts';
 import { averagedModels, type AveragedResult } from './averaging.ts';
 import { statedNestingTests } from './stated-nesting.ts';
 import type { ScaledPrediction } from '../../inference/prediction-intervals.ts';
+import { lifetimeLikelihoodRatioTests, routeRequestedTests } from '../lifetime-nested.ts';
 
 export interface ExtrasOptions {
   tests?: { smaller: string; larger: string }[];
@@ -37,6 +38,8 @@ export interface ExtrasInput {
   intervalLevel: number;
   /** Identity of the response, its weights and rows, shared by every candidate. */
   sample: string;
+  /** Identity of the censored response life models were fitted to (response and censoring columns). */
+  lifetimeSample: string;
   termColumns: readonly string[];
   /** Every model in candidate order; `models` are their reports. */
   scored: readonly ScoredModel[];
@@ -62,7 +65,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
   }
   const issues: Issue[] = [];
   for (const model of scored) {
-    const { checks: checkRows, predict } = model.capabilities;
+    const { checks: checkRows, predict, lifePredict } = model.capabilities;
     const result = model.report;
     if (checkRows) {
       const checks = checkRows(input.rows!);
@@ -85,19 +88,33 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       predictions.set(result.name, p.scaled);
       result.cautions.push(...p.cautions);
     }
+    if (predictCount !== null && lifePredict) {
+      const p = lifePredict({
+        columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,
+      });
+      if ('issues' in p) {
+        issues.push(...p.issues);
+        continue;
+      }
+      result.lifePredictions = p.rows;
+      result.cautions.push(...p.cautions);
+    }
   }
   if (issues.length > 0) return { issues };
 
-  // Pairs with an expression are tested on the caller's word; the rest by column keys.
-  const stated = statedNestingTests(scored, input.sample, options.tests ?? []);
+  // Pairs naming a life model go to the likelihood-ratio test between life models; pairs with an
+  // expression are tested on the caller's word; the rest by each kind's nesting rules.
+  const routed = routeRequestedTests(scored, options.tests ?? []);
+  const stated = statedNestingTests(scored, input.sample, routed.leastSquares);
   const nested = testNestingOffers(
     scored.flatMap((m) => (m.capabilities.nested ? [m.capabilities.nested(input.sample)] : [])),
     stated.rest,
   );
-  const nestedIssues = [...nested.issues, ...stated.issues];
-  if (nestedIssues.length > 0) {
+  const lifetime = lifetimeLikelihoodRatioTests(scored, input.lifetimeSample, routed.lifetime);
+  const problems = [...nested.issues, ...stated.issues, ...lifetime.issues];
+  if (problems.length > 0) {
     return {
-      issues: nestedIssues.map((n) => {
+      issues: problems.map((n) => {
         const i = (options.tests ?? []).findIndex((t) => t.smaller === n.facts.smaller && t.larger === n.facts.larger);
         return issue('nested_test_invalid', ['options', 'tests', Math.max(0, i)], { reason: n.message });
       }),
@@ -110,7 +127,7 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       models, ranking, criterion: input.rankBy, over: options.average ?? 'all', predictions, keys: columnKeys(scored), intervalLevel: input.intervalLevel,
     })
     : null;
-  return { nestedTests: [...nested.tests, ...stated.tests], averaged, loo };
+  return { nestedTests: [...nested.tests, ...stated.tests, ...lifetime.tests], averaged, loo };
 }
 
 /** Each model's coefficient column keys, by model name. */

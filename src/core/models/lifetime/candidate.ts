@@ -2,6 +2,7 @@
 // terms for the location when it is an accelerated-failure-time model.
 import type { Term } from '../../types.ts';
 import type { DistributionName } from './distributions.ts';
+import type { LifeRowPrediction } from './life-predictions.ts';
 
 export interface LifetimeCandidateInput {
   form: 'lifetime';
@@ -18,6 +19,10 @@ export interface LifetimeReportFields {
   convergence: { converged: boolean; iterations: number; rule: string; decrement: number };
   /** Only for a model without terms (with terms a percentile depends on the row); null when none were asked for. */
   percentiles: { probability: number; estimate: number; lower: number | null; upper: number | null }[] | null;
+  /** Only for a model without terms: survival probabilities at options.survivalAt; null when none were asked for. */
+  survival: { time: number; estimate: number; lower: number | null; upper: number | null }[] | null;
+  /** Values at the options.predict rows (life-predictions.ts), one per row, null where not estimable; absent without rows. */
+  lifePredictions?: (LifeRowPrediction | null)[];
   /** The same likelihood on the ln t scale, for matching tools that report it; never ranked. */
   logLikelihoodLogTime: number | null;
   censoring: { exact: number; right: number; left: number; interval: number };

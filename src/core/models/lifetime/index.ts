@@ -13,3 +13,5 @@ export { lifetimeNestedTests, lifetimeNestingOrder, nestingCandidateOf, type Lif
 export { nonparametricEstimate, kaplanMeier, turnbull, type KaplanMeierEstimate, type TurnbullEstimate } from './nonparametric/index.ts';
 export { priceLifetime, priceNonparametric, type LifetimeShape } from './pricing.ts';
 export { LIFETIME_CONVENTIONS } from './conventions.ts';
+export { lifePicture, pictureAxis, PICTURE_NOTES, PICTURE_POINTS, PICTURE_RISE, type LifePicture, type LifeCurve, type StoredKaplanMeier, type StoredTurnbull } from './life-picture.ts';
+export { priceLifePicture } from './pricing.ts';

@@ -12,8 +12,11 @@ import { scoredModel, type ScoredModel } from '../scored-model.ts';
 import type { CensoredResponse } from './censoring.ts';
 import { fitLifetime } from './fit-lifetime.ts';
 import { nestingCandidateOf } from './nested.ts';
-import { priceLifetime } from './pricing.ts';
+import { priceLifePredictions, priceLifetime } from './pricing.ts';
 import { lifetimeReport } from './report.ts';
+import { lifePredictions } from './life-predictions.ts';
+import { lifeCurve } from './life-picture.ts';
+import type { Caution } from '../../scoring/cautions.ts';
 import type { LifetimeCandidateInput } from './candidate.ts';
 
 export interface LifetimeSample {
@@ -22,7 +25,28 @@ export interface LifetimeSample {
   /** The response and its censoring on the comparison's rows (every row exact without `censoring`). */
   censored: CensoredResponse | null;
   percentiles?: readonly number[];
+  /** options.survivalAt: times at which to give survival probabilities. */
+  survivalAt?: readonly number[];
+  /** Whether the request sends options.predict rows (where a model with terms gives its percentiles). */
+  predicting?: boolean;
   intervalLevel: number | undefined;
+}
+
+/**
+ * With terms, a percentile or a survival probability depends on the row:
+ * the model-level lists stay null and this caution says why and where the
+ * values are (never a silent null).
+ */
+function valuesByRowCaution(sample: LifetimeSample, design: DesignMatrix): Caution[] {
+  const asked = (sample.percentiles?.length ?? 0) + (sample.survivalAt?.length ?? 0) > 0;
+  if (!asked || design.labels.length <= 1) return [];
+  const where = sample.predicting
+    ? 'they are given for each options.predict row in lifePredictions'
+    : 'send the rows at which to compute them in options.predict';
+  return [{
+    code: 'life_values_depend_on_row',
+    message: `This model has terms, so its percentiles and survival probabilities depend on the row: percentiles and survival here are null; ${where}.`,
+  }];
 }
 
 /** Every candidate's design first, so one answer names every bad term; then the fits. */
@@ -46,13 +70,23 @@ export function scoreLifetimeCandidates(
     designs.set(i, built.design);
   });
   if (issues.length > 0) return scored;
-  const options = { percentiles: sample.percentiles, intervalLevel: sample.intervalLevel };
+  const options = { percentiles: sample.percentiles, survivalAt: sample.survivalAt, intervalLevel: sample.intervalLevel };
   for (const [i, design] of designs) {
     const c = candidates.get(i)!;
     const fit = fitLifetime({ name: c.name, distribution: c.distribution, design }, censored, options, ['candidates', i]);
     if ('issues' in fit) issues.push(...fit.issues);
     // Every lifetime likelihood is a density of a continuous time (or the probability of a censored range of it).
-    else scored.set(i, scoredModel(lifetimeReport(fit), fit.measure, { lifetimeNesting: (id) => nestingCandidateOf(fit, design, id) }));
+    else {
+      const report = lifetimeReport(fit);
+      report.cautions.push(...valuesByRowCaution(sample, design));
+      scored.set(i, scoredModel(report, fit.measure, {
+        lifetimeNesting: (id) => nestingCandidateOf(fit, design, id),
+        lifeCurve: (times) => lifeCurve(fit, design.labels.length > 1, times),
+        lifePredict: (at) => lifePredictions(fit, design, c.terms, i, {
+          ...at, percentiles: sample.percentiles, survivalAt: sample.survivalAt,
+        }),
+      }));
+    }
   }
   return scored;
 }
@@ -82,8 +116,13 @@ export function priceLifetimeCandidate(c: LifetimeCandidateInput, ctx: Candidate
       passingBytes: 8 * n * p + 24 * n,
       resultBytes: ANSWER_BYTES.model + m * ANSWER_BYTES.coefficient,
     },
-    // No predictions at new rows yet (README: life data).
-    prediction: NO_COST,
+    // Values at new rows (life-predictions.ts); the rows' own price is the comparison's.
+    prediction: ctx.predictionRows === 0 ? NO_COST : {
+      work: priceLifePredictions({ rows: n, designColumns: p, predictionRows: ctx.predictionRows, valuesPerRow: ctx.lifeValuesPerRow ?? 1, distribution: c.distribution }) / OPERATIONS_PER_MULTIPLY_ADD,
+      heldBytes: 16 * (n + ctx.predictionRows) * p,
+      passingBytes: 0,
+      resultBytes: ctx.predictionRows * (ANSWER_BYTES.prediction + (ctx.lifeValuesPerRow ?? 1) * ANSWER_BYTES.coefficient),
+    },
     ...common,
   };
 }

@@ -109,6 +109,6 @@ export function lifetimeNestedTests(
       message: `Neither of "${a.name}" (${a.distribution}) and "${b.name}" (${b.distribution}) is a special case of the other on the same observations: a lifetime model nests another only with the same distribution and a subset of its terms, or as the exponential inside a Weibull or gamma with a subset of its terms.`,
       facts: { smaller: pair.smaller, larger: pair.larger },
     }),
-    unknownCandidate: 'A requested nested test names a candidate that is not a fitted lifetime candidate.',
+    unknownCandidate: 'A requested nested test pairs a life model with a candidate that is not one: a life model can be tested only against another life model fitted to the same observations (by a likelihood-ratio test).',
   });
 }

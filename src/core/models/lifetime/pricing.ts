@@ -11,6 +11,7 @@
 import { DEFAULT_MAX_ITERATIONS } from './options.ts';
 import type { DistributionName } from './distributions.ts';
 import { TURNBULL_MAX_ITERATIONS } from './nonparametric/turnbull.ts';
+import { PICTURE_GROUPS, PICTURE_POINTS } from './life-picture.ts';
 
 export interface LifetimeShape {
   rows: number;
@@ -58,4 +59,32 @@ export function priceNonparametric(shape: { rows: number; leftOrIntervalCensored
   const n = Math.max(1, shape.rows);
   if (!shape.leftOrIntervalCensored) return 30 * n * Math.log2(n + 1);
   return 30 * n * Math.log2(n + 1) + TURNBULL_MAX_ITERATIONS * 12 * 2 * n;
+}
+
+/**
+ * Values at new rows (life-predictions.ts): the prediction rows' design
+ * (built with the data's rows, as for least squares), then per row and
+ * value one quantile or survival function (a gamma percentile about five
+ * incomplete gamma evaluations) and a quadratic form in the covariance.
+ */
+export function priceLifePredictions(shape: { rows: number; designColumns: number; predictionRows: number; valuesPerRow: number; distribution: DistributionName }): number {
+  const m = Math.max(0, shape.predictionRows);
+  if (m === 0) return 0;
+  const d = Math.max(1, shape.designColumns) + 1;
+  const perValue = (shape.distribution === 'gamma' ? 5 * GAMMA_CENSORED_ROW : LOCATION_SCALE_ROW) + 2 * d * d;
+  return 4 * (shape.rows + m) * d + m * (Math.max(1, shape.valuesPerRow) * perValue + 2 * d * d);
+}
+
+/**
+ * The life-data picture stored with a comparison (life-picture.ts): the
+ * nonparametric estimate once, then each model's curve — a sort of its
+ * rows' locations and PICTURE_POINTS times × at most PICTURE_GROUPS
+ * locations, each a distribution function at the cost of a censored row.
+ */
+export function priceLifePicture(shape: { rows: number; models: number; gammaModels: number; leftOrIntervalCensored: boolean }): number {
+  const n = Math.max(1, shape.rows);
+  const groups = Math.min(n, PICTURE_GROUPS);
+  const perModel = 2 * n * Math.log2(n + 1) + PICTURE_POINTS * groups * LOCATION_SCALE_ROW;
+  const perGamma = PICTURE_POINTS * groups * (GAMMA_CENSORED_ROW - LOCATION_SCALE_ROW);
+  return priceNonparametric({ rows: n, leftOrIntervalCensored: shape.leftOrIntervalCensored }) + shape.models * perModel + shape.gammaModels * perGamma;
 }

@@ -61,6 +61,7 @@ export function lifetimeReport(fit: LifetimeFit): ModelResult {
     distributionParameters: fit.distributionParameters,
     convergence: fit.convergence,
     percentiles: fit.percentiles,
+    survival: fit.survival,
     logLikelihoodLogTime: fit.logLikelihoodLogTime,
     censoring: fit.censoring,
   };
