@@ -15,7 +15,7 @@ import { appendOr503, keptRequest } from '../audit-append.ts';
 import { watchClient } from '../compute/client-gone.ts';
 import { priceComparisonRequest } from '../compute/price-request.ts';
 import { answerSerializer } from '../answer-serializer.ts';
-import { CLIENT_GONE, computeComparisonJob, type ComputeService } from '../compute/run.ts';
+import { CLIENT_GONE, comparisonStarted, computeComparisonJob, type ComputeService } from '../compute/run.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
 export interface ComparisonRouteOptions {
@@ -44,6 +44,8 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
     const priced = priceComparisonRequest(body, policy, compute.caps);
     if ('issues' in priced) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(priced.issues));
     const watch = watchClient(reply);
+    // Until the answer is sent: a comparison waiting on its record still needs the main thread.
+    const done = comparisonStarted(compute);
     try {
       const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes } as const;
       const outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
@@ -71,6 +73,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
       app.metrics.modelsFitted.inc(result.models.filter((m: { source?: string }) => m.source === 'fit').length);
       return reply.code(200).send({ id: record.id, createdAt: record.createdAt, serviceVersion, ...result });
     } finally {
+      done();
       watch.stop();
     }
   });
