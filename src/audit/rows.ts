@@ -99,7 +99,7 @@ export function prepareRecord(input: NewRecord, written: WrittenTexts = {}): Pre
     }
     canonical.set(record.request, text);
   }
-  canonical.set(record.result, canonicalJson(record.result));
+  canonical.set(record.result, written.resultCanonical ?? canonicalJson(record.result));
   return { record, requestText: request?.text ?? null, resultText: result.text, canonical };
 }
 

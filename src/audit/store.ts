@@ -90,12 +90,14 @@ export interface ListPage {
 
 /**
  * Texts the caller has already written of this very input, so the store does
- * not write them again: `resultJson` is JSON.stringify(input.result) and
- * `requestCanonical` canonicalJson(input.request) (chain.ts). Only what is
- * exactly that may be passed; the request's digest is still checked against it.
+ * not write them again: `resultJson` is JSON.stringify(input.result),
+ * `resultCanonical` canonicalJson(input.result) and `requestCanonical`
+ * canonicalJson(input.request) (chain.ts). Only what is exactly that may be
+ * passed; the request's digest is still checked against it.
  */
 export interface WrittenTexts {
   resultJson?: string;
+  resultCanonical?: string;
   requestCanonical?: string;
 }
 

@@ -203,7 +203,9 @@ export function auditStoreSuite(t: Test, makeHarness: () => Promise<StoreHarness
     const b = await withStore(t, { clock: clock(), random });
     const input = comparisonRecord(3);
     const plain = await a.store.append(input);
-    const written = await b.store.append(input, { resultJson: JSON.stringify(input.result), requestCanonical: sortedJson(input.request) });
+    const written = await b.store.append(input, {
+      resultJson: JSON.stringify(input.result), resultCanonical: sortedJson(input.result), requestCanonical: sortedJson(input.request),
+    });
     t.strictSame(written, plain, 'the same stored record');
     t.equal(written.hash, documentedHash(written as unknown as Record<string, unknown>), 'hash follows the documented formula');
     t.ok((await b.store.verify()).ok);

@@ -70,7 +70,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
         requestDigest: sha256Hex(requestCanonical),
         request: keptRequest(config, request.sentBody),
         result: result as unknown as Record<string, unknown>,
-      }, { resultJson: outcome.resultJson, requestCanonical });
+      }, { resultJson: outcome.resultJson, resultCanonical: outcome.resultCanonical, requestCanonical });
       if (!record) return reply;
       app.metrics.comparisons.inc();
       app.metrics.modelsFitted.inc(result.models.filter((m: { source?: string }) => m.source === 'fit').length);
