@@ -17,7 +17,7 @@ import Fastify, { type FastifyInstance } from 'fastify';
 import { defaultConfig } from '../src/config.ts';
 import { openAuditStore } from '../src/audit/open.ts';
 import type { AuditStore } from '../src/audit/store.ts';
-import { buildApp } from '../src/http/app.ts';
+import { buildApp, computePoolFor } from '../src/http/app.ts';
 import { demoComparison } from './demo-data.ts';
 import { dropBenchSchemas } from './bench-pg.ts';
 
@@ -43,9 +43,13 @@ async function bareServer(): Promise<{ app: FastifyInstance; url: string }> {
 }
 
 async function serviceServer(store: AuditStore, auditDb: string): Promise<{ app: FastifyInstance; url: string }> {
-  // As production runs: answers written as plain JSON (RESPONSE_SCHEMA_CHECK=off).
+  // As production runs: answers written as plain JSON (RESPONSE_SCHEMA_CHECK=off), the compute pool
+  // started with the service (src/server.ts) and closed with it.
   const config = defaultConfig({ auditDb, rateLimitPerMinute: 10_000_000, eventLoopMaxDelayMs: 0, responseSchemaCheck: false });
-  const app = await buildApp({ config, store, logger: false });
+  const compute = computePoolFor(config);
+  compute.start();
+  const app = await buildApp({ config, store, logger: false, compute });
+  app.addHook('onClose', async () => compute.close());
   const url = await app.listen({ host: '127.0.0.1', port: 0 });
   return { app, url: `${url}/v1/comparisons` };
 }

@@ -16,7 +16,7 @@ import { listFilter, listQuery, pageOf, postgresDialect } from './query.ts';
 import { chainRecord, type ChainedNew, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { ChainLinks } from './integrity.ts';
 import { chainLinksFromRows, chainLinksSql } from './links.ts';
-import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
+import type { WrittenTexts, AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
 import { headFromRow, rowsThatFit, verifyByPages } from './verify-pages.ts';
 
 const COLUMNS = RECORD_COLUMNS.join(', ');
@@ -93,8 +93,8 @@ class PostgresAuditStore implements AuditStore {
     this.queue = (options.groupCommit ?? true) ? new GroupCommit((r) => this.write(r), options.maxBatch ?? 256) : null;
   }
 
-  async append(input: NewRecord): Promise<StoredRecord> {
-    const record = prepareRecord(input);
+  async append(input: NewRecord, written?: WrittenTexts): Promise<StoredRecord> {
+    const record = prepareRecord(input, written);
     if (this.closed) throw new AuditUnavailable('the audit store is closed');
     if (this.queue) return this.queue.submit(record);
     return (await this.write([record]))[0];

@@ -4,7 +4,7 @@
 import { z } from 'zod';
 import { canonicalJson, isPlainJsonData, recordHash, sha256Hex, toJsonValue } from './chain.ts';
 import { AuditRecordInvalid } from './errors.ts';
-import { ListedRecordSchema, NewRecordSchema, StoredRecordSchema, type CorruptRow, type ListedRecord, type NewRecord, type StoredRecord } from './store.ts';
+import { ListedRecordSchema, NewRecordSchema, StoredRecordSchema, type CorruptRow, type ListedRecord, type NewRecord, type StoredRecord, type WrittenTexts } from './store.ts';
 
 export const RECORD_COLUMNS = [
   'seq', 'id', 'created_at', 'kind', 'caller', 'label', 'service_version', 'conventions_version',
@@ -66,20 +66,20 @@ export interface PreparedRecord {
 // The text the row stores and what a JSON reader gets back from it (undefined
 // members gone, non-finite numbers null); plain JSON data is already that, and
 // is not parsed back. The text is the same as JSON.stringify of the parsed value.
-function jsonForm(value: unknown, field: string): { text: string; value: unknown } {
-  const text = JSON.stringify(value);
+function jsonForm(value: unknown, field: string, written?: string): { text: string; value: unknown } {
+  const text = written ?? JSON.stringify(value);
   if (text === undefined) throw new AuditRecordInvalid([`${field}: value at (root) is not a JSON value: ${typeof value}`]);
   return { text, value: isPlainJsonData(value) ? value : JSON.parse(text) };
 }
 
-export function prepareRecord(input: NewRecord): PreparedRecord {
+export function prepareRecord(input: NewRecord, written: WrittenTexts = {}): PreparedRecord {
   const { request: sentRequest, result: sentResult, ...envelope } = input;
   let request: { text: string; value: unknown } | null;
   let result: { text: string; value: unknown };
   let json: unknown;
   try {
     request = sentRequest === null || sentRequest === undefined ? null : jsonForm(sentRequest, 'request');
-    result = jsonForm(sentResult, 'result');
+    result = jsonForm(sentResult, 'result', written.resultJson);
     json = { ...(toJsonValue(envelope) as object), request: request?.value ?? sentRequest, result: result.value };
   } catch (err) {
     if (err instanceof AuditRecordInvalid) throw err;
@@ -92,13 +92,14 @@ export function prepareRecord(input: NewRecord): PreparedRecord {
   const record = parsed.data;
   const canonical = new Map<object, string>();
   if (record.request !== null) {
-    const text = canonicalJson(record.request);
+    // record.request is a copy of the input's (the same JSON data), so the caller's text is its canonical text.
+    const text = written.requestCanonical ?? canonicalJson(record.request);
     if (sha256Hex(text) !== record.requestDigest) {
       throw new AuditRecordInvalid(['requestDigest: does not match the SHA-256 of the canonical request']);
     }
     canonical.set(record.request, text);
   }
-  canonical.set(record.result, canonicalJson(record.result));
+  canonical.set(record.result, written.resultCanonical ?? canonicalJson(record.result));
   return { record, requestText: request?.text ?? null, resultText: result.text, canonical };
 }
 

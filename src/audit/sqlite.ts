@@ -16,7 +16,7 @@ import { listFilter, listQuery, pageOf, sqliteDialect } from './query.ts';
 import { chainRecord, LISTING_COLUMNS, prepareRecord, RECORD_COLUMNS, recordToListingRow, recordToRow, rowToRecord, type ListedRow, type PreparedRecord, type RecordRow } from './rows.ts';
 import type { ChainLinks } from './integrity.ts';
 import { chainLinksFromRows, chainLinksSql } from './links.ts';
-import type { AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
+import type { WrittenTexts, AuditStore, AuditStoreOptions, ListPage, ListQuery, NewRecord, StoredRecord } from './store.ts';
 import { headFromRow, verifyByPages, type VerifyPage, type VerifyPageLimits } from './verify-pages.ts';
 import { rowBodyLength } from './verify-row.ts';
 
@@ -86,8 +86,8 @@ class SqliteAuditStore implements AuditStore {
     this.queue = group ? new GroupCommit(async (records) => this.write(records), options.maxBatch ?? 256) : null;
   }
 
-  async append(input: NewRecord): Promise<StoredRecord> {
-    const record = prepareRecord(input);
+  async append(input: NewRecord, written?: WrittenTexts): Promise<StoredRecord> {
+    const record = prepareRecord(input, written);
     if (this.closed) throw new AuditUnavailable('the audit store is closed');
     if (this.queue) return this.queue.submit(record);
     return this.write([record])[0];

@@ -88,6 +88,19 @@ export interface ListPage {
   nextCursor: string | null;
 }
 
+/**
+ * Texts the caller has already written of this very input, so the store does
+ * not write them again: `resultJson` is JSON.stringify(input.result),
+ * `resultCanonical` canonicalJson(input.result) and `requestCanonical`
+ * canonicalJson(input.request) (chain.ts). Only what is exactly that may be
+ * passed; the request's digest is still checked against it.
+ */
+export interface WrittenTexts {
+  resultJson?: string;
+  resultCanonical?: string;
+  requestCanonical?: string;
+}
+
 export interface AuditStore {
   /** 'sqlite' or 'postgres', for logs and /readyz details. */
   readonly backend: 'sqlite' | 'postgres';
@@ -95,7 +108,7 @@ export interface AuditStore {
    * Resolves only after the record is committed durably; rejects with
    * AuditUnavailable when the database cannot take it (reply 503, no result).
    */
-  append(input: NewRecord): Promise<StoredRecord>;
+  append(input: NewRecord, written?: WrittenTexts): Promise<StoredRecord>;
   /** null when no record has this id; rejects with AuditRecordCorrupt when the row is unreadable. */
   get(id: string): Promise<StoredRecord | null>;
   /** The stored hashes around position `seq` and the committed head, for integrity on read (integrity.ts). */

@@ -53,8 +53,8 @@ export function withHeadWitness(store: AuditStore, path: string, options: Witnes
 
   return {
     backend: store.backend,
-    async append(input) {
-      const stored = await store.append(input);
+    async append(input, written) {
+      const stored = await store.append(input, written);
       if (!latest || stored.seq > latest.seq) latest = { seq: stored.seq, id: stored.id, hash: stored.hash };
       schedule();
       return stored;

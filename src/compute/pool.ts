@@ -86,6 +86,12 @@ export class ComputePool extends EventEmitter implements PieceRunner {
     return session;
   }
 
+  /** A worker is up, free and nothing waits for it: a piece enqueued now starts at once. */
+  hasIdleWorker(): boolean {
+    if (this.closed || this.waiting.length > 0 || this.sessions.size >= this.slots.length) return false;
+    return this.slots.some((s) => s.ready && s.piece === null && s.worker !== null);
+  }
+
   stats(): PoolStats {
     return {
       workers: this.slots.length,

@@ -2,15 +2,15 @@
 // take the record turns the reply into a 503: the caller never gets a result the
 // team's record does not hold.
 import type { FastifyReply } from 'fastify';
-import type { AuditStore, NewRecord, StoredRecord } from '../audit/store.ts';
+import type { AuditStore, NewRecord, StoredRecord, WrittenTexts } from '../audit/store.ts';
 import type { Config } from '../config.ts';
 import { problem, problemTypes, PROBLEM_CONTENT_TYPE } from './problems.ts';
 
-export async function appendOr503(store: AuditStore, reply: FastifyReply, record: NewRecord): Promise<StoredRecord | null> {
+export async function appendOr503(store: AuditStore, reply: FastifyReply, record: NewRecord, written?: WrittenTexts): Promise<StoredRecord | null> {
   const metrics = reply.server.metrics;
   const stopTimer = metrics?.auditAppendDuration.startTimer();
   try {
-    const stored = await store.append(record);
+    const stored = await store.append(record, written);
     stopTimer?.();
     return stored;
   } catch (error) {

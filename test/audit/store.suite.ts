@@ -196,6 +196,23 @@ export function auditStoreSuite(t: Test, makeHarness: () => Promise<StoreHarness
     await t.rejects(store.append({ ...full, result: { x: 1n } as never }), AuditRecordInvalid);
   });
 
+  t.test('texts the caller already wrote give the same record, hash and stored bytes as texts the store writes', async (t) => {
+    const clock = () => ({ now: () => Date.UTC(2026, 2, 14, 9, 30, 0, 125) });
+    const random = (n: number) => new Uint8Array(n).fill(7);
+    const a = await withStore(t, { clock: clock(), random });
+    const b = await withStore(t, { clock: clock(), random });
+    const input = comparisonRecord(3);
+    const plain = await a.store.append(input);
+    const written = await b.store.append(input, {
+      resultJson: JSON.stringify(input.result), resultCanonical: sortedJson(input.result), requestCanonical: sortedJson(input.request),
+    });
+    t.strictSame(written, plain, 'the same stored record');
+    t.equal(written.hash, documentedHash(written as unknown as Record<string, unknown>), 'hash follows the documented formula');
+    t.ok((await b.store.verify()).ok);
+    await t.rejects(b.store.append({ ...input, requestDigest: 'f'.repeat(64) }, { requestCanonical: sortedJson(input.request) }), AuditRecordInvalid,
+      'the digest is still checked against the given canonical text');
+  });
+
   for (const groupCommit of [true, false]) {
     t.test(`200 concurrent appends make one unbroken chain (groupCommit ${groupCommit})`, async (t) => {
       const { store } = await withStore(t, { groupCommit });

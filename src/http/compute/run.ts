@@ -1,6 +1,9 @@
 // Where a request's work runs. A comparison priced within COMPUTE_INLINE_WORK
 // runs on the main thread (a worker round trip would cost more than the
-// work); everything else — larger comparisons, replays, every search — runs in
+// work) unless other comparisons are in flight and a worker of the pool is
+// idle: then the main thread has their records and answers to write, and the
+// worker computes this one beside it (the same pure function, so the same
+// numbers; measured by scripts/bench-http.ts). Everything else — larger comparisons, replays, every search — runs in
 // a session of the process-wide pool: admitted or refused at once (503),
 // stopped at its deadline (422) or when its client goes away. Refusals are
 // thrown as Refusal, so the error handler answers them like any other.
@@ -20,6 +23,24 @@ export interface ComputeService {
   /** Work (estimated multiply-adds) at or below which a comparison runs on the main thread. */
   inlineWork: number;
   caps: PriceCaps;
+  /** Comparisons (POSTs and replays) between their pricing and their answer, this process. */
+  comparisonsInFlight: number;
+}
+
+/** Counts one comparison in flight until `done` is called (once, in a finally). */
+export function comparisonStarted(service: ComputeService): () => void {
+  service.comparisonsInFlight++;
+  let counted = true;
+  return () => {
+    if (counted) service.comparisonsInFlight--;
+    counted = false;
+  };
+}
+
+/** Inline-priced work stays on the main thread unless others keep it busy and a worker is free. */
+function runsInline(service: ComputeService, work: number): boolean {
+  if (work > service.inlineWork) return false;
+  return service.comparisonsInFlight <= 1 || !service.pool.hasIdleWorker();
 }
 
 export async function inSession<T>(
@@ -60,7 +81,7 @@ export async function computeComparisonJob(
   job: ComparisonJob,
   work: number,
 ): Promise<ComparisonJobOutcome | typeof CLIENT_GONE> {
-  if (work <= service.inlineWork) {
+  if (runsInline(service, work)) {
     const outcome = comparisonJob(job);
     return watch.gone ? CLIENT_GONE : outcome;
   }

@@ -4,8 +4,9 @@
 import { issue, type Issue } from '../../core/issues.ts';
 import type { Cap } from '../../core/pricing/index.ts';
 
-export function resultSizeIssue(result: unknown, cap: Cap, remedy: string): Issue | null {
-  const bytes = Buffer.byteLength(JSON.stringify(result));
+// The text is the one the record stores and the answer sends (comparisons pass it on), so it is written once.
+export function resultSizeIssue(resultJson: string, cap: Cap, remedy: string): Issue | null {
+  const bytes = Buffer.byteLength(resultJson);
   if (bytes <= cap.limit) return null;
   return issue('result_size_limit', [], { estimate: bytes, ...cap, unit: 'bytes', measured: true, largest: 'the whole answer', remedy });
 }

@@ -101,6 +101,6 @@ export function searchReportJob(job: SearchReportJob): { result: SearchAnswer } 
   };
   const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion });
   if ('problem' in checked) return checked;
-  const tooLarge = resultSizeIssue(checked.result, job.resultCap, 'Ask for fewer top models, or narrow the pool');
+  const tooLarge = resultSizeIssue(JSON.stringify(checked.result), job.resultCap, 'Ask for fewer top models, or narrow the pool');
   return tooLarge ? { issues: [tooLarge] } : { result: checked.result as unknown as SearchAnswer };
 }

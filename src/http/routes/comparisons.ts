@@ -4,7 +4,7 @@
 // that went away before its answer.
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import type { AuditStore } from '../../audit/store.ts';
-import { requestDigestOfParsed, type JsonValue } from '../../audit/chain.ts';
+import { canonicalJson, sha256Hex } from '../../audit/chain.ts';
 import type { Config } from '../../config.ts';
 import { serviceVersion } from '../../version.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
@@ -14,8 +14,8 @@ import { issuesProblem, PROBLEM_CONTENT_TYPE } from '../problems.ts';
 import { appendOr503, keptRequest } from '../audit-append.ts';
 import { watchClient } from '../compute/client-gone.ts';
 import { priceComparisonRequest } from '../compute/price-request.ts';
-import { answerSerializer } from '../answer-serializer.ts';
-import { CLIENT_GONE, computeComparisonJob, type ComputeService } from '../compute/run.ts';
+import { answerJson, answerSerializer, sendJsonText } from '../answer-serializer.ts';
+import { CLIENT_GONE, comparisonStarted, computeComparisonJob, type ComputeService } from '../compute/run.ts';
 import type { ActivePolicy } from '../../policy-file.ts';
 
 export interface ComparisonRouteOptions {
@@ -44,6 +44,8 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
     const priced = priceComparisonRequest(body, policy, compute.caps);
     if ('issues' in priced) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(priced.issues));
     const watch = watchClient(reply);
+    // Until the answer is sent: a comparison waiting on its record still needs the main thread.
+    const done = comparisonStarted(compute);
     try {
       const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes } as const;
       const outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
@@ -54,6 +56,9 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
       if ('issues' in outcome) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(outcome.issues));
       if ('problem' in outcome) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(outcome.problem);
       const result = outcome.result;
+      // The request's canonical text serves its digest and the record's hash; the
+      // result's text (written once, in the job) the record's row and the answer.
+      const requestCanonical = canonicalJson(request.sentBody);
       const record = await appendOr503(store, reply, {
         kind: 'comparison',
         caller: request.caller,
@@ -62,15 +67,20 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
         conventionsVersion: result.conventions.version,
         policy: result.policy,
         datasetFingerprint: result.dataset.fingerprint,
-        requestDigest: requestDigestOfParsed(request.sentBody as JsonValue),
+        requestDigest: sha256Hex(requestCanonical),
         request: keptRequest(config, request.sentBody),
         result: result as unknown as Record<string, unknown>,
-      });
+      }, { resultJson: outcome.resultJson, resultCanonical: outcome.resultCanonical, requestCanonical });
       if (!record) return reply;
       app.metrics.comparisons.inc();
       app.metrics.modelsFitted.inc(result.models.filter((m: { source?: string }) => m.source === 'fit').length);
-      return reply.code(200).send({ id: record.id, createdAt: record.createdAt, serviceVersion, ...result });
+      const envelope = { id: record.id, createdAt: record.createdAt, serviceVersion };
+      // With RESPONSE_SCHEMA_CHECK on, the schema serializer writes (and checks) the answer itself.
+      const text = config.responseSchemaCheck ? null : answerJson(envelope, result, outcome.resultJson);
+      if (text !== null) return sendJsonText(reply, text);
+      return reply.code(200).send({ ...envelope, ...result });
     } finally {
+      done();
       watch.stop();
     }
   });

@@ -17,7 +17,7 @@ import { diffResults, type JsonValue, type ValueChange } from '../../core/result
 import { serviceVersion } from '../../version.ts';
 import { watchClient } from '../compute/client-gone.ts';
 import { priceComparisonRequest } from '../compute/price-request.ts';
-import { CLIENT_GONE, computeComparisonJob, type ComputeService } from '../compute/run.ts';
+import { CLIENT_GONE, comparisonStarted, computeComparisonJob, type ComputeService } from '../compute/run.ts';
 import { issuesProblem, problem, problemTypes, toPointer, PROBLEM_CONTENT_TYPE, type Problem } from '../problems.ts';
 import { ComparisonRequest } from '../schemas/comparison-request.ts';
 import { ProblemSchema } from '../schemas/problem.ts';
@@ -132,11 +132,13 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; policy: Ac
     const priced = priceComparisonRequest(body, policy, compute.caps);
     if ('issues' in priced) return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(issuesProblem(priced.issues));
     const watch = watchClient(reply);
+    const done = comparisonStarted(compute);
     let outcome;
     try {
       const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes } as const;
       outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
     } finally {
+      done();
       watch.stop();
     }
     if (outcome === CLIENT_GONE) return reply;
