@@ -66,6 +66,6 @@ export function glmSearchJob(job: GlmSearchJob): { result: SearchAnswer } | { is
   };
   const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion });
   if ('problem' in checked) return checked;
-  const tooLarge = resultSizeIssue(checked.result, job.resultCap, 'Ask for fewer top models, or narrow the pool');
+  const tooLarge = resultSizeIssue(JSON.stringify(checked.result), job.resultCap, 'Ask for fewer top models, or narrow the pool');
   return tooLarge ? { issues: [tooLarge] } : { result: checked.result as unknown as SearchAnswer };
 }
