@@ -9,7 +9,7 @@ import { NO_DATA, shapeOfColumns, shapeOfSummary, type DataShape } from './data-
 import { candidatePath, priceCandidate } from './candidate-prices.ts';
 import { ANSWER_BYTES, FIXED_WORK } from './least-squares-cost.ts';
 import { totalPrice, type PricePart, type RequestPrice } from './types.ts';
-import { priceLifePicture } from '../models/lifetime/pricing.ts';
+import { LIFE_PICTURE_BUDGET, lifePictureWork } from '../comparison/life-picture-budget.ts';
 
 /** Rankings: the five criteria and leave-one-out, one entry per model each. */
 const RANKINGS = 6;
@@ -43,15 +43,14 @@ function dataPart(shape: DataShape, input: ComparisonInput, summary: DataSummary
  * The life-data picture a comparison with life models stores: Turnbull's
  * estimate is paid for only when the status column holds a left or interval
  * row (read, not copied: a pass over a column the request already holds).
+ * Above its budget (comparison/life-picture-budget.ts) it is not drawn, so not priced.
  */
 function lifePicturePart(input: ComparisonInput, shape: DataShape, summary: DataSummary | null): PricePart | null {
+  if (summary) return null;
   const life = input.candidates.filter((c) => c.form === 'lifetime');
-  if (life.length === 0 || summary || !input.columns) return null;
-  const status = input.censoring ? input.columns[input.censoring.status] : undefined;
-  const leftOrIntervalCensored = Array.isArray(status) && status.some((s) => s === 'left' || s === 'interval');
-  const work = priceLifePicture({
-    rows: shape.rows, models: life.length, gammaModels: life.filter((c) => c.distribution === 'gamma').length, leftOrIntervalCensored,
-  }) / 2; // operations to multiply-adds, as kind.ts prices a fit
+  const work = lifePictureWork(input, shape.rows);
+  // Over its budget the picture is left out (with a caution), never the reason for a refusal.
+  if (work === null || work > LIFE_PICTURE_BUDGET) return null;
   return {
     what: `the life-data picture (the nonparametric estimate and ${life.length} fitted curves)`,
     path: ['candidates'],

@@ -32,7 +32,7 @@ export const lifePictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = a
       description: [
         'The nonparametric estimate of the fraction failed F(t) — Kaplan–Meier with its band when every row is exact or right-censored, Turnbull\'s estimate with a shaded box wherever it is not determined otherwise — against each fitted life distribution\'s F(t), on a log-time axis when every time is positive.',
         'Drawn only from the numbers stored with the comparison (lifePicture of GET /v1/comparisons/{id}): nothing is refitted. A model with terms (an accelerated-failure-time model) is drawn as F(t | x) averaged over the comparison\'s rows, and its legend entry says so.',
-        'A comparison without life models (or stored before the picture existed) has none: 422.',
+        'A comparison without life models, one whose picture was over its budget (caution life_picture_skipped), or one stored before the picture existed has none: 422.',
         'Caching, the ETag and the integrity handling are those of chart.svg.',
         'Like the criteria, the picture compares models; it does not validate one. A life model for a safety-relevant decision needs domain review and local rules.',
       ].join('\n\n'),
@@ -46,7 +46,7 @@ export const lifePictureRoutes: FastifyPluginAsyncZod<{ store: AuditStore }> = a
     const picture = storedLifePicture(answeredResult(read.record));
     if (!picture) {
       return reply.code(422).type(PROBLEM_CONTENT_TYPE).send(problem(422, problemTypes.cannotCompute, 'Nothing to draw',
-        'This comparison has no life-data picture: it has no life models (candidates with a distribution), or it was stored before the picture existed.'));
+        'This comparison has no life-data picture: it has no life models (candidates with a distribution), its picture was over the picture\'s budget (the caution life_picture_skipped says so), or it was stored before the picture existed.'));
     }
     const preset = request.query.size ? sizePresets[request.query.size] : null;
     const width = request.query.width ?? preset?.width ?? DEFAULT.width;

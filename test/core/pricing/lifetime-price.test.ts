@@ -10,6 +10,7 @@ import { shapeOfColumns } from '../../../src/core/pricing/data-shape.ts';
 import { FIXED_WORK } from '../../../src/core/pricing/least-squares-cost.ts';
 import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 import type { Columns, Term } from '../../../src/core/types.ts';
+import { LIFE_PICTURE_BUDGET, lifePictureSkipped, lifePictureWork } from '../../../src/core/comparison/life-picture-budget.ts';
 
 const rows = 400;
 const columns: Columns = {
@@ -73,4 +74,27 @@ t.test('values at new rows and the life-data picture are priced before anything 
   t.ok(Math.abs(inspected!.work - rightOnly!.work - turnbullWork) < 1e-9 * turnbullWork, "one interval row: Turnbull's iteration cap is paid for");
   const noLife = priceComparison({ ...base, censoring: null, candidates: [{ form: 'fit' as const, name: 'l', terms: [] }] } as never, null, 2000);
   t.notOk(noLife.parts.some((p) => p.what.startsWith('the life-data picture')), 'no life model, no picture');
+});
+
+t.test('a picture over its budget is left out with a caution, never the reason for a refusal', async (t) => {
+  // 20,000 rows with interval censoring: Turnbull at its iteration cap alone is 20,000 × 12 × 2 × 20,000 / 2 = 4.8e9
+  // multiply-adds, over the 4e9 budget; 2,000 such rows are well under it.
+  const big = 20_000;
+  const intervalColumns = (n: number): Columns => ({
+    hours: Array.from({ length: n }, (_, i) => 100 + (i % 97)),
+    upper: Array.from({ length: n }, (_, i) => (i % 2 === 0 ? 150 + (i % 97) : null)),
+    status: Array.from({ length: n }, (_, i) => (i % 2 === 0 ? 'interval' : 'right')),
+  });
+  const input = (n: number) => ({
+    columns: intervalColumns(n), response: 'hours', weights: null, censoring: { status: 'status', upper: 'upper' },
+    candidates: [{ form: 'lifetime' as const, name: 'e', distribution: 'exponential' as const, terms: [] }],
+    policy: DEFAULT_POLICY, policyHash: 'x',
+  });
+  const hasPicture = (n: number) => priceComparison(input(n), null, 2000).parts.some((p) => p.what.startsWith('the life-data picture'));
+  t.ok(lifePictureWork(input(big), big)! > LIFE_PICTURE_BUDGET, 'the large sample is over the budget');
+  t.notOk(hasPicture(big), 'so its picture is not priced');
+  t.equal(lifePictureSkipped(input(big))[0]?.code, 'life_picture_skipped', 'and the comparison says it was left out');
+  t.ok(hasPicture(2_000), 'a small interval-censored sample pays for its picture');
+  t.same(lifePictureSkipped(input(2_000)), [], 'and gets no caution');
+  t.ok(priceComparison(input(100_000), null, 2000).work < 1e10, '100,000 interval-censored rows stay under the default work cap');
 });
