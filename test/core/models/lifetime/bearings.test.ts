@@ -6,11 +6,8 @@
 // the standard errors of the seven families it has; the gamma's observed
 // information in closed form.
 //
-// The NIST/SEMATECH e-Handbook's censored Weibull example was considered
-// first: the data recalled from memory (failures 55 … 386 and ten units
-// running at 500 hours) reproduce shape 1.7256 and scale 606.0 in survreg,
-// while the estimates recalled as published (1.7208, 606.53) do not match;
-// memory is not reliable enough there, so this check is used instead.
+// The NIST/SEMATECH e-Handbook's censored Weibull example (a published
+// censored set) is checked through HTTP in test/http/lifetime-handbook.test.ts.
 import t from 'tap';
 import { fitLifetime, uncensoredResponse, DISTRIBUTION_NAMES, type LifetimeFit } from '../../../../src/core/models/lifetime/index.ts';
 import { bearings, design, readReference, relativeError } from './fixtures.ts';
