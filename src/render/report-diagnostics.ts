@@ -6,6 +6,7 @@ import { fragment, tag, type Html } from './html-markup.ts';
 import { finiteOrNull, formatPValue, formatSignificant } from './number-format.ts';
 import { valueTree, whichModels } from './report-extras.ts';
 import type { ModelView, StoredComparisonView } from './types.ts';
+import { glmChecksTable } from './report-glm-checks.ts';
 
 type Obj = Record<string, unknown>;
 const isObject = (v: unknown): v is Obj => v !== null && typeof v === 'object' && !Array.isArray(v);
@@ -130,6 +131,7 @@ export function diagnosticsSection(record: StoredComparisonView): Html | null {
       tag('tbody', {}, ...rows),
     )),
     rule === null ? null : tag('p', { class: 'note' }, rule),
+    glmChecksTable(known.map(([m]) => m)),
     notes.length === 0 ? null : fragment(tag('h3', {}, 'About the checks'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-notes' }, ...[...new Set(notes.map(([, n]) => n))].map((n) => tag('li', {}, n)))),
     cautions.length === 0 ? null : fragment(tag('h3', {}, 'What the checks found'), tag('ul', { class: 'cautions', 'data-section': 'diagnostic-cautions' }, ...saidOnce(cautions, known.length))),
     ...other.map((m) => tag('section', { class: 'diagnostics', 'data-model': m.name }, tag('h3', {}, m.name), valueTree(m.diagnostics))),
