@@ -15,7 +15,7 @@ import type { GlmSearchSpec } from '../search/glm/types.ts';
 import { priceGlm } from '../models/glm/pricing.ts';
 import { GLM_FLOPS_PER_UNIT } from '../models/glm/price.ts';
 import { NO_DATA, shapeOfColumns } from './data-shape.ts';
-import { designWidth } from './design-width.ts';
+import { searchWidth } from './search-width.ts';
 import { ANSWER_BYTES, FIXED_WORK } from './least-squares-cost.ts';
 import { totalPrice, type PriceCaps, type PricePart, type RequestPrice } from './types.ts';
 
@@ -29,12 +29,7 @@ export function priceGlmSearch(
   const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
   const shape = input.columns ? shapeOfColumns(input.columns) : NO_DATA;
   const n = shape.rows;
-  const terms = [...input.pool, ...input.always];
-  const width = designWidth(shape, terms, input.intercept, options.caps.designColumns.limit);
-  const w = width.columns;
-  const d = w - (input.intercept ? 1 : 0) + 1;
-  const m = input.pool.length;
-  const alwaysWidth = width.perTerm.slice(m).reduce((a, b) => a + b, 0);
+  const { width, w, d, m, alwaysWidth } = searchWidth(input, shape, options.caps.designColumns.limit);
   const perFit = priceGlm({ rows: n, columns: w, family: input.glm.family, link: input.glm.link }) / GLM_FLOPS_PER_UNIT;
   // Held while the search runs: the design over every term (double-double), response, trials, offset; each fit's own
   // design, weighted copy and QR pass as it goes, one fit at a time.

@@ -15,7 +15,7 @@
 import { DEFAULT_SEARCH_BUDGET, MAX_EXHAUSTIVE_TERMS, type SearchBudget } from '../search/index.ts';
 import type { SearchRequestInput } from '../search/request-problem.ts';
 import { NO_DATA, shapeOfColumns, shapeOfSummary } from './data-shape.ts';
-import { designWidth } from './design-width.ts';
+import { searchWidth } from './search-width.ts';
 import { ANSWER_BYTES, FIXED_WORK, leastSquaresFit, leastSquaresFromSummary } from './least-squares-cost.ts';
 import { priceGlmSearch } from './glm-search-price.ts';
 import { totalPrice, type PriceCaps, type PricePart, type RequestPrice } from './types.ts';
@@ -45,12 +45,7 @@ export function priceSearch(input: SearchRequestInput, options: SearchPricingOpt
   const budget = options.budget ?? DEFAULT_SEARCH_BUDGET;
   const shape = input.summary ? shapeOfSummary(input.summary) : input.columns ? shapeOfColumns(input.columns) : NO_DATA;
   const n = shape.rows;
-  const terms = [...input.pool, ...input.always];
-  const width = designWidth(shape, terms, input.intercept, options.caps.designColumns.limit);
-  const w = width.columns;
-  const d = w - (input.intercept ? 1 : 0) + 1;
-  const m = input.pool.length;
-  const alwaysWidth = width.perTerm.slice(m).reduce((a, b) => a + b, 0);
+  const { width, w, d, m, alwaysWidth } = searchWidth(input, shape, options.caps.designColumns.limit);
   const meanBlock = m === 0 ? 0 : width.perTerm.slice(0, m).reduce((a, b) => a + b, 0) / m;
   const perSubset = (0.5 + meanBlock) * d * d;
 

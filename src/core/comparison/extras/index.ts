@@ -75,10 +75,11 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       result.cautions.push(...checks.cautions);
       if (checks.looNote) result.cautions.push({ code: 'press_undefined', message: checks.looNote });
     }
-    if (predictCount !== null && predict) {
-      const p = predict({
-        columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,
-      });
+    const at = predictCount === null ? null : {
+      columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,
+    };
+    if (at && predict) {
+      const p = predict(at);
       if ('issues' in p) {
         issues.push(...p.issues);
         continue;
@@ -88,10 +89,8 @@ export function comparisonExtras(input: ExtrasInput): Extras | { issues: Issue[]
       predictions.set(result.name, p.scaled);
       result.cautions.push(...p.cautions);
     }
-    if (predictCount !== null && lifePredict) {
-      const p = lifePredict({
-        columns: input.columns!, rows: input.rows!, predict: options.predict!.columns, count: predictCount, newWeights, intervalLevel: input.intervalLevel,
-      });
+    if (at && lifePredict) {
+      const p = lifePredict(at);
       if ('issues' in p) {
         issues.push(...p.issues);
         continue;
