@@ -5,15 +5,22 @@
 // samples), the comparison is scored without it and a caution says so. The
 // budget is a constant of the service, not a server setting, so the same
 // request always gets the same record (and its replay the same answer).
-import type { ComparisonInput } from './compare.ts';
+import type { Columns } from '../types.ts';
 import type { Caution } from '../scoring/cautions.ts';
 import { priceLifePicture } from '../models/lifetime/pricing.ts';
+
+/** What the budget reads of a comparison request (its candidates' kinds, the data and the status column). */
+export interface PictureRequest {
+  candidates: readonly { form: string; distribution?: unknown }[];
+  columns?: Columns | null;
+  censoring?: { status: string } | null;
+}
 
 /** Multiply-adds the picture may cost: 40% of the default work cap (MAX_REQUEST_WORK, 1e10), about 16,000 rows with left or interval censoring priced at Turnbull's iteration cap; a server whose cap is set below the picture's price refuses such a request as it would any other. */
 export const LIFE_PICTURE_BUDGET = 4e9;
 
 /** The picture's price in multiply-adds, or null without life models or data rows. */
-export function lifePictureWork(input: ComparisonInput, rows: number): number | null {
+export function lifePictureWork(input: PictureRequest, rows: number): number | null {
   const life = input.candidates.filter((c) => c.form === 'lifetime');
   if (life.length === 0 || !input.columns) return null;
   const status = input.censoring ? input.columns[input.censoring.status] : undefined;
@@ -24,18 +31,18 @@ export function lifePictureWork(input: ComparisonInput, rows: number): number | 
 }
 
 /** The data rows the request sends, counted as the cost model counts them (the longest column), before any row is dropped. */
-export function dataRows(input: ComparisonInput): number {
+export function dataRows(input: PictureRequest): number {
   let rows = 0;
   for (const values of Object.values(input.columns ?? {})) rows = Math.max(rows, values.length);
   return rows;
 }
 
-export function lifePictureAffordable(input: ComparisonInput): boolean {
+export function lifePictureAffordable(input: PictureRequest): boolean {
   const work = lifePictureWork(input, dataRows(input));
   return work !== null && work <= LIFE_PICTURE_BUDGET;
 }
 
-export function lifePictureSkipped(input: ComparisonInput): Caution[] {
+export function lifePictureSkipped(input: PictureRequest): Caution[] {
   const work = lifePictureWork(input, dataRows(input));
   if (work === null || work <= LIFE_PICTURE_BUDGET) return [];
   return [{
