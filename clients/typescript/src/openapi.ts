@@ -1567,7 +1567,7 @@ export interface paths {
          *
          *     Drawn only from the numbers stored with the comparison (lifePicture of GET /v1/comparisons/{id}): nothing is refitted. A model with terms (an accelerated-failure-time model) is drawn as F(t | x) averaged over the comparison's rows, and its legend entry says so.
          *
-         *     A comparison without life models (or stored before the picture existed) has none: 422.
+         *     A comparison without life models, one whose picture was over its budget (caution life_picture_skipped), or one stored before the picture existed has none: 422.
          *
          *     Caching, the ETag and the integrity handling are those of chart.svg.
          *
