@@ -78,11 +78,14 @@ export function predictionDesign(
   const newRows = Array.from({ length: count }, (_, j) => total + j);
   const built = buildDesign(combined, terms, intercept, [...rows, ...newRows], ['candidates', candidateIndex]);
   if ('issues' in built) {
-    // A domain problem on a new row is the prediction's, not the candidate's.
+    // A domain problem on a new row is the prediction's, not the candidate's: its
+    // path, row and message are told again in the prediction rows' own numbering.
     return {
-      issues: built.issues.map((i) => ('row' in i && typeof i.row === 'number' && i.row >= total && 'column' in i
-        ? { ...i, path: at(String(i.column), i.row - total), row: i.row - total }
-        : i)) as Issue[],
+      issues: built.issues.map((i) => {
+        if (!('row' in i && typeof i.row === 'number' && i.row >= total && 'column' in i)) return i;
+        const { code, path: _path, message: _message, ...facts } = i;
+        return issue(code, at(String(i.column), i.row - total), { ...facts, row: i.row - total } as never);
+      }),
     };
   }
   const d = built.design;
