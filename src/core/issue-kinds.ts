@@ -72,6 +72,7 @@ export interface KindIssueFacts {
   start_outside_bounds: { parameter: string; value: number; lower: number | null; upper: number | null };
   nonlinear_start_not_finite: { candidate: string; start: number; row: number };
   nonlinear_not_converged: { candidate: string; reason: 'iteration cap' | 'no minimum'; iterations: number; limit: number; starts: number };
+  // row: the first data row without a finite value; -1 when no row is known (the final refinement failed), and the message then names none.
   nonlinear_non_finite: { candidate: string; row: number; starts: number };
   nonlinear_rank_deficient: { candidate: string; parameters: string[] };
 }
@@ -190,7 +191,7 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
       ? `${at} (${JSON.stringify(f.candidate)}) did not converge within ${f.limit} iterations from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Try start values closer to the solution, bounds, or a simpler expression.`
       : `${at} (${JSON.stringify(f.candidate)}) stopped, from ${f.starts === 1 ? 'its start vector' : `each of its ${f.starts} start vectors`}, at parameter values that are not a least-squares minimum (a Gauss–Newton step from there still moves them); it is not ranked. The expression may not be smooth there, or a parameter may be heading for infinity or the edge of the expression's domain: try bounds or other start values.`,
   nonlinear_non_finite: (f, at) =>
-    `${at} (${JSON.stringify(f.candidate)}) ran into parameter values where the expression or its derivatives have no finite value (first at data row ${f.row}) and could not step around them from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Bounds on the parameters can keep the fit inside the expression's domain.`,
+    `${at} (${JSON.stringify(f.candidate)}) ran into parameter values where the expression or its derivatives have no finite value${f.row >= 0 ? ` (first at data row ${f.row})` : ''} and could not step around them from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Bounds on the parameters can keep the fit inside the expression's domain.`,
   nonlinear_rank_deficient: (f, at) =>
     `${at} (${JSON.stringify(f.candidate)}) ends with a Jacobian of deficient rank: ${quoteList(f.parameters)} ${f.parameters.length === 1 ? 'is' : 'are'} not identified by the data (some combination of parameters leaves the fitted values unchanged), so no standard errors or comparable parameter count exist; it is not ranked. Remove or fix the redundant parameters.`,
 };
