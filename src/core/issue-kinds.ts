@@ -47,7 +47,8 @@ export interface KindIssueFacts {
   glm_column_not_numeric: { column: string; row: number; value: string | null };
   overdispersion_no_model: Record<string, never>;
   /** A request-level trials column with no binomial candidate to read it (candidates: name and kind, in words). */
-  trials_without_binomial: { trials: string; candidates: string[] };
+  // search: refused for a search, whose subsets share one family (there are no candidates to add).
+  trials_without_binomial: { trials: string; candidates: string[]; search?: boolean };
   /** rankBy names QAIC or QAICc in a comparison without options.overdispersion. */
   rank_by_needs_overdispersion: { rankBy: string };
   /** Candidates whose likelihoods are a probability mass beside ones that are a density: never ranked together. */
@@ -152,7 +153,9 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
   overdispersion_no_model: (_f, at) =>
     `${at} is "estimate", but no generalised linear model fitted here has residual degrees of freedom and a positive Pearson χ² to estimate ĉ from; give ĉ as a number, or add the most general count model as a candidate.`,
   trials_without_binomial: (f, at) =>
-    `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by binomial candidates (family "binomial": successes out of trials), and none is binomial: ${f.candidates.join(', ')}. Drop trials, or add the binomial candidate meant to use it.`,
+    f.search
+      ? `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by a binomial search (family "binomial": successes out of trials), and this search fits ${f.candidates.join(', ')}. Drop trials, or set family to "binomial".`
+      : `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by binomial candidates (family "binomial": successes out of trials), and none is binomial: ${f.candidates.join(', ')}. Drop trials, or add the binomial candidate meant to use it.`,
   rank_by_needs_overdispersion: (f, at) =>
     `${at} is "${f.rankBy}", but ${f.rankBy === 'qaic' ? 'QAIC' : 'QAICc'} divides the log-likelihood by an overdispersion factor ĉ, and this comparison has none; give options.overdispersion ({ "cHat": a number } or { "cHat": "estimate" }), or rank by ${f.rankBy === 'qaic' ? 'aic' : 'aicc'}, what it is at ĉ = 1.`,
   measures_mixed: (f, at) =>

@@ -51,3 +51,17 @@ t.test('a prediction row far outside the data: the mean is null and its interval
     t.ok(m.cautions.some((c: { code: string }) => c.code === 'prediction_outside_response_range'), `${m.name}: a caution names the row`);
   }
 });
+
+t.test('trials on a Poisson search: the reply says to set family to binomial, not to add a candidate a search does not have', async (t) => {
+  const { app } = await buildTestApp(t);
+  const res = await app.inject({
+    method: 'POST',
+    url: '/v1/searches',
+    payload: { data: { columns: { ...columns, fired: columns.defects.map((d) => d + 40) } }, response: 'defects', pool: ['peakTemp', 'kiln'], family: 'poisson', offset: 'logTiles', trials: 'fired' },
+  });
+  t.equal(res.statusCode, 422, res.body.slice(0, 300));
+  const [error] = res.json().errors;
+  t.same([error.path, error.code], ['trials', 'trials_without_binomial']);
+  t.match(error.message, /this search fits every subset \(family "poisson"\)\. Drop trials, or set family to "binomial"\./);
+  t.notMatch(error.message, /candidate/);
+});
