@@ -35,7 +35,8 @@ export interface KindIssueFacts {
   glm_weights_not_supported: { family: string };
   glm_no_valid_start: { family: string; link: string };
   glm_step_outside_domain: { family: string; link: string; iteration: number };
-  glm_not_converged: { iterations: number; change: number | null; step: number | null };
+  // canonical: the link is already the family's canonical one, so the message does not suggest it.
+  glm_not_converged: { family: string; link: string; canonical: boolean; iterations: number; change: number | null; step: number | null };
   glm_separation: { family: string; terms: string[]; rows: number };
   glm_theta_unbounded: { theta: number };
   glm_dispersion_degenerate: { family: string; parameter: string };
@@ -131,7 +132,9 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
   glm_step_outside_domain: (f, at) =>
     `${at}: at iteration ${f.iteration} no step, however shortened, kept every fitted mean inside the ${f.family} family's range under the ${f.link} link; the maximum likelihood may lie on the boundary — choose another link.`,
   glm_not_converged: (f, at) =>
-    `${at} did not converge in ${f.iterations} iterations (last relative change of the deviance ${f.change === null ? 'unknown' : f.change.toExponential(2)}, last step ${f.step === null ? 'unknown' : `${f.step.toExponential(2)} standard errors`}); its estimates cannot be ranked. The maximum may lie on the edge of the family's range under this link: try the canonical link.`,
+    `${at} did not converge in ${f.iterations} iterations (last relative change of the deviance ${f.change === null ? 'unknown' : f.change.toExponential(2)}, last step ${f.step === null ? 'unknown' : `${f.step.toExponential(2)} standard errors`}); its estimates cannot be ranked. ${f.canonical
+      ? `The ${f.link} link is already the ${f.family} family's canonical one: fewer terms, merged factor levels or rescaled covariates may let it settle.`
+      : `The maximum may lie on the edge of the ${f.family} family's range under the ${f.link} link: try the canonical link.`}`,
   glm_separation: (f, at) =>
     `${at}: the ${f.family} likelihood keeps rising as the coefficients of ${quoteList(f.terms)} run to infinity (separation: ${f.rows} rows are fitted ever closer to their observed bound of 0${f.family === 'binomial' ? ' or the trials' : ''}), so their maximum-likelihood estimates do not exist; drop or merge those terms, or merge the factor levels involved.`,
   glm_theta_unbounded: (f, at) =>
