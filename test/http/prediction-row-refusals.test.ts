@@ -29,3 +29,22 @@ t.test('a reciprocal of 0 at prediction row 1 is named at options/predict/column
   t.match(first.message, /^options\/predict\/columns\/kelvin\/1 takes reciprocal of column "kelvin", whose value at row 1 is 0/);
   t.notMatch(first.message, /row 10|candidates\//, 'neither the row after the data nor the candidate\'s path');
 });
+
+t.test('a null at a prediction row is called a prediction row, not "a row the comparison uses"', async (t) => {
+  const { app } = await buildTestApp(t);
+  const res = await app.inject({
+    method: 'POST',
+    url: '/v1/comparisons',
+    payload: {
+      data: { columns },
+      response: 'shrinkage',
+      candidates: [{ name: 'arrhenius', terms: [reciprocal] }, { name: 'linear', terms: ['kelvin'] }],
+      options: { predict: { columns: { kelvin: [1440, null] } } },
+    },
+  });
+  t.equal(res.statusCode, 422, res.body.slice(0, 300));
+  const [first] = res.json().errors;
+  t.same([first.path, first.code, first.row], ['options/predict/columns/kelvin/1', 'value_missing', 1]);
+  t.match(first.message, /missing a value at prediction row 1;/);
+  t.notMatch(first.message, /a row the comparison uses/, 'no model was fitted on a prediction row');
+});

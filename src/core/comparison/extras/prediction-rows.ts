@@ -40,7 +40,7 @@ export function checkPredictionRows(
     const numeric = typeof data[name].find((v) => v !== null) === 'number';
     const levels = numeric ? null : new Set(factorLevels(data[name], rows));
     values.forEach((v, r) => {
-      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r }));
+      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r, predictionRow: true }));
       else if (numeric && typeof v !== 'number') issues.push(issue('column_mixed_types', at(name, r), { column: name, row: r }));
       else if (!numeric && (typeof v !== 'string' || !levels!.has(v))) {
         issues.push(issue('prediction_level_unknown', at(name, r), { column: name, level: String(v), levels: [...levels!] }));
