@@ -35,7 +35,8 @@ export interface KindIssueFacts {
   glm_weights_not_supported: { family: string };
   glm_no_valid_start: { family: string; link: string };
   glm_step_outside_domain: { family: string; link: string; iteration: number };
-  glm_not_converged: { iterations: number; change: number | null; step: number | null };
+  // canonical: the link is already the family's canonical one, so the message does not suggest it.
+  glm_not_converged: { family: string; link: string; canonical: boolean; iterations: number; change: number | null; step: number | null };
   glm_separation: { family: string; terms: string[]; rows: number };
   glm_theta_unbounded: { theta: number };
   glm_dispersion_degenerate: { family: string; parameter: string };
@@ -47,7 +48,8 @@ export interface KindIssueFacts {
   glm_column_not_numeric: { column: string; row: number; value: string | null };
   overdispersion_no_model: Record<string, never>;
   /** A request-level trials column with no binomial candidate to read it (candidates: name and kind, in words). */
-  trials_without_binomial: { trials: string; candidates: string[] };
+  // search: refused for a search, whose subsets share one family (there are no candidates to add).
+  trials_without_binomial: { trials: string; candidates: string[]; search?: boolean };
   /** rankBy names QAIC or QAICc in a comparison without options.overdispersion. */
   rank_by_needs_overdispersion: { rankBy: string };
   /** Candidates whose likelihoods are a probability mass beside ones that are a density: never ranked together. */
@@ -72,6 +74,7 @@ export interface KindIssueFacts {
   start_outside_bounds: { parameter: string; value: number; lower: number | null; upper: number | null };
   nonlinear_start_not_finite: { candidate: string; start: number; row: number };
   nonlinear_not_converged: { candidate: string; reason: 'iteration cap' | 'no minimum'; iterations: number; limit: number; starts: number };
+  // row: the first data row without a finite value; -1 when no row is known (the final refinement failed), and the message then names none.
   nonlinear_non_finite: { candidate: string; row: number; starts: number };
   nonlinear_rank_deficient: { candidate: string; parameters: string[] };
 }
@@ -129,7 +132,9 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
   glm_step_outside_domain: (f, at) =>
     `${at}: at iteration ${f.iteration} no step, however shortened, kept every fitted mean inside the ${f.family} family's range under the ${f.link} link; the maximum likelihood may lie on the boundary — choose another link.`,
   glm_not_converged: (f, at) =>
-    `${at} did not converge in ${f.iterations} iterations (last relative change of the deviance ${f.change === null ? 'unknown' : f.change.toExponential(2)}, last step ${f.step === null ? 'unknown' : `${f.step.toExponential(2)} standard errors`}); its estimates cannot be ranked. The maximum may lie on the edge of the family's range under this link: try the canonical link.`,
+    `${at} did not converge in ${f.iterations} iterations (last relative change of the deviance ${f.change === null ? 'unknown' : f.change.toExponential(2)}, last step ${f.step === null ? 'unknown' : `${f.step.toExponential(2)} standard errors`}); its estimates cannot be ranked. ${f.canonical
+      ? `The ${f.link} link is already the ${f.family} family's canonical one: fewer terms, merged factor levels or rescaled covariates may let it settle.`
+      : `The maximum may lie on the edge of the ${f.family} family's range under the ${f.link} link: try the canonical link.`}`,
   glm_separation: (f, at) =>
     `${at}: the ${f.family} likelihood keeps rising as the coefficients of ${quoteList(f.terms)} run to infinity (separation: ${f.rows} rows are fitted ever closer to their observed bound of 0${f.family === 'binomial' ? ' or the trials' : ''}), so their maximum-likelihood estimates do not exist; drop or merge those terms, or merge the factor levels involved.`,
   glm_theta_unbounded: (f, at) =>
@@ -151,7 +156,9 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
   overdispersion_no_model: (_f, at) =>
     `${at} is "estimate", but no generalised linear model fitted here has residual degrees of freedom and a positive Pearson χ² to estimate ĉ from; give ĉ as a number, or add the most general count model as a candidate.`,
   trials_without_binomial: (f, at) =>
-    `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by binomial candidates (family "binomial": successes out of trials), and none is binomial: ${f.candidates.join(', ')}. Drop trials, or add the binomial candidate meant to use it.`,
+    f.search
+      ? `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by a binomial search (family "binomial": successes out of trials), and this search fits ${f.candidates.join(', ')}. Drop trials, or set family to "binomial".`
+      : `${at} names the column ${JSON.stringify(f.trials)}, but trials are read only by binomial candidates (family "binomial": successes out of trials), and none is binomial: ${f.candidates.join(', ')}. Drop trials, or add the binomial candidate meant to use it.`,
   rank_by_needs_overdispersion: (f, at) =>
     `${at} is "${f.rankBy}", but ${f.rankBy === 'qaic' ? 'QAIC' : 'QAICc'} divides the log-likelihood by an overdispersion factor ĉ, and this comparison has none; give options.overdispersion ({ "cHat": a number } or { "cHat": "estimate" }), or rank by ${f.rankBy === 'qaic' ? 'aic' : 'aicc'}, what it is at ĉ = 1.`,
   measures_mixed: (f, at) =>
@@ -190,7 +197,7 @@ export const KIND_MESSAGES: { [C in keyof KindIssueFacts]: (f: KindIssueFacts[C]
       ? `${at} (${JSON.stringify(f.candidate)}) did not converge within ${f.limit} iterations from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Try start values closer to the solution, bounds, or a simpler expression.`
       : `${at} (${JSON.stringify(f.candidate)}) stopped, from ${f.starts === 1 ? 'its start vector' : `each of its ${f.starts} start vectors`}, at parameter values that are not a least-squares minimum (a Gauss–Newton step from there still moves them); it is not ranked. The expression may not be smooth there, or a parameter may be heading for infinity or the edge of the expression's domain: try bounds or other start values.`,
   nonlinear_non_finite: (f, at) =>
-    `${at} (${JSON.stringify(f.candidate)}) ran into parameter values where the expression or its derivatives have no finite value (first at data row ${f.row}) and could not step around them from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Bounds on the parameters can keep the fit inside the expression's domain.`,
+    `${at} (${JSON.stringify(f.candidate)}) ran into parameter values where the expression or its derivatives have no finite value${f.row >= 0 ? ` (first at data row ${f.row})` : ''} and could not step around them from ${f.starts === 1 ? 'its start vector' : `any of its ${f.starts} start vectors`}; it is not ranked. Bounds on the parameters can keep the fit inside the expression's domain.`,
   nonlinear_rank_deficient: (f, at) =>
     `${at} (${JSON.stringify(f.candidate)}) ends with a Jacobian of deficient rank: ${quoteList(f.parameters)} ${f.parameters.length === 1 ? 'is' : 'are'} not identified by the data (some combination of parameters leaves the fitted values unchanged), so no standard errors or comparable parameter count exist; it is not ranked. Remove or fix the redundant parameters.`,
 };

@@ -23,7 +23,8 @@ export interface IssueFacts extends KindIssueFacts {
   column_mixed_types: { column: string; row: number };
   value_not_finite: { column: string; row: number };
   /** A used row holds null although common rows should have dropped it. */
-  value_missing: { column: string; row: number };
+  // predictionRow: the row is one of options.predict's new rows, which no model was fitted on.
+  value_missing: { column: string; row: number; predictionRow?: boolean };
   response_not_numeric: { column: string; row: number; value: string };
   response_constant: { column: string; value: number; rows: number };
   weights_not_numeric: { column: string; row: number; value: string };
@@ -128,7 +129,10 @@ const MESSAGES: { [C in IssueCode]: (f: IssueFacts[C], at: string) => string } =
   column_mixed_types: (f, at) =>
     `${at} mixes numbers and strings (first at row ${f.row}); a column is either numeric or categorical.`,
   value_not_finite: (f, at) => `${at} holds a value at row ${f.row} that is not a finite number.`,
-  value_missing: (f, at) => `${at} is missing a value at row ${f.row}, a row the comparison uses.`,
+  value_missing: (f, at) =>
+    f.predictionRow
+      ? `${at} is missing a value at prediction row ${f.row}; every column a fitted candidate uses needs a value at every row to predict.`
+      : `${at} is missing a value at row ${f.row}, a row the comparison uses.`,
   response_not_numeric: (f, at) =>
     `${at} names column ${JSON.stringify(f.column)}, which holds the string ${JSON.stringify(f.value)} at row ${f.row}; the response must be numeric${textAdvice(f.value)}.`,
   response_constant: (f, at) =>

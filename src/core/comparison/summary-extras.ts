@@ -38,7 +38,7 @@ function checkSummaryPredictionRows(predictors: readonly string[], predict: Pred
     if (count === null) count = values.length;
     else if (values.length !== count) issues.push(issue('column_length_mismatch', at(name), { column: name, length: values.length, expected: count }));
     values.forEach((v, r) => {
-      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r }));
+      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r, predictionRow: true }));
       else if (typeof v !== 'number') issues.push(issue('column_mixed_types', at(name, r), { column: name, row: r }));
     });
   }

@@ -183,7 +183,7 @@ function fromSummary(input: SearchRequestInput, summary: DataSummary, rules: Hie
 export function prepareSearch(input: SearchRequestInput): PreparedSearch | { issues: Issue[] } {
   if (input.trials && input.glm?.family !== 'binomial') {
     const subsets = input.glm ? `every subset (family ${JSON.stringify(input.glm.family)})` : 'every subset (least squares)';
-    return { issues: [issue('trials_without_binomial', ['trials'], { trials: input.trials, candidates: [subsets] })] };
+    return { issues: [issue('trials_without_binomial', ['trials'], { trials: input.trials, candidates: [subsets], search: true })] };
   }
   const rules = input.hierarchy ? hierarchyRules(input.pool, input.always) : noHierarchy(input.pool.length);
   if (rules.alwaysUnmet.length > 0) {

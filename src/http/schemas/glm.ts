@@ -69,7 +69,8 @@ export const GlmConventions = z
 
 export const OverdispersionOption = z
   .strictObject({
-    cHat: z.union([FiniteNumber.positive(), z.literal('estimate')]).meta({
+    // Said in full on the literal: a missing, null or misspelt cHat fails both branches and is reported by this one.
+    cHat: z.union([FiniteNumber.positive(), z.literal('estimate', { error: () => 'cHat is a number greater than 0, or the string "estimate"' })]).meta({
       description: 'ĉ, the variance inflation of counts: a number, or "estimate" for Pearson χ²/(n − rank) of the fitted generalised linear candidate with the most parameters.',
     }),
   })

@@ -40,7 +40,7 @@ export function checkPredictionRows(
     const numeric = typeof data[name].find((v) => v !== null) === 'number';
     const levels = numeric ? null : new Set(factorLevels(data[name], rows));
     values.forEach((v, r) => {
-      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r }));
+      if (v === null) issues.push(issue('value_missing', at(name, r), { column: name, row: r, predictionRow: true }));
       else if (numeric && typeof v !== 'number') issues.push(issue('column_mixed_types', at(name, r), { column: name, row: r }));
       else if (!numeric && (typeof v !== 'string' || !levels!.has(v))) {
         issues.push(issue('prediction_level_unknown', at(name, r), { column: name, level: String(v), levels: [...levels!] }));
@@ -78,11 +78,14 @@ export function predictionDesign(
   const newRows = Array.from({ length: count }, (_, j) => total + j);
   const built = buildDesign(combined, terms, intercept, [...rows, ...newRows], ['candidates', candidateIndex]);
   if ('issues' in built) {
-    // A domain problem on a new row is the prediction's, not the candidate's.
+    // A domain problem on a new row is the prediction's, not the candidate's: its
+    // path, row and message are told again in the prediction rows' own numbering.
     return {
-      issues: built.issues.map((i) => ('row' in i && typeof i.row === 'number' && i.row >= total && 'column' in i
-        ? { ...i, path: at(String(i.column), i.row - total), row: i.row - total }
-        : i)) as Issue[],
+      issues: built.issues.map((i) => {
+        if (!('row' in i && typeof i.row === 'number' && i.row >= total && 'column' in i)) return i;
+        const { code, path: _path, message: _message, ...facts } = i;
+        return issue(code, at(String(i.column), i.row - total), { ...facts, row: i.row - total } as never);
+      }),
     };
   }
   const d = built.design;

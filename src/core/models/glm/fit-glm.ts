@@ -152,7 +152,9 @@ function iterativeFit(input: GlmInput, family: Family, linkName: GlmLinkName, ro
   }
   if (unbounded !== null) return { issues: [issue('glm_theta_unbounded', at, { theta: unbounded })] };
   if (!outcome.converged || !outcome.final) {
-    return { issues: [issue('glm_not_converged', at, { iterations: outcome.iterations, change: outcome.lastChange, step: finite(outcome.lastStepInStandardErrors) })] };
+    return { issues: [issue('glm_not_converged', at, {
+      family: family.name, link: linkName, canonical: linkName === family.canonical, iterations: outcome.iterations, change: outcome.lastChange, step: finite(outcome.lastStepInStandardErrors),
+    })] };
   }
 
   const { point, final } = outcome;

@@ -41,6 +41,11 @@ export function numericColumn(columns: Columns, name: string, rows: readonly num
 
 const samePath = (a: IssuePath, b: IssuePath) => a.length === b.length && a.every((x, i) => x === b[i]);
 
+/** A request-level field at fault (weights, trials, the response) is named once, not once per candidate. */
+function pushOnce(issues: Issue[], found: readonly Issue[]): void {
+  for (const f of found) if (!issues.some((i) => i.code === f.code && samePath(i.path, f.path))) issues.push(f);
+}
+
 function optionalColumn(columns: Columns, name: string | undefined, rows: readonly number[], at: IssuePath, issues: Issue[]): Float64Array | null {
   if (name === undefined) return null;
   const read = numericColumn(columns, name, rows, at);
@@ -62,15 +67,14 @@ export function scoreGlmCandidates(candidates: ReadonlyMap<number, GlmCandidateI
     const offset = optionalColumn(columns, c.offset, rows, [...at, 'offset'], own);
     const trials = c.family === 'binomial' ? optionalColumn(columns, c.trials, rows, ['trials'], own) : null;
     if (own.length > 0) {
-      issues.push(...own);
+      pushOnce(issues, own);
       continue;
     }
     const fit = fitGlm({
       family: c.family, link: c.link, design, response: ctx.y, trials, offset, weights: ctx.weights?.values ?? null, rows, at,
     });
     if ('issues' in fit) {
-      // A request-level field at fault (weights, trials, the response) is named once, not once per candidate.
-      for (const found of fit.issues) if (!issues.some((i) => i.code === found.code && samePath(i.path, found.path))) issues.push(found);
+      pushOnce(issues, fit.issues);
       continue;
     }
     const capabilities = glmCapabilities({ fit, design, candidate: c, index: i, trials: trials === null ? null : c.trials ?? null });
@@ -103,7 +107,7 @@ export function scoreFittedMeansCandidates(candidates: ReadonlyMap<number, Fitte
     const own: Issue[] = [];
     const trials = c.family === 'binomial' ? optionalColumn(columns, c.trials, ctx.rows, ['trials'], own) : null;
     if (own.length > 0) {
-      issues.push(...own);
+      pushOnce(issues, own);
       continue;
     }
     const score = scoreFittedMeans({

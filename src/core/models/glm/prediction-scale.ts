@@ -35,8 +35,9 @@ export function linkResponseScale(family: GlmFamilyName, link: GlmLinkName): Res
       const eta = sign * m;
       const mu = g.validEta(eta) ? g.mean(eta) : Number.NaN;
       if (Number.isFinite(mu) && f.validMean(mu, g.complement(eta))) return mu;
-      // Past a decreasing link's pole, or an overflowing exp: beyond every finite mean.
-      if (sign < 0 || mu === Number.POSITIVE_INFINITY) return 'above';
+      // Past a decreasing link's pole, an overflowing exp, or an interval end at η = +∞ (a
+      // standard error that overflowed at an extreme row): beyond every finite mean, never cut to 0.
+      if (sign < 0 || mu === Number.POSITIVE_INFINITY || eta === Number.POSITIVE_INFINITY) return 'above';
       return family === 'binomial' && mu >= 1 ? 'above' : 'below';
     },
     slope: (m) => sign * g.derivative(sign * m),
