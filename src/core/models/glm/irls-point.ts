@@ -15,6 +15,26 @@ export interface IrlsProblem {
   offset: Float64Array | null;
   /** θ of the negative binomial; ignored by the other families. */
   theta: number;
+  /**
+   * Steps by the observed information (Newton–Raphson) instead of the expected
+   * one (Fisher scoring), where observedInformationFactor has it for the
+   * family and link; runIrls takes its last steps by Fisher scoring again.
+   */
+  observedInformation?: boolean;
+}
+
+/**
+ * The observed information's weight over the expected one, per row, where it
+ * is known and positive: for the negative binomial under the log link (not its
+ * canonical link, so Fisher scoring converges only linearly — slowly when θ is
+ * small) -d²ℓ/dη² = θμ(y+θ)/(μ+θ)² against the expected θμ/(μ+θ): a factor
+ * (y+θ)/(μ+θ) > 0 for every count, so a Newton step is still a weighted least
+ * squares with positive weights (the log-likelihood is concave in η).
+ */
+export function observedInformationFactor(pr: IrlsProblem): ((y: number, mu: number) => number) | null {
+  if (!pr.observedInformation || pr.family.name !== 'negativeBinomial' || pr.link.name !== 'log') return null;
+  const theta = pr.theta;
+  return (y, mu) => (y + theta) / (mu + theta);
 }
 
 /** The model at one set of coefficients. */
@@ -107,14 +127,17 @@ export function workingQuantities(pr: IrlsProblem, point: IrlsPoint): { weights:
   const n = pr.y.length;
   const weights = new Float64Array(n);
   const residual = new Float64Array(n);
+  const observed = observedInformationFactor(pr);
   for (let i = 0; i < n; i++) {
     const d = point.dmu[i];
     const v = pr.family.variance(point.mu[i], point.complement[i], pr.theta);
-    const w = (pr.prior[i] * d * d) / v;
+    const f = observed ? observed(pr.y[i], point.mu[i]) : 1;
+    const w = (pr.prior[i] * d * d * f) / v;
     // A derivative or variance that has underflowed takes the row out of this step only.
     if (!(w > 0) || !Number.isFinite(w) || d === 0) continue;
     weights[i] = w;
-    residual[i] = pr.family.residual(pr.y[i], pr.prior[i], point.mu[i], point.complement[i]) / d;
+    // The score over the weight: the same score, divided by the observed information where Newton steps.
+    residual[i] = pr.family.residual(pr.y[i], pr.prior[i], point.mu[i], point.complement[i]) / d / f;
   }
   return { weights, residual };
 }

@@ -27,7 +27,7 @@
 import type { LeastSquaresFit } from '../../types.ts';
 import { DOUBLE_COVARIANCE_LIMIT } from '../../fit/covariance.ts';
 import { solveWeightedStep } from './weighted-step.ts';
-import { pointAt, startingPoint, workingQuantities, type IrlsPoint, type IrlsProblem } from './irls-point.ts';
+import { observedInformationFactor, pointAt, startingPoint, workingQuantities, type IrlsPoint, type IrlsProblem } from './irls-point.ts';
 import { weightedSolve } from './irls-step.ts';
 
 export { linearPredictor, type IrlsPoint, type IrlsProblem } from './irls-point.ts';
@@ -38,7 +38,7 @@ export const MAX_STEP_HALVINGS = 30;
 /** Halvings over a whole run, which bounds the work the pricing assumes. */
 export const MAX_RUN_HALVINGS = 60;
 export const DEFAULT_MAX_ITERATIONS = 25;
-export const CONVERGENCE_RULE = `Fisher scoring (IRLS, each weighted least-squares step solved by Householder QR) until |D_k - D_{k-1}| / (|D_k| + 0.1) < ${DEVIANCE_TOLERANCE} for the deviance D after step k and the step moves no coefficient by more than ${STEP_TOLERANCE} of its standard error; a step is halved, up to ${MAX_STEP_HALVINGS} times (${MAX_RUN_HALVINGS} in a whole fit), while the deviance rises or a fitted mean leaves the family's range`;
+export const CONVERGENCE_RULE = `Fisher scoring (IRLS, each weighted least-squares step solved by Householder QR) until |D_k - D_{k-1}| / (|D_k| + 0.1) < ${DEVIANCE_TOLERANCE} for the deviance D after step k and the step moves no coefficient by more than ${STEP_TOLERANCE} of its standard error (for the negative binomial under the log link, Newton–Raphson steps by the observed information until then, and Fisher steps until the rule holds again, so the covariance is the expected information's); a step is halved, up to ${MAX_STEP_HALVINGS} times (${MAX_RUN_HALVINGS} in a whole fit), while the deviance rises or a fitted mean leaves the family's range`;
 const EPS = 2 ** -52;
 
 export interface IrlsOptions {
@@ -99,11 +99,17 @@ export function runIrls(pr: IrlsProblem, options: IrlsOptions): IrlsOutcome {
   let full = false;
   let final: { fit: LeastSquaresFit; weights: Float64Array } | null = null;
   let converged = false;
+  // Newton steps where the observed information is known and positive (irls-point.ts), then Fisher's.
+  let newton = observedInformationFactor(pr) !== null;
+  let confirming = false;
+  const fisher: IrlsProblem = newton ? { ...pr, observedInformation: false } : pr;
   // The cap counts every solve; the confirming solve may come one past it.
-  while (iterations < options.maxIterations || (full && final === null)) {
+  while (iterations < options.maxIterations || (full && final === null) || confirming) {
     iterations++;
-    const { weights, residual } = workingQuantities(pr, point);
-    const step = weightedSolve(pr, point, hasBeta, weights, residual, active, full);
+    confirming = false;
+    const stepProblem = newton ? pr : fisher;
+    const { weights, residual } = workingQuantities(stepProblem, point);
+    const step = weightedSolve(stepProblem, point, hasBeta, weights, residual, active, full);
     let candidate = pointAt(pr, step.beta);
     if (!candidate.valid && !hasBeta) {
       // From starting means there is nothing to halve towards: take the
@@ -137,6 +143,13 @@ export function runIrls(pr: IrlsProblem, options: IrlsOptions): IrlsOutcome {
     lastStepInStandardErrors = step.stepInStandardErrors / 2 ** halvings;
     const settled = lastChange < DEVIANCE_TOLERANCE && lastStepInStandardErrors < STEP_TOLERANCE;
     if (!settled) continue;
+    // Settled by Newton steps: the last steps are Fisher scoring's, so the
+    // covariance, leverage and the convergence rule are the expected information's.
+    if (newton) {
+      newton = false;
+      confirming = true;
+      continue;
+    }
     // The plain covariance is the least-squares engine's choice too below its limit.
     if (!options.finalStep || step.full || !(2 * step.fit.conditionNumber * EPS > DOUBLE_COVARIANCE_LIMIT)) {
       converged = true;

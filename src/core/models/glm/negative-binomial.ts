@@ -1,7 +1,10 @@
 // The negative binomial by alternation, as MASS::glm.nb does it: a Poisson
 // fit for starting means, then θ by maximum likelihood at the current means
 // and IRLS at that θ (warm-started from the current coefficients), until θ
-// and the log-likelihood stop moving; the last IRLS run ends on the
+// and the log-likelihood stop moving. At fixed θ the steps are Newton's, by
+// the observed information (irls-point.ts): the log link is not the negative
+// binomial's canonical link, and Fisher scoring alone converges only
+// linearly — slowly enough, when θ is small, to run out of steps; the last IRLS run ends on the
 // least-squares engine's own solve for the covariance. Every weighted solve
 // counts towards one budget of NB_SOLVE_BUDGET × maxIterations, the figure
 // the pricing assumes.
@@ -13,7 +16,7 @@ import type { ParameterEstimate } from './dispersion.ts';
 
 export const NB_SOLVE_BUDGET = 4;
 export const NB_MAX_ALTERNATIONS = 25;
-const THETA_TOLERANCE = 1e-8;
+const THETA_TOLERANCE = 1e-11;
 const LIKELIHOOD_TOLERANCE = 1e-12;
 
 export type NegativeBinomialOutcome =
@@ -45,7 +48,7 @@ export function fitNegativeBinomial(pr: IrlsProblem, options: Omit<IrlsOptions, 
   let settled = false;
   while (alternations < NB_MAX_ALTERNATIONS && used < budget) {
     alternations++;
-    current = run({ ...pr, theta }, current.point.beta, false);
+    current = run({ ...pr, theta, observedInformation: true }, current.point.beta, false);
     if (!current.ok || !current.converged) return { ok: false, outcome: current.ok ? tally(current) : current };
     estimate = thetaMaximumLikelihood(pr.y, current.point.mu, theta);
     if (!estimate.ok) return { ok: false, unbounded: estimate.unbounded, outcome: tally(current) };
@@ -58,7 +61,7 @@ export function fitNegativeBinomial(pr: IrlsProblem, options: Omit<IrlsOptions, 
     if (settled) break;
   }
   if (!settled) return { ok: false, outcome: { ...tally(current), converged: false } };
-  const last = run({ ...pr, theta }, current.point.beta, true);
+  const last = run({ ...pr, theta, observedInformation: true }, current.point.beta, true);
   if (!last.ok || !last.converged) return { ok: false, outcome: last.ok ? tally(last) : last };
   return {
     ok: true,
