@@ -29,10 +29,9 @@ t.test('the report has a table of the family checks, one row per generalised lin
   const html = report.body;
   t.match(html, /data-section="glm-checks"/, 'the table is there');
   for (const model of body.models as { name: string; diagnostics: { glm: { overdispersion: { ratio: number }; devianceResiduals: { maxAbsolute: number } } } }[]) {
-    const row = html.match(new RegExp(`<tr data-model="${model.name}">(?:(?!</tr>).)*?</tr>`, 's'));
     const glmRow = [...html.matchAll(new RegExp(`<tr data-model="${model.name}">((?:(?!</tr>).)*)</tr>`, 'gs'))]
       .map((m) => m[1]).find((r) => r.includes('limit') || r.includes('beyond'));
-    t.ok(row && glmRow, `a row for ${model.name}`);
+    t.ok(glmRow, `a row for ${model.name}`);
     t.match(glmRow!, formatSignificant(model.diagnostics.glm.overdispersion.ratio, 'n/a', 3), 'Pearson χ²/df as stored');
     t.match(glmRow!, formatSignificant(model.diagnostics.glm.devianceResiduals.maxAbsolute, 'n/a', 3), 'largest deviance residual as stored');
   }

@@ -11,18 +11,23 @@ const columns = {
 };
 const reciprocal = { kind: 'transform', of: 'kelvin', fn: 'reciprocal' };
 
-t.test('a reciprocal of 0 at prediction row 1 is named at options/predict/columns/kelvin/1, row 1', async (t) => {
+/** The comparison of the two kelvin models, predicting at the given kelvin values. */
+async function predictAt(t: Parameters<typeof buildTestApp>[0], kelvin: (number | null)[]) {
   const { app } = await buildTestApp(t);
-  const res = await app.inject({
+  return app.inject({
     method: 'POST',
     url: '/v1/comparisons',
     payload: {
       data: { columns },
       response: 'shrinkage',
       candidates: [{ name: 'arrhenius', terms: [reciprocal] }, { name: 'linear', terms: ['kelvin'] }],
-      options: { predict: { columns: { kelvin: [1440, 0] } } },
+      options: { predict: { columns: { kelvin } } },
     },
   });
+}
+
+t.test('a reciprocal of 0 at prediction row 1 is named at options/predict/columns/kelvin/1, row 1', async (t) => {
+  const res = await predictAt(t, [1440, 0]);
   t.equal(res.statusCode, 422, res.body.slice(0, 300));
   const [first] = res.json().errors;
   t.same([first.path, first.code, first.row], ['options/predict/columns/kelvin/1', 'transform_domain', 1]);
@@ -31,17 +36,7 @@ t.test('a reciprocal of 0 at prediction row 1 is named at options/predict/column
 });
 
 t.test('a null at a prediction row is called a prediction row, not "a row the comparison uses"', async (t) => {
-  const { app } = await buildTestApp(t);
-  const res = await app.inject({
-    method: 'POST',
-    url: '/v1/comparisons',
-    payload: {
-      data: { columns },
-      response: 'shrinkage',
-      candidates: [{ name: 'arrhenius', terms: [reciprocal] }, { name: 'linear', terms: ['kelvin'] }],
-      options: { predict: { columns: { kelvin: [1440, null] } } },
-    },
-  });
+  const res = await predictAt(t, [1440, null]);
   t.equal(res.statusCode, 422, res.body.slice(0, 300));
   const [first] = res.json().errors;
   t.same([first.path, first.code, first.row], ['options/predict/columns/kelvin/1', 'value_missing', 1]);

@@ -28,7 +28,7 @@ import { DEFAULT_INTERVAL_LEVEL } from '../inference/coefficient-tests.ts';
 import { lifePicture, type CensoringColumns, type LifePicture } from '../models/lifetime/index.ts';
 import { censoredSample, censoringRowColumns } from './censored-sample.ts';
 import { lifetimeCautions, lifetimeConventions } from './lifetime-conventions.ts';
-import { lifePictureAffordable, lifePictureSkipped } from './life-picture-budget.ts';
+import { lifePictureDecision } from './life-picture-budget.ts';
 
 export type { CandidateInput } from '../models/registry.ts';
 
@@ -193,7 +193,8 @@ export function compareModels(
   });
   if ('issues' in extras) return extras;
   const lifeCurves = scored.flatMap((m) => (m.capabilities.lifeCurve ? [m.capabilities.lifeCurve] : []));
-  const picture = censored && lifeCurves.length > 0 && lifePictureAffordable(input) ? lifePicture(censored, lifeCurves, intervalLevel) : null;
+  const pictureDecision = lifePictureDecision(input);
+  const picture = censored && lifeCurves.length > 0 && pictureDecision.draw ? lifePicture(censored, lifeCurves, intervalLevel) : null;
 
   return {
     result: {
@@ -219,7 +220,7 @@ export function compareModels(
         ...checksCaution(models),
         ...averagingCautions(extras.averaged, rankings[choice.rankBy] ?? []),
         ...lifetimeCautions(input.candidates),
-        ...lifePictureSkipped(input),
+        ...pictureDecision.cautions,
         ...unscaledRankingCaution(quasi, choice.rankBy),
         ...trials.cautions,
       ],

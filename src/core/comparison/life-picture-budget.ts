@@ -37,16 +37,16 @@ export function dataRows(input: PictureRequest): number {
   return rows;
 }
 
-export function lifePictureAffordable(input: PictureRequest): boolean {
+/** Whether the picture is drawn, and the caution when it is not: one pricing of the request for both. */
+export function lifePictureDecision(input: PictureRequest): { draw: boolean; cautions: Caution[] } {
   const work = lifePictureWork(input, dataRows(input));
-  return work !== null && work <= LIFE_PICTURE_BUDGET;
-}
-
-export function lifePictureSkipped(input: PictureRequest): Caution[] {
-  const work = lifePictureWork(input, dataRows(input));
-  if (work === null || work <= LIFE_PICTURE_BUDGET) return [];
-  return [{
-    code: 'life_picture_skipped',
-    message: `The life-data picture was not stored: its nonparametric estimate and curves would cost about ${work.toPrecision(2)} multiply-adds, over the picture's budget of ${LIFE_PICTURE_BUDGET.toPrecision(2)} (a large sample with left or interval censoring, where Turnbull's estimate iterates). The ranking and every model are complete without it; send fewer rows for a picture.`,
-  }];
+  if (work === null) return { draw: false, cautions: [] };
+  if (work <= LIFE_PICTURE_BUDGET) return { draw: true, cautions: [] };
+  return {
+    draw: false,
+    cautions: [{
+      code: 'life_picture_skipped',
+      message: `The life-data picture was not stored: its nonparametric estimate and curves would cost about ${work.toPrecision(2)} multiply-adds, over the picture's budget of ${LIFE_PICTURE_BUDGET.toPrecision(2)} (a large sample with left or interval censoring, where Turnbull's estimate iterates). The ranking and every model are complete without it; send fewer rows for a picture.`,
+    }],
+  };
 }

@@ -10,7 +10,7 @@ import { shapeOfColumns } from '../../../src/core/pricing/data-shape.ts';
 import { FIXED_WORK } from '../../../src/core/pricing/least-squares-cost.ts';
 import { DEFAULT_POLICY } from '../../../src/core/scoring/policy.ts';
 import type { Columns, Term } from '../../../src/core/types.ts';
-import { LIFE_PICTURE_BUDGET, lifePictureSkipped, lifePictureWork } from '../../../src/core/comparison/life-picture-budget.ts';
+import { LIFE_PICTURE_BUDGET, lifePictureDecision, lifePictureWork } from '../../../src/core/comparison/life-picture-budget.ts';
 
 const rows = 400;
 const columns: Columns = {
@@ -93,8 +93,9 @@ t.test('a picture over its budget is left out with a caution, never the reason f
   const hasPicture = (n: number) => priceComparison(input(n), null, 2000).parts.some((p) => p.what.startsWith('the life-data picture'));
   t.ok(lifePictureWork(input(big), big)! > LIFE_PICTURE_BUDGET, 'the large sample is over the budget');
   t.notOk(hasPicture(big), 'so its picture is not priced');
-  t.equal(lifePictureSkipped(input(big))[0]?.code, 'life_picture_skipped', 'and the comparison says it was left out');
+  t.equal(lifePictureDecision(input(big)).cautions[0]?.code, 'life_picture_skipped', 'and the comparison says it was left out');
+  t.equal(lifePictureDecision(input(big)).draw, false);
   t.ok(hasPicture(2_000), 'a small interval-censored sample pays for its picture');
-  t.same(lifePictureSkipped(input(2_000)), [], 'and gets no caution');
+  t.same(lifePictureDecision(input(2_000)), { draw: true, cautions: [] }, 'and gets no caution');
   t.ok(priceComparison(input(100_000), null, 2000).work < 1e10, '100,000 interval-censored rows stay under the default work cap');
 });
