@@ -75,7 +75,7 @@ export function computePoolFor(config: Config): ComputePool {
 export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy, compute: givenPool, chainAtStart }: AppDependencies): Promise<FastifyInstance> {
   const policy = givenPolicy ?? loadPolicyFile(config.policyFile);
   const pool = givenPool ?? computePoolFor(config);
-  const compute: ComputeService = { pool, inlineWork: config.computeInlineWork, caps: priceCaps(config), comparisonsInFlight: 0 };
+  const compute: ComputeService = { pool, inlineWork: config.computeInlineWork, caps: priceCaps(config), schemaCheck: config.responseSchemaCheck, comparisonsInFlight: 0 };
   const app = Fastify({
     loggerInstance: (logger || undefined) as FastifyBaseLogger | undefined,
     bodyLimit: config.bodyLimitBytes,

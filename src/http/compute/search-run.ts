@@ -46,6 +46,7 @@ async function scoreAndReport(session: ComputeSession, prepared: Prepared, body:
     kind: 'searchReport', body, policy, prepared, outcome: run.outcome,
     run: { threads: run.threads, elapsedMs, budget: run.budget, estimatedFlops: run.estimatedFlops },
     resultCap: compute.caps.resultBytes,
+    schemaCheck: compute.schemaCheck,
   }));
   return 'result' in report ? { answer: report.result } : report;
 }
@@ -59,7 +60,7 @@ export async function computeSearch(
   const { body, policy, budget, compute } = work;
   if (!isLeastSquaresSearch(body)) {
     // Every subset an IRLS fit: the whole search is one job on one worker, answered (or refused) before any stream opens.
-    const done = await session.run<JobResults['glmSearch']>(forWorker({ kind: 'glmSearch', body, policy, budget, resultCap: compute.caps.resultBytes }));
+    const done = await session.run<JobResults['glmSearch']>(forWorker({ kind: 'glmSearch', body, policy, budget, resultCap: compute.caps.resultBytes, schemaCheck: compute.schemaCheck }));
     if ('result' in done) {
       hooks.onPrepared?.();
       return { answer: done.result };
