@@ -14,6 +14,12 @@ import type { SearchRequest } from '../schemas/search-request.ts';
 import { isLeastSquaresSearch } from '../search-input.ts';
 import type { ComputeService } from './run.ts';
 
+/** What a search needs of a compute session: run a job, or run one and say on which worker. */
+export type SearchSession = Pick<ComputeSession, 'run' | 'runOn'>;
+
+/** What a search needs of the compute service: how many workers share its subsets, and the result's caps and check. */
+export type SearchService = Pick<ComputeService, 'schemaCheck'> & { caps: Pick<ComputeService['caps'], 'resultBytes'>; pool: { size: number } };
+
 export type SearchComputed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Problem };
 
 type Prepared = Extract<JobResults['searchPrepare'], { prepared: unknown }>['prepared'];
@@ -25,7 +31,7 @@ export interface SearchRunHooks {
 }
 
 /** Score and report a prepared search, every piece on the pool's workers. */
-async function scoreAndReport(session: ComputeSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<SearchComputed> {
+async function scoreAndReport(session: SearchSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: SearchService, onProgress: (p: SearchProgress) => void): Promise<SearchComputed> {
   const { problem: subsets, choice } = prepared;
   const started = performance.now();
   // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
@@ -53,8 +59,8 @@ async function scoreAndReport(session: ComputeSession, prepared: Prepared, body:
 
 /** The whole search in an open session, under the budget its price left. */
 export async function computeSearch(
-  session: ComputeSession,
-  work: { body: SearchRequest; policy: ActivePolicy; budget: SearchBudget; compute: ComputeService },
+  session: SearchSession,
+  work: { body: SearchRequest; policy: ActivePolicy; budget: SearchBudget; compute: SearchService },
   hooks: SearchRunHooks = {},
 ): Promise<SearchComputed> {
   const { body, policy, budget, compute } = work;
