@@ -48,7 +48,7 @@ function comparisonCase(label: string, request: unknown, refusal?: string) {
   let seconds = Infinity;
   for (let r = 0; r < REPEATS; r++) {
     const t0 = process.cpuUsage();
-    const out = comparisonJob({ kind: 'comparison', body, policy, resultCap: caps.resultBytes });
+    const out = comparisonJob({ kind: 'comparison', body, policy, resultCap: caps.resultBytes, schemaCheck: false });
     seconds = Math.min(seconds, cpuSeconds(t0));
     const ended = 'result' in out ? null : 'issues' in out ? out.issues[0]?.code : 'other';
     if (ended !== (refusal ?? null)) throw new Error(`${label}: ${JSON.stringify(out).slice(0, 300)}`);
@@ -74,7 +74,7 @@ async function searchOnce(label: string, body: SearchRequest, priced: Extract<Re
   if (!run.ok) throw new Error(`${label}: ${run.issue.message}`);
   const report = searchReportJob({
     kind: 'searchReport', body, policy, prepared: prepared.prepared, outcome: run.outcome,
-    run: { threads: 1, elapsedMs: 0, budget: run.budget, estimatedFlops: run.estimatedFlops }, resultCap: caps.resultBytes,
+    run: { threads: 1, elapsedMs: 0, budget: run.budget, estimatedFlops: run.estimatedFlops }, resultCap: caps.resultBytes, schemaCheck: false,
   });
   if (!('result' in report)) throw new Error(`${label}: ${JSON.stringify(report).slice(0, 300)}`);
   return cpuSeconds(t0);

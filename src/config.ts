@@ -52,6 +52,9 @@ const ConfigSchema = z.object({
   // thread, where a worker round trip would cost more than the work (about
   // 12 ms of one core: the demo's five models are half of it). 0: everything in the pool.
   COMPUTE_INLINE_WORK: wholeNumber(0).default(5_000_000),
+  // Run the worked examples once at start (src/http/warm-up.ts) so the first
+  // caller does not pay for compiling the code: on by default in a deployment.
+  COMPUTE_WARM_UP: z.enum(['on', 'off']).default('on'),
   // POST /v1/summaries streams rows and keeps only their summary, so its body
   // may be far larger than any JSON request: 2 GiB holds ~10^7 rows of NDJSON.
   SUMMARY_BODY_LIMIT_BYTES: positiveInt(2 * 1024 * 1024 * 1024),
@@ -127,6 +130,7 @@ export type Config = Readonly<{
   computeQueueLength: number;
   computeDeadlineMs: number;
   computeInlineWork: number;
+  computeWarmUp: boolean;
   summaryBodyLimitBytes: number;
   corsOrigins: ReadonlyArray<string>;
   trustProxy: ReadonlyArray<string>;
@@ -174,6 +178,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     computeQueueLength: c.COMPUTE_QUEUE_LENGTH,
     computeDeadlineMs: c.COMPUTE_DEADLINE_MS,
     computeInlineWork: c.COMPUTE_INLINE_WORK,
+    computeWarmUp: c.COMPUTE_WARM_UP === 'on',
     summaryBodyLimitBytes: c.SUMMARY_BODY_LIMIT_BYTES,
     corsOrigins: Object.freeze(c.CORS_ORIGINS),
     trustProxy: Object.freeze(c.TRUST_PROXY),
@@ -188,7 +193,10 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
   });
 }
 
-/** Defaults for tests and the demo: what a fresh deployment would run with, answers re-checked against their schema. */
+/**
+ * Defaults for tests and the demo: what a fresh deployment would run with, answers re-checked against
+ * their schema, and no warm-up (hundreds of apps start in the tests; each would compile the examples).
+ */
 export function defaultConfig(overrides: Partial<Config> = {}): Config {
-  return Object.freeze({ ...loadConfig({}), responseSchemaCheck: true, ...overrides });
+  return Object.freeze({ ...loadConfig({}), responseSchemaCheck: true, computeWarmUp: false, ...overrides });
 }

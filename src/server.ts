@@ -9,6 +9,7 @@ import { KeyRing } from './http/security/key-ring.ts';
 import { KeysFileError, loadKeysFile } from './http/security/keys-file.ts';
 import { isLoopbackHost } from './http/security/loopback.ts';
 import { closeGracefully } from './shutdown.ts';
+import { warmUpMainThread } from './http/warm-up.ts';
 
 function refuseToStart(message: string): never {
   process.stderr.write(`parsimetry: ${message}\n`);
@@ -46,8 +47,16 @@ async function main(): Promise<void> {
   const compute = computePoolFor(config);
   compute.start();
   compute.on('start-failed', ({ slot, error }) => logger.error({ slot, err: error }, 'a compute worker failed to start; retrying'));
+  compute.on('warm-up-failed', ({ slot, error }) => logger.warn({ slot, error }, 'a compute worker\'s warm-up failed; it serves without it'));
   const app = await buildApp({ config, store, logger, keys, processMetrics: true, compute, chainAtStart: chain });
   closeGracefully({ app, store, compute, logger, graceMs: config.shutdownGraceMs });
+  if (config.computeWarmUp) {
+    try {
+      warmUpMainThread();
+    } catch (err) {
+      logger.warn({ err }, 'the warm-up comparison failed; serving without it');
+    }
+  }
 
   const address = await app.listen({ port: config.port, host: config.host });
   logger.info({ auditStore: store.backend, apiKeys: keys.size, computeWorkers: compute.size, address },

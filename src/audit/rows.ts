@@ -66,10 +66,12 @@ export interface PreparedRecord {
 // The text the row stores and what a JSON reader gets back from it (undefined
 // members gone, non-finite numbers null); plain JSON data is already that, and
 // is not parsed back. The text is the same as JSON.stringify of the parsed value.
-function jsonForm(value: unknown, field: string, written?: string): { text: string; value: unknown } {
+// A value whose canonical text was written is plain JSON data (canonicalJson
+// refuses anything else), so it is not walked again to find out.
+function jsonForm(value: unknown, field: string, written?: string, knownPlain = false): { text: string; value: unknown } {
   const text = written ?? JSON.stringify(value);
   if (text === undefined) throw new AuditRecordInvalid([`${field}: value at (root) is not a JSON value: ${typeof value}`]);
-  return { text, value: isPlainJsonData(value) ? value : JSON.parse(text) };
+  return { text, value: knownPlain || isPlainJsonData(value) ? value : JSON.parse(text) };
 }
 
 export function prepareRecord(input: NewRecord, written: WrittenTexts = {}): PreparedRecord {
@@ -78,8 +80,8 @@ export function prepareRecord(input: NewRecord, written: WrittenTexts = {}): Pre
   let result: { text: string; value: unknown };
   let json: unknown;
   try {
-    request = sentRequest === null || sentRequest === undefined ? null : jsonForm(sentRequest, 'request');
-    result = jsonForm(sentResult, 'result', written.resultJson);
+    request = sentRequest === null || sentRequest === undefined ? null : jsonForm(sentRequest, 'request', undefined, written.requestCanonical !== undefined);
+    result = jsonForm(sentResult, 'result', written.resultJson, written.resultCanonical !== undefined);
     json = { ...(toJsonValue(envelope) as object), request: request?.value ?? sentRequest, result: result.value };
   } catch (err) {
     if (err instanceof AuditRecordInvalid) throw err;

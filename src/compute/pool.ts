@@ -23,6 +23,8 @@ export interface ComputePoolOptions {
   workerModule: URL;
   /** Old-generation heap of each worker (resourceLimits); past it the worker dies, not the process. */
   heapLimitMb?: number;
+  /** Sent to each worker as workerData.warmUp: run the worked examples once before saying it is ready. */
+  warmUp?: boolean;
 }
 
 export interface PoolStats {
@@ -35,6 +37,8 @@ export interface PoolStats {
   sessions: number;
   /** Workers started to replace one that was stopped or died. */
   replaced: number;
+  /** Workers that ran the worked examples before saying they were ready (COMPUTE_WARM_UP). */
+  warmedUp: number;
 }
 
 interface Slot {
@@ -56,6 +60,9 @@ export class ComputePool extends EventEmitter implements PieceRunner {
   private started = false;
   private closed = false;
   private replaced = 0;
+  /** Some worker has said it is ready since start(). */
+  private servedOnce = false;
+  private warmedUp = 0;
   /** Smoothed wall time of a request in the pool, for Retry-After. */
   private typicalSeconds = 1;
 
@@ -73,6 +80,15 @@ export class ComputePool extends EventEmitter implements PieceRunner {
     if (this.started || this.closed) return;
     this.started = true;
     for (const slot of this.slots) this.spawn(slot);
+  }
+
+  /**
+   * Started and no worker ready yet (still loading its modules and, with
+   * warm-up, running the worked examples): work sent now would wait for it.
+   * A pool never started starts on its first request and is not "starting".
+   */
+  starting(): boolean {
+    return this.started && !this.closed && !this.servedOnce;
   }
 
   /** Admits one request, or refuses with ComputeBusy when every worker is taken and the queue is full. */
@@ -100,6 +116,7 @@ export class ComputePool extends EventEmitter implements PieceRunner {
       waiting: this.waiting.length,
       sessions: this.sessions.size,
       replaced: this.replaced,
+      warmedUp: this.warmedUp,
     };
   }
 
@@ -171,7 +188,7 @@ export class ComputePool extends EventEmitter implements PieceRunner {
     if (this.closed) return;
     const heap = this.options.heapLimitMb;
     const worker = new Worker(ENTRY, {
-      workerData: { module: this.options.workerModule.href },
+      workerData: { module: this.options.workerModule.href, warmUp: this.options.warmUp ?? false },
       // The entry installs what the worker needs itself. Inherited preloads (node --import …) would run
       // in the worker before any loader, and a TypeScript one fails there.
       execArgv: [],
@@ -186,6 +203,9 @@ export class ComputePool extends EventEmitter implements PieceRunner {
       if ('ready' in reply) {
         slot.ready = true;
         slot.failedStarts = 0;
+        this.servedOnce = true;
+        if (reply.warmUp === 'done') this.warmedUp++;
+        else if (reply.warmUp !== 'off') this.emit('warm-up-failed', { slot: slot.index, error: reply.warmUp.failed });
         this.dispatch();
         return;
       }

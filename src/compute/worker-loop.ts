@@ -26,9 +26,12 @@ function stepBack(): void {
   }
 }
 
-export type WorkerReply = { ready: true } | { id: number; ok: true; value: unknown } | { id: number; ok: false; error: string };
+/** How a worker's warm-up went: not asked for, ran the examples, or failed with this message. */
+export type WarmUpOutcome = 'off' | 'done' | { failed: string };
 
-export function serveJobs(run: (job: unknown) => unknown): void {
+export type WorkerReply = { ready: true; warmUp: WarmUpOutcome } | { id: number; ok: true; value: unknown } | { id: number; ok: false; error: string };
+
+export function serveJobs(run: (job: unknown) => unknown, warmUp: WarmUpOutcome = 'off'): void {
   const port = parentPort;
   if (!port) throw new Error('serveJobs runs inside a worker thread');
   stepBack();
@@ -41,5 +44,5 @@ export function serveJobs(run: (job: unknown) => unknown): void {
     }
     port.postMessage(reply);
   });
-  port.postMessage({ ready: true } satisfies WorkerReply);
+  port.postMessage({ ready: true, warmUp } satisfies WorkerReply);
 }

@@ -68,6 +68,7 @@ export function computePoolFor(config: Config): ComputePool {
     // A backstop, not the bound: designs live in typed arrays outside this heap and are priced against
     // MAX_REQUEST_MEMORY_BYTES; the heap holds the request's copy and the answer being built.
     heapLimitMb: Math.max(256, Math.ceil(config.maxRequestMemoryBytes / 2 ** 20)),
+    warmUp: config.computeWarmUp,
   });
 }
 
@@ -75,7 +76,7 @@ export function computePoolFor(config: Config): ComputePool {
 export async function buildApp({ config, store, logger, keys, processMetrics, policy: givenPolicy, compute: givenPool, chainAtStart }: AppDependencies): Promise<FastifyInstance> {
   const policy = givenPolicy ?? loadPolicyFile(config.policyFile);
   const pool = givenPool ?? computePoolFor(config);
-  const compute: ComputeService = { pool, inlineWork: config.computeInlineWork, caps: priceCaps(config), comparisonsInFlight: 0 };
+  const compute: ComputeService = { pool, inlineWork: config.computeInlineWork, caps: priceCaps(config), schemaCheck: config.responseSchemaCheck, comparisonsInFlight: 0 };
   const app = Fastify({
     loggerInstance: (logger || undefined) as FastifyBaseLogger | undefined,
     bodyLimit: config.bodyLimitBytes,
@@ -127,7 +128,7 @@ export async function buildApp({ config, store, logger, keys, processMetrics, po
 
   await app.register(rootRoutes);
   if (chainAtStart?.finding) app.metrics.recordChainFinding(chainAtStart.finding);
-  await app.register(healthRoutes, { store, chainAtStart });
+  await app.register(healthRoutes, { store, pool, chainAtStart });
   await app.register(comparisonRoutes, { store, config, policy, compute });
   await app.register(recordRoutes, { store });
   await app.register(pictureRoutes, { store });

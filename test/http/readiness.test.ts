@@ -9,7 +9,7 @@ import t, { type Test } from 'tap';
 import { checkChainAtStart } from '../../src/audit/chain-at-start.ts';
 import { openAuditStore } from '../../src/audit/open.ts';
 import { defaultConfig } from '../../src/config.ts';
-import { buildApp } from '../../src/http/app.ts';
+import { buildApp, computePoolFor } from '../../src/http/app.ts';
 import { demoComparison } from '../../scripts/demo-data.ts';
 
 function tempFile(t: Test): string {
@@ -63,4 +63,32 @@ t.test('a chain behind the head last seen: /readyz shows it, /metrics counts it'
   const metrics = (await app2.inject('/metrics')).body;
   t.match(metrics, /^parsimetry_audit_chain_head_findings_total\{kind="behind"\} 1$/m);
   t.match(metrics, /^parsimetry_audit_chain_records_missing 2$/m);
+});
+
+t.test('unready while the compute workers start and warm up; ready once one is up, and it answered the worked examples first', async (t) => {
+  const file = tempFile(t);
+  const store = await openAuditStore(file);
+  const config = defaultConfig({ auditDb: file, eventLoopMaxDelayMs: 0, computeWarmUp: true, computeWorkers: 1 });
+  const compute = computePoolFor(config);
+  const app = await buildApp({ config, store, logger: false, compute });
+  t.teardown(async () => { await app.close(); await compute.close(); await store.close(); });
+  compute.start();
+  const starting = await app.inject('/readyz');
+  t.equal(starting.statusCode, 503, 'a balancer sends nothing while no worker can take it');
+  t.same(starting.json(), { status: 'unready', auditStore: 'sqlite', computeWorkers: 'starting' });
+  while (compute.stats().ready === 0) await new Promise((resolve) => setTimeout(resolve, 20));
+  const ready = await app.inject('/readyz');
+  t.equal(ready.statusCode, 200);
+  t.same(ready.json(), { status: 'ok', auditStore: 'sqlite' });
+  t.equal(compute.stats().warmedUp, 1, 'the worker ran the worked examples before it said it was ready');
+  const listed = (await app.inject('/v1/comparisons')).json() as { records: unknown[] };
+  t.equal(listed.records.length, 0, 'the warm-up recorded nothing');
+});
+
+t.test('a pool never started (it starts on its first request) does not hold readiness back', async (t) => {
+  const file = tempFile(t);
+  const store = await openAuditStore(file);
+  const app = await buildApp({ config: defaultConfig({ auditDb: file, eventLoopMaxDelayMs: 0 }), store, logger: false });
+  t.teardown(async () => { await app.close(); await store.close(); });
+  t.equal((await app.inject('/readyz')).statusCode, 200);
 });

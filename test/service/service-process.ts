@@ -16,8 +16,24 @@ export interface ServiceProcess {
   output(): string;
 }
 
-/** Starts the service and resolves once it listens (fastify logs "Server listening at <url>" as JSON). */
-export function startService(env: Record<string, string>, startupMs = 30_000, compiled = false): Promise<ServiceProcess> {
+/**
+ * Starts the service and resolves once it listens (fastify logs "Server listening at <url>" as JSON)
+ * and its compute workers are up (/readyz no longer says `computeWorkers: "starting"`), as a balancer
+ * would wait before sending it work.
+ */
+export async function startService(env: Record<string, string>, startupMs = 30_000, compiled = false): Promise<ServiceProcess> {
+  const deadline = Date.now() + startupMs;
+  const service = await listening(env, startupMs, compiled);
+  while (Date.now() < deadline) {
+    const body = await fetch(`${service.base}/readyz`).then((r) => r.json() as Promise<{ computeWorkers?: string }>, () => ({ computeWorkers: 'starting' }));
+    if (body.computeWorkers !== 'starting') return service;
+    await new Promise((resolve) => setTimeout(resolve, 50));
+  }
+  service.child.kill('SIGKILL');
+  throw new Error(`the service's compute workers did not start within ${startupMs} ms:\n${service.output().slice(-3000)}`);
+}
+
+function listening(env: Record<string, string>, startupMs = 30_000, compiled = false): Promise<ServiceProcess> {
   // exit-with-parent: a test that dies half-way must not leave a service listening.
   const entry = compiled ? ['--import', EXIT_WITH_PARENT, 'dist/server.js'] : ['--import', 'tsx', '--import', EXIT_WITH_PARENT, 'src/server.ts'];
   const child = spawn(process.execPath, entry, {

@@ -162,6 +162,11 @@ export interface paths {
                             /** @enum {string} */
                             status: "ok" | "unready";
                             auditStore?: string;
+                            /**
+                             * @description Present while the compute workers are still starting (loading and warming their code): the service is unready until the first one is ready, so a balancer sends no request that would wait for them.
+                             * @enum {string}
+                             */
+                            computeWorkers?: "starting";
                             /** @description Present when the start found the SQLite chain behind (or different from) the head last seen. README: Lost records says what to do. */
                             chainWarning?: {
                                 /**
@@ -205,7 +210,7 @@ export interface paths {
         };
         /**
          * Readiness: the audit store takes records (a write is proven, probed when none is recent)
-         * @description 200 when the audit store answers and its last write (or a write probe after a failure) succeeded; 503 otherwise, because no result is sent without its audit record. For a load balancer's readiness check.
+         * @description 200 when the audit store answers and its last write (or a write probe after a failure) succeeded and a compute worker has started; 503 otherwise, because no result is sent without its audit record, and a request sent before any worker is up would wait for one (`computeWorkers: "starting"`). For a load balancer's readiness check.
          */
         get: {
             parameters: {
@@ -226,6 +231,11 @@ export interface paths {
                             /** @enum {string} */
                             status: "ok" | "unready";
                             auditStore?: string;
+                            /**
+                             * @description Present while the compute workers are still starting (loading and warming their code): the service is unready until the first one is ready, so a balancer sends no request that would wait for them.
+                             * @enum {string}
+                             */
+                            computeWorkers?: "starting";
                             /** @description Present when the start found the SQLite chain behind (or different from) the head last seen. README: Lost records says what to do. */
                             chainWarning?: {
                                 /**
@@ -260,6 +270,11 @@ export interface paths {
                             /** @enum {string} */
                             status: "ok" | "unready";
                             auditStore?: string;
+                            /**
+                             * @description Present while the compute workers are still starting (loading and warming their code): the service is unready until the first one is ready, so a balancer sends no request that would wait for them.
+                             * @enum {string}
+                             */
+                            computeWorkers?: "starting";
                             /** @description Present when the start found the SQLite chain behind (or different from) the head last seen. README: Lost records says what to do. */
                             chainWarning?: {
                                 /**

@@ -23,6 +23,8 @@ export interface ComputeService {
   /** Work (estimated multiply-adds) at or below which a comparison runs on the main thread. */
   inlineWork: number;
   caps: PriceCaps;
+  /** RESPONSE_SCHEMA_CHECK: hold every result to its response schema before it is recorded (tests), or trust the code's own shape (production). */
+  schemaCheck: boolean;
   /** Comparisons (POSTs and replays) between their pricing and their answer, this process. */
   comparisonsInFlight: number;
 }

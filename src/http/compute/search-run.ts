@@ -14,6 +14,12 @@ import type { SearchRequest } from '../schemas/search-request.ts';
 import { isLeastSquaresSearch } from '../search-input.ts';
 import type { ComputeService } from './run.ts';
 
+/** What a search needs of a compute session: run a job, or run one and say on which worker. */
+export type SearchSession = Pick<ComputeSession, 'run' | 'runOn'>;
+
+/** What a search needs of the compute service: how many workers share its subsets, and the result's caps and check. */
+export type SearchService = Pick<ComputeService, 'schemaCheck'> & { caps: Pick<ComputeService['caps'], 'resultBytes'>; pool: { size: number } };
+
 export type SearchComputed = { answer: SearchAnswer } | { issues: Issue[] } | { problem: Problem };
 
 type Prepared = Extract<JobResults['searchPrepare'], { prepared: unknown }>['prepared'];
@@ -25,7 +31,7 @@ export interface SearchRunHooks {
 }
 
 /** Score and report a prepared search, every piece on the pool's workers. */
-async function scoreAndReport(session: ComputeSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: ComputeService, onProgress: (p: SearchProgress) => void): Promise<SearchComputed> {
+async function scoreAndReport(session: SearchSession, prepared: Prepared, body: SearchRequest, policy: ActivePolicy, budget: SearchBudget, compute: SearchService, onProgress: (p: SearchProgress) => void): Promise<SearchComputed> {
   const { problem: subsets, choice } = prepared;
   const started = performance.now();
   // 'skip': a subset with aliased columns, or one spanning another's column space, is the same model again; counted once.
@@ -46,20 +52,21 @@ async function scoreAndReport(session: ComputeSession, prepared: Prepared, body:
     kind: 'searchReport', body, policy, prepared, outcome: run.outcome,
     run: { threads: run.threads, elapsedMs, budget: run.budget, estimatedFlops: run.estimatedFlops },
     resultCap: compute.caps.resultBytes,
+    schemaCheck: compute.schemaCheck,
   }));
   return 'result' in report ? { answer: report.result } : report;
 }
 
 /** The whole search in an open session, under the budget its price left. */
 export async function computeSearch(
-  session: ComputeSession,
-  work: { body: SearchRequest; policy: ActivePolicy; budget: SearchBudget; compute: ComputeService },
+  session: SearchSession,
+  work: { body: SearchRequest; policy: ActivePolicy; budget: SearchBudget; compute: SearchService },
   hooks: SearchRunHooks = {},
 ): Promise<SearchComputed> {
   const { body, policy, budget, compute } = work;
   if (!isLeastSquaresSearch(body)) {
     // Every subset an IRLS fit: the whole search is one job on one worker, answered (or refused) before any stream opens.
-    const done = await session.run<JobResults['glmSearch']>(forWorker({ kind: 'glmSearch', body, policy, budget, resultCap: compute.caps.resultBytes }));
+    const done = await session.run<JobResults['glmSearch']>(forWorker({ kind: 'glmSearch', body, policy, budget, resultCap: compute.caps.resultBytes, schemaCheck: compute.schemaCheck }));
     if ('result' in done) {
       hooks.onPrepared?.();
       return { answer: done.result };

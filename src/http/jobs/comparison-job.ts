@@ -21,6 +21,8 @@ export interface ComparisonJob {
   body: ComparisonRequest;
   policy: ActivePolicy;
   resultCap: Cap;
+  /** Hold the result to its response schema before it is recorded (RESPONSE_SCHEMA_CHECK). */
+  schemaCheck: boolean;
 }
 
 type Computed = Extract<ReturnType<typeof computeComparison>, { result: unknown }>['result'];
@@ -42,7 +44,7 @@ function canonicalOrNothing(result: unknown): string | undefined {
 export function comparisonJob(job: ComparisonJob): ComparisonJobOutcome {
   const outcome = computeComparison(job.body, job.policy);
   if ('issues' in outcome) return { issues: outcome.issues };
-  const checked = representableResult(ComparisonResult, outcome.result, { id: '', createdAt: '', serviceVersion });
+  const checked = representableResult(ComparisonResult, outcome.result, { id: '', createdAt: '', serviceVersion }, job.schemaCheck);
   if ('problem' in checked) return checked;
   const resultJson = JSON.stringify(checked.result);
   const tooLarge = resultSizeIssue(resultJson, job.resultCap, 'Predict at fewer new rows, or send fewer candidates or terms');

@@ -27,6 +27,8 @@ export interface GlmSearchJob {
   /** The budget the price left: how many IRLS fits the search may make. */
   budget: SearchBudget;
   resultCap: Cap;
+  /** Hold the result to its response schema before it is recorded (RESPONSE_SCHEMA_CHECK). */
+  schemaCheck: boolean;
 }
 
 export function glmSearchJob(job: GlmSearchJob): { result: SearchAnswer } | { issues: Issue[] } | { problem: Problem } {
@@ -64,7 +66,7 @@ export function glmSearchJob(job: GlmSearchJob): { result: SearchAnswer } | { is
     budget: { ...budget, estimatedFlops: null, nodes: outcome.visited, elapsedMs },
     threads: 1,
   };
-  const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion });
+  const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion }, job.schemaCheck);
   if ('problem' in checked) return checked;
   const tooLarge = resultSizeIssue(JSON.stringify(checked.result), job.resultCap, 'Ask for fewer top models, or narrow the pool');
   return tooLarge ? { issues: [tooLarge] } : { result: checked.result as unknown as SearchAnswer };

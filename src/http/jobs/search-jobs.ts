@@ -48,6 +48,8 @@ export interface SearchReportJob {
   outcome: SearchOutcome;
   run: { threads: number; elapsedMs: number; budget: SearchBudget; estimatedFlops: number | null };
   resultCap: Cap;
+  /** Hold the result to its response schema before it is recorded (RESPONSE_SCHEMA_CHECK). */
+  schemaCheck: boolean;
 }
 
 /** The budget's own sentence (it names the budget and the figures), with its facts flattened as every issue's are. */
@@ -99,7 +101,7 @@ export function searchReportJob(job: SearchReportJob): { result: SearchAnswer } 
     budget: { ...run.budget, estimatedFlops: run.estimatedFlops, nodes: outcome.nodes, elapsedMs: run.elapsedMs },
     threads: run.threads,
   };
-  const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion });
+  const checked = representableResult(SearchResult, answer, { id: '', createdAt: '', serviceVersion }, job.schemaCheck);
   if ('problem' in checked) return checked;
   const tooLarge = resultSizeIssue(JSON.stringify(checked.result), job.resultCap, 'Ask for fewer top models, or narrow the pool');
   return tooLarge ? { issues: [tooLarge] } : { result: checked.result as unknown as SearchAnswer };

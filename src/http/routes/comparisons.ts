@@ -47,7 +47,7 @@ export const comparisonRoutes: FastifyPluginAsyncZod<ComparisonRouteOptions> = a
     // Until the answer is sent: a comparison waiting on its record still needs the main thread.
     const done = comparisonStarted(compute);
     try {
-      const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes } as const;
+      const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes, schemaCheck: compute.schemaCheck } as const;
       const outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
       if (outcome === CLIENT_GONE) {
         request.log.info('comparison abandoned: the client went away before its answer; nothing recorded');

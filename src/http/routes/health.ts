@@ -8,6 +8,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import { describeFinding, type ChainAtStart } from '../../audit/chain-at-start.ts';
 import type { AuditStore } from '../../audit/store.ts';
+import type { ComputePool } from '../../compute/index.ts';
 
 const Head = z.strictObject({ seq: z.number().int(), hash: z.string() });
 
@@ -22,10 +23,11 @@ const ChainWarning = z.strictObject({
 const Health = z.strictObject({
   status: z.enum(['ok', 'unready']),
   auditStore: z.string().optional(),
+  computeWorkers: z.enum(['starting']).optional().meta({ description: 'Present while the compute workers are still starting (loading and warming their code): the service is unready until the first one is ready, so a balancer sends no request that would wait for them.' }),
   chainWarning: ChainWarning.optional(),
 });
 
-export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore; chainAtStart?: ChainAtStart }> = async (app, { store, chainAtStart }) => {
+export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore; pool: ComputePool; chainAtStart?: ChainAtStart }> = async (app, { store, pool, chainAtStart }) => {
   const finding = chainAtStart?.finding ?? null;
   const chainWarning = finding === null ? undefined : {
     kind: finding.kind,
@@ -48,10 +50,11 @@ export const healthRoutes: FastifyPluginAsyncZod<{ store: AuditStore; chainAtSta
       summary: 'Readiness: the audit store takes records (a write is proven, probed when none is recent)',
       security: [],
       response: { 200: Health, 503: Health },
-      description: '200 when the audit store answers and its last write (or a write probe after a failure) succeeded; 503 otherwise, because no result is sent without its audit record. For a load balancer\'s readiness check.',
+      description: '200 when the audit store answers and its last write (or a write probe after a failure) succeeded and a compute worker has started; 503 otherwise, because no result is sent without its audit record, and a request sent before any worker is up would wait for one (`computeWorkers: "starting"`). For a load balancer\'s readiness check.',
     },
   }, async (_request, reply) => {
-    const ready = await store.ready().catch(() => false);
-    return reply.code(ready ? 200 : 503).send({ status: ready ? 'ok' : 'unready', auditStore: store.backend, chainWarning });
+    const starting = pool.starting();
+    const ready = !starting && await store.ready().catch(() => false);
+    return reply.code(ready ? 200 : 503).send({ status: ready ? 'ok' : 'unready', auditStore: store.backend, ...(starting ? { computeWorkers: 'starting' as const } : {}), chainWarning });
   });
 };

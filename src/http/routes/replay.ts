@@ -135,7 +135,7 @@ export const replayRoutes: FastifyPluginAsyncZod<{ store: AuditStore; policy: Ac
     const done = comparisonStarted(compute);
     let outcome;
     try {
-      const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes } as const;
+      const job = { kind: 'comparison', body, policy, resultCap: compute.caps.resultBytes, schemaCheck: compute.schemaCheck } as const;
       outcome = await computeComparisonJob(compute, reply, watch, job, priced.price.work);
     } finally {
       done();

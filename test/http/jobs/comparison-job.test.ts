@@ -14,13 +14,13 @@ const body = ComparisonRequest.parse({
 });
 
 t.test('an answer within the cap comes back whole', async (t) => {
-  const out = comparisonJob({ kind: 'comparison', body, policy: DEFAULT_ACTIVE_POLICY, resultCap: { limit: 16 * 2 ** 20, setting: 'MAX_RESULT_BYTES' } });
+  const out = comparisonJob({ kind: 'comparison', body, policy: DEFAULT_ACTIVE_POLICY, resultCap: { limit: 16 * 2 ** 20, setting: 'MAX_RESULT_BYTES' }, schemaCheck: true });
   t.ok('result' in out);
   if ('result' in out) t.same(out.result.models.map((m) => m.name), ['speed', 'level']);
 });
 
 t.test('an answer measured over the cap is refused with its measured size', async (t) => {
-  const out = comparisonJob({ kind: 'comparison', body, policy: DEFAULT_ACTIVE_POLICY, resultCap: { limit: 2000, setting: 'MAX_RESULT_BYTES' } });
+  const out = comparisonJob({ kind: 'comparison', body, policy: DEFAULT_ACTIVE_POLICY, resultCap: { limit: 2000, setting: 'MAX_RESULT_BYTES' }, schemaCheck: true });
   t.ok('issues' in out);
   if (!('issues' in out)) return;
   const [issue] = out.issues;
